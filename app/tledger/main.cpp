@@ -1,0 +1,2 @@
+// Placeholder until the CLI lands (lead is writing it now).
+int main() { return 2; }
