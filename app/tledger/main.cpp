@@ -1,2 +1,53 @@
-// Placeholder until the CLI lands (lead is writing it now).
-int main() { return 2; }
+// tledger: the command-line face of Trophic Ledger (DESIGN.md 5.2). Everything the GUI
+// can do on a project or CSV folder, scripts and reviewers can do here.
+#include <iostream>
+#include <map>
+#include <string>
+#include <vector>
+
+#include "app/tledger/commands.h"
+
+namespace {
+
+constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
+
+  solve     MODEL [--scenario NAME] [--json]   balance sheet of a scenario
+  check     MODEL [--scenario NAME] [--json]   input problems and rule-of-thumb checks
+  network   MODEL [--scenario NAME] [--json]   trophic structure, impacts, indicators
+            --scor FILE [--json]               the same indicators for a SCOR flow network
+  import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
+  export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
+
+MODEL is a CSV model folder (compartments.csv, diet.csv, ...) or a .tledger project.
+Exit codes: 0 success, 1 model problems reported, 2 bad input or usage.
+)";
+
+}  // namespace
+
+int main(int argc, char** argv)
+{
+    using Command = int (*)(const tl::cli::Args&);
+    const std::map<std::string, Command> commands = {
+        {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
+        {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport},
+    };
+    if (argc < 2) {
+        std::cerr << kUsage;
+        return 2;
+    }
+    const std::string name = argv[1];
+    if (name == "--help" || name == "-h" || name == "help") {
+        std::cout << kUsage;
+        return 0;
+    }
+    if (name == "--version") {
+        std::cout << "tledger " << TL_VERSION << '\n';
+        return 0;
+    }
+    const auto it = commands.find(name);
+    if (it == commands.end()) {
+        std::cerr << "tledger: unknown command '" << name << "'\n\n" << kUsage;
+        return 2;
+    }
+    return it->second(tl::cli::Args(argv + 2, argv + argc));
+}

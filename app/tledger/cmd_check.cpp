@@ -1,0 +1,43 @@
+// tledger check MODEL [--scenario NAME] [--json]: every input problem and rule-of-thumb
+// diagnostic of a scenario, without the balance sheet. Exit 1 if any error is found
+// or the model does not balance; warnings alone leave it at 0.
+#include <algorithm>
+#include <iostream>
+
+#include "app/tledger/commands.h"
+#include "app/tledger/load_model.h"
+#include "app/tledger/options.h"
+#include "core/balance/solver.h"
+#include "core/io/balance_report.h"
+#include "core/model/validation.h"
+
+namespace tl::cli {
+
+int cmdCheck(const Args& args)
+{
+    const auto opts = parseOptions(args, {"--scenario"}, {"--json"}, "check", std::cerr);
+    if (!opts) return 2;
+    if (opts->positional.size() != 1) {
+        std::cerr << "tledger check: expected one MODEL (a CSV folder or a .tledger project)\n";
+        return 2;
+    }
+    const auto model = loadModelForCli(opts->positional[0], opts->value("--scenario"), std::cerr);
+    if (!model) return 2;
+
+    Problems problems = validateModel(*model);
+    const BalanceSheet sheet = solveBalance(*model);
+    for (const Problem& p : sheet.problems) {
+        const bool duplicate = std::any_of(problems.begin(), problems.end(), [&](const Problem& q) {
+            return q.code == p.code && q.compartment == p.compartment && q.parameter == p.parameter;
+        });
+        if (!duplicate) problems.push_back(p);
+    }
+    if (opts->has("--json")) {
+        std::cout << problemsJson(problems);
+    } else {
+        std::cout << "Checks: balance status " << statusKey(sheet.status) << "\n\n" << problemsTable(problems);
+    }
+    return hasErrors(problems) || sheet.status != BalanceStatus::Balanced ? 1 : 0;
+}
+
+}  // namespace tl::cli
