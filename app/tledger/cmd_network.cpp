@@ -1,0 +1,14 @@
+// tledger network — being implemented (owner: see DEVELOPERS.md). Until then it says so.
+#include <iostream>
+
+#include "app/tledger/commands.h"
+
+namespace tl::cli {
+
+int cmdNetwork(const Args&)
+{
+    std::cerr << "tledger network: not available in this build yet\n";
+    return 2;
+}
+
+}  // namespace tl::cli
