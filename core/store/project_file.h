@@ -1,0 +1,100 @@
+// ProjectFile: a .tledger project file, a SQLite database with this project's own
+// schema (see schema.h for the tables, the application id and the schema versions).
+//
+// Safety (SQLite "defensive" use): foreign keys ON, SQLITE_DBCONFIG_DEFENSIVE,
+// trusted_schema OFF, no extension loading, bound parameters only, WAL journal,
+// busy timeout. Every save is ONE transaction, so a crash leaves the previous state or
+// the new one, never a mix. A file of an older schema is migrated on a read-write
+// open (in one transaction); a newer schema opens read-only with the reason; anything
+// that is not a Trophic Ledger project is refused and left untouched.
+//
+// Nothing here throws: every failure is a Problem whose message names the file.
+#pragma once
+
+#include <filesystem>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/model/problem.h"
+#include "core/store/project.h"
+
+struct sqlite3;
+
+namespace tl {
+
+class ProjectFile;
+
+enum class OpenMode { ReadWrite, ReadOnly };
+
+struct ProjectOpenResult {
+    std::unique_ptr<ProjectFile> file;  // null when the file could not be opened
+    Problems problems;                  // why not, or warnings (e.g. opened read-only)
+    bool readOnly = false;
+    std::string readOnlyReason;         // e.g. "made by a newer version (schema 3; this program reads up to 2)"
+};
+
+template <typename T>
+struct StoreResult {
+    std::optional<T> value;  // empty on error
+    Problems problems;
+};
+
+struct ScenarioSummary {
+    std::string name, description, parent, created;
+    std::size_t compartments = 0;
+};
+
+class ProjectFile {
+public:
+    // Creates a new project file (refuses to overwrite an existing path) holding
+    // `project` (may have no scenarios), and returns it open read-write.
+    static ProjectOpenResult create(const std::filesystem::path& path, const Project& project);
+    static ProjectOpenResult open(const std::filesystem::path& path, OpenMode mode = OpenMode::ReadWrite);
+
+    ~ProjectFile();
+    ProjectFile(const ProjectFile&) = delete;
+    ProjectFile& operator=(const ProjectFile&) = delete;
+
+    const std::filesystem::path& path() const { return path_; }
+    bool readOnly() const { return readOnly_; }
+    const std::string& readOnlyReason() const { return readOnlyReason_; }
+    int schemaVersion() const { return schemaVersion_; }  // of the file as opened (after migration)
+
+    // --- reading ----------------------------------------------------------------
+    StoreResult<Project> load();                                  // everything
+    StoreResult<std::vector<ScenarioSummary>> listScenarios();
+    StoreResult<Scenario> loadScenario(const std::string& name);  // units/rules from the project
+
+    // --- writing (each call one transaction: all of it or nothing) ---------------
+    // Replaces the whole content: info, scenarios (those not in `project` are
+    // deleted) and runs (runs with id 0 are inserted; others kept by id).
+    Problems save(const Project& project);
+    Problems saveInfo(const ProjectInfo& info);
+    // Inserts the scenario or replaces the one of the same name, as a whole.
+    Problems saveScenario(const Scenario& scenario);
+
+    // Scenario operations. Names are trimmed first; an empty or duplicate name is refused.
+    Problems createScenario(const Scenario& scenario);  // refuses an existing name
+    // Deep copy of `from` named `to`, whose parent is `from`.
+    Problems duplicateScenario(const std::string& from, const std::string& to, const std::string& description = {});
+    Problems renameScenario(const std::string& from, const std::string& to);  // children's parent follows
+    Problems deleteScenario(const std::string& name);  // its stored runs go with it
+
+    // Stored runs.
+    StoreResult<std::int64_t> addRun(const StoredRun& run);  // returns the new id
+    StoreResult<std::vector<StoredRun>> listRuns();
+
+private:
+    ProjectFile(std::filesystem::path path, sqlite3* db, bool readOnly, std::string reason, int version);
+    friend struct ProjectFileAccess;
+
+    std::filesystem::path path_;
+    sqlite3* db_ = nullptr;
+    bool readOnly_ = false;
+    std::string readOnlyReason_;
+    int schemaVersion_ = 0;
+};
+
+}  // namespace tl
