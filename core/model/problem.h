@@ -27,6 +27,7 @@ struct Problem {
     std::string hint;         // what to do about it, or empty
     std::optional<FileLocation> location;  // set by readers of text files
     std::string prey;         // for diet problems: the prey column, or empty
+    std::string fleet;        // for harvest problems: the fleet, or empty
 
     // "file:line:column: message" when a location is known, else the message.
     std::string describe() const;
