@@ -68,8 +68,9 @@ public:
     StoreResult<Scenario> loadScenario(const std::string& name);  // units/rules from the project
 
     // --- writing (each call one transaction: all of it or nothing) ---------------
-    // Replaces the whole content: info, scenarios (those not in `project` are
-    // deleted) and runs (runs with id 0 are inserted; others kept by id).
+    // Replaces the whole content: info and scenarios (those not in `project` are
+    // deleted, in the order of `project`). Runs with id 0 in `project.runs` are
+    // inserted; runs already in the file are kept (remove them with deleteRun).
     Problems save(const Project& project);
     Problems saveInfo(const ProjectInfo& info);
     // Inserts the scenario or replaces the one of the same name, as a whole.
@@ -85,6 +86,11 @@ public:
     // Stored runs.
     StoreResult<std::int64_t> addRun(const StoredRun& run);  // returns the new id
     StoreResult<std::vector<StoredRun>> listRuns();
+    Problems deleteRun(std::int64_t id);
+
+    // How long a write waits for another process holding the file before it fails
+    // with a "busy" Problem (default 5000 ms).
+    void setBusyTimeout(int milliseconds);
 
 private:
     ProjectFile(std::filesystem::path path, sqlite3* db, bool readOnly, std::string reason, int version);
