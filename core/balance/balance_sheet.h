@@ -41,6 +41,8 @@ struct CompartmentBalance {
     double netEfficiency = kNotApplicable;  // P / (Q (1-U))
     double rb = kNotApplicable, pr = kNotApplicable;  // R/B, P/R
     double tl = kNotApplicable, oi = kNotApplicable;  // trophic level, omnivory index
+    // Living: B P/B EE - (predation + Y + E + BA), ~0 when the equation closes.
+    double residual = kNotApplicable;
 
     // Detritus pools only.
     double detritusInflow = kNotApplicable, detritusConsumption = kNotApplicable;
@@ -51,6 +53,9 @@ struct BalanceSheet {
     BalanceStatus status = BalanceStatus::Invalid;
     std::vector<CompartmentBalance> rows;  // same order as Model::compartments()
     Problems problems;
+    // min |pivot| / max |pivot| of the equilibrated system (1 when nothing was unknown):
+    // a rank/conditioning indicator, small means the solved values are fragile.
+    double pivotRatio = kNotApplicable;
 };
 
 }  // namespace tl

@@ -1,0 +1,135 @@
+// BalancePlan: the structural and numeric steps of the mass-balance solve
+// (Polovina 1984; Christensen & Pauly 1992), DESIGN.md 3.2. For each living i:
+//
+//   B_i (P/B)_i EE_i - sum_j B_j (Q/B)_j DC_ij = Y_i + E_i + BA_i
+//
+// With at most one unknown x_i among B, P/B, Q/B, EE per compartment, both sides are
+// linear in the unknowns: x_i enters row i through the production term (coefficient
+// P/B EE, B EE or B P/B) and the rows of i's prey through its consumption (coefficient
+// -DC_ki Q/B or -DC_ki B). The plan fixes which value is unknown where and the sizes;
+// the numeric step fills A x = b from a flat BalanceInputs, equilibrates it (rows and
+// columns scaled to unit max norm), factorises it and writes every completed value
+// and derived flow into a BalanceValues, without heap allocation.
+//   square system:       full-pivot LU (rank-revealing: pivot ratio |u_nn| / |u_11|);
+//   more rows than unknowns (some compartments fully given): column-pivoted Householder
+//                         QR least squares, then every equation's residual is reported.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <vector>
+
+#include <Eigen/Dense>
+
+#include "core/model/model.h"
+#include "core/model/problem.h"
+
+namespace tl {
+
+// Which of a living compartment's values the solve determines.
+enum class Unknown : std::uint8_t {
+    None,      // fully given: its equation is a check
+    Biomass,
+    PB,
+    QB,
+    EE,
+    QBTiedPB   // both P/B and Q/B missing, P/Q given: unknown Q/B, P/B = P/Q Q/B
+};
+
+// How P/Q completes P/B or Q/B before the solve (DESIGN 3.2: P/Q may stand in).
+enum class PqStandIn : std::uint8_t { None, PBFromPQ, QBFromPQ };
+
+// Flat numeric inputs, indexed by compartment. NaN where a value is not given; the
+// plan decides which entries are read. Defaults are applied by fromModel (U per
+// Compartment::unassimilatedOrDefault, missing catch/E/BA/import as 0).
+struct BalanceInputs {
+    Eigen::VectorXd biomass, pb, qb, ee, pq;
+    Eigen::VectorXd unassim;         // U
+    Eigen::VectorXd catchTotal;      // Y = landings + dead discards (Model::totalCatch)
+    Eigen::VectorXd deadDiscards;    // part of Y that goes to detritus
+    Eigen::VectorXd netEmigration;   // E
+    Eigen::VectorXd biomassAccum;    // BA (absolute, per year)
+    Eigen::VectorXd detritusImport;  // import into a pool
+    Eigen::MatrixXd diet;            // diet(prey, predator) = DC; import excluded
+    Eigen::MatrixXd routing;         // routing(source, pool) = share of source's detritus flow
+    Eigen::MatrixXd discardsToPool;  // discardsToPool(source, pool) = dead discards of source into pool
+
+    static BalanceInputs fromModel(const Model& model);
+    std::size_t size() const { return static_cast<std::size_t>(biomass.size()); }
+};
+
+enum class NumericStatus : std::uint8_t { Solved, Singular };
+
+// Everything the numeric step writes. Sized by BalancePlan::makeValues.
+struct BalanceValues {
+    NumericStatus status = NumericStatus::Solved;
+    Eigen::Index rank = 0;       // numerical rank of the equilibrated A
+    double pivotRatio = 1.0;     // min |pivot| / max |pivot| of the equilibrated A (1 if no unknowns)
+
+    // Completed inputs (given, from P/Q, or solved). Q/B is 0 for producers and pools.
+    Eigen::VectorXd biomass, pb, qb, ee;
+    // Flows, per year in the model's currency.
+    Eigen::VectorXd production;      // P = B P/B (0 for pools)
+    Eigen::VectorXd consumption;     // Q = B Q/B (0 for producers and pools)
+    Eigen::VectorXd predation;       // sum_j DC_ij Q_j (for pools: their consumption)
+    Eigen::VectorXd flowToDetritus;  // (1-EE)P + U Q + dead discards (0 for pools)
+    Eigen::VectorXd residual;        // B P/B EE - (predation + Y + E + BA); 0 for pools
+    Eigen::VectorXd residualScale;   // max(|B P/B EE|, |predation + Y + E + BA|)
+    // Detritus pools (0 elsewhere): inflow, EE_d = consumption / inflow, export.
+    Eigen::VectorXd detritusInflow, detritusEE, detritusExport;
+};
+
+// Preallocated matrices and decompositions for the numeric step.
+struct BalanceWorkspace {
+    Eigen::MatrixXd a;               // rows = living equations, cols = unknowns
+    Eigen::VectorXd b, x, y;
+    Eigen::VectorXd rowScale, colScale;
+    Eigen::VectorXd rhsWork;         // permuted / rotated right-hand side
+    Eigen::FullPivLU<Eigen::MatrixXd> lu;                 // square systems
+    Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr;       // overdetermined systems
+};
+
+class BalancePlan {
+public:
+    // Decides the unknown of every living compartment; structural problems (two or
+    // more unknowns, no detritus pool, ignored routing) go to problems().
+    static BalancePlan build(const Model& model);
+
+    BalanceWorkspace makeWorkspace() const;
+    BalanceValues makeValues() const;
+
+    // Numeric step: no heap allocation once ws and out come from this plan.
+    // Requires !hasStructuralErrors() and inputs of size compartmentCount().
+    void solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceValues& out) const;
+
+    std::size_t compartmentCount() const { return kinds_.size(); }
+    std::size_t equationCount() const { return rowCompartment_.size(); }
+    std::size_t unknownCount() const { return colCompartment_.size(); }
+    Unknown unknownOf(std::size_t compartment) const { return unknown_[compartment]; }
+    PqStandIn pqStandInOf(std::size_t compartment) const { return standIn_[compartment]; }
+    // Equation row / unknown column of a compartment, or -1.
+    int rowOf(std::size_t compartment) const { return rowOf_[compartment]; }
+    int columnOf(std::size_t compartment) const { return colOf_[compartment]; }
+    std::size_t compartmentOfColumn(std::size_t col) const { return colCompartment_[col]; }
+    std::size_t compartmentOfRow(std::size_t row) const { return rowCompartment_[row]; }
+    const std::vector<std::size_t>& pools() const { return pools_; }
+
+    const Problems& problems() const { return problems_; }
+    bool hasStructuralErrors() const { return hasErrors(problems_); }
+
+    // Pivot ratios at or below this mean the equilibrated system is rank deficient
+    // (about 5000 machine epsilons; this project's choice). After a Singular step,
+    // ws.a holds the equilibrated A for diagnosis.
+    static constexpr double kSingularPivotRatio = 1e-12;
+
+private:
+    std::vector<CompartmentKind> kinds_;
+    std::vector<Unknown> unknown_;
+    std::vector<PqStandIn> standIn_;
+    std::vector<int> rowOf_, colOf_;
+    std::vector<std::size_t> rowCompartment_, colCompartment_;
+    std::vector<std::size_t> consumers_, pools_;
+    Problems problems_;
+};
+
+}  // namespace tl

@@ -1,0 +1,308 @@
+// Mass-balance solver (Polovina 1984; Christensen & Pauly 1992): plan + numeric step
+// (balance_plan.cpp), then the checks of DESIGN.md 3.2, the derived outputs and the
+// trophic levels (Pauly et al. 1993 for the omnivory index).
+#include "core/balance/solver.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <set>
+#include <string>
+
+#include <Eigen/SVD>
+
+#include "core/balance/balance_codes.h"
+#include "core/balance/balance_plan.h"
+#include "core/balance/trophic_level.h"
+
+namespace tl {
+namespace {
+
+std::string num(double v)
+{
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.4g", v);
+    return buf;
+}
+
+using code::makeProblem;
+
+double nanIfMissing(const std::optional<double>& v) { return v.value_or(kNotApplicable); }
+
+void fillGivenValues(const Model& model, BalanceSheet& sheet)
+{
+    sheet.rows.resize(model.size());
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        const Compartment& c = model.compartment(i);
+        CompartmentBalance& row = sheet.rows[i];
+        row.name = c.name;
+        row.kind = c.kind;
+        row.biomass = nanIfMissing(c.value(Param::Biomass));
+        if (c.isLiving()) {
+            row.pb = nanIfMissing(c.value(Param::PB));
+            row.ee = nanIfMissing(c.value(Param::EE));
+            row.unassim = c.unassimilatedOrDefault();
+            row.catchTotal = model.totalCatch(i);
+            row.biomassAccum = c.valueOr(Param::BiomassAccum, 0.0);
+            row.netEmigration = c.valueOr(Param::NetEmigration, 0.0);
+        } else {
+            row.biomassAccum = c.valueOr(Param::BiomassAccum, 0.0);
+        }
+        if (c.kind == CompartmentKind::Consumer) {
+            row.qb = nanIfMissing(c.value(Param::QB));
+            row.pq = nanIfMissing(c.value(Param::PQ));
+        }
+    }
+}
+
+void fillTrophicLevels(const Model& model, BalanceSheet& sheet)
+{
+    const TrophicLevels levels = computeTrophicLevels(model);
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        const auto k = static_cast<Eigen::Index>(i);
+        sheet.rows[i].tl = levels.tl[k];
+        sheet.rows[i].oi = levels.oi[k];
+        const std::string& name = model.compartment(i).name;
+        if (levels.note[i] == TrophicLevelNote::NoModelledPrey)
+            sheet.problems.push_back(makeProblem(code::kTLFromImport, Severity::Warning, name, "diet",
+                                             "'" + name + "' eats no modelled compartment (all import or empty "
+                                             "diet); its trophic level is set to 2.",
+                                             "Check its diet row."));
+        else if (levels.note[i] == TrophicLevelNote::Undefined)
+            sheet.problems.push_back(makeProblem(code::kTLUndefined, Severity::Warning, name, "diet",
+                                             "'" + name + "' feeds (directly or through its prey) on a loop of "
+                                             "consumers that never reaches a producer or detritus; its trophic "
+                                             "level is undefined.",
+                                             "Give one compartment of the loop some producer or detritus food."));
+    }
+}
+
+std::string unknownSymbol(Unknown u)
+{
+    switch (u) {
+    case Unknown::Biomass: return "B";
+    case Unknown::PB: return "P/B";
+    case Unknown::QB: return "Q/B";
+    case Unknown::EE: return "EE";
+    case Unknown::QBTiedPB: return "Q/B (with P/B = P/Q Q/B)";
+    case Unknown::None: break;
+    }
+    return "";
+}
+
+std::string_view unknownKey(Unknown u)
+{
+    switch (u) {
+    case Unknown::Biomass: return paramKey(Param::Biomass);
+    case Unknown::PB: return paramKey(Param::PB);
+    case Unknown::QB:
+    case Unknown::QBTiedPB: return paramKey(Param::QB);
+    case Unknown::EE: return paramKey(Param::EE);
+    case Unknown::None: break;
+    }
+    return "";
+}
+
+// Names the compartments whose unknowns the singular system cannot determine (the
+// support of A's null space) and those whose equation contains no unknown at all.
+void reportSingular(const Model& model, const BalancePlan& plan, const BalanceWorkspace& ws, BalanceSheet& sheet)
+{
+    const Eigen::MatrixXd& a = ws.a;  // equilibrated
+    Eigen::JacobiSVD<Eigen::MatrixXd> svd(a, Eigen::ComputeFullV);
+    const Eigen::VectorXd& sigma = svd.singularValues();
+    const double tol = BalancePlan::kSingularPivotRatio * std::max(1.0, sigma.size() ? sigma[0] : 0.0) * 1e3;
+    std::set<std::size_t> involved;
+    std::string what;
+    for (Eigen::Index s = 0; s < a.cols(); ++s) {
+        if (s < sigma.size() && sigma[s] > tol) continue;
+        for (Eigen::Index c = 0; c < a.cols(); ++c)
+            if (std::abs(svd.matrixV()(c, s)) > 1e-6) involved.insert(plan.compartmentOfColumn(static_cast<std::size_t>(c)));
+    }
+    if (a.rows() == a.cols())
+        for (Eigen::Index r = 0; r < a.rows(); ++r)
+            if (a.row(r).cwiseAbs().maxCoeff() == 0.0) involved.insert(plan.compartmentOfRow(static_cast<std::size_t>(r)));
+    if (involved.empty())  // numerically singular without a clear support: name every unknown
+        for (std::size_t c = 0; c < plan.unknownCount(); ++c) involved.insert(plan.compartmentOfColumn(c));
+    for (std::size_t i : involved) {
+        if (!what.empty()) what += ", ";
+        const std::string sym = unknownSymbol(plan.unknownOf(i));
+        what += "'" + model.compartment(i).name + "'" + (sym.empty() ? " (no unknown)" : " (" + sym + ")");
+    }
+    for (std::size_t i : involved)
+        sheet.problems.push_back(makeProblem(
+            code::kSingularSystem, Severity::Error, model.compartment(i).name,
+            unknownKey(plan.unknownOf(i)),
+            "The balance equations cannot determine the unknowns of " + what +
+                ": they depend on each other (singular system).",
+            "Enter one of these values instead of solving for it, or give the prey of these "
+            "compartments a predator whose biomass and consumption are known."));
+}
+
+std::vector<Param> solvedParams(Unknown u, PqStandIn s)
+{
+    std::vector<Param> out;
+    if (s == PqStandIn::PBFromPQ) out.push_back(Param::PB);
+    if (s == PqStandIn::QBFromPQ) out.push_back(Param::QB);
+    switch (u) {
+    case Unknown::Biomass: out.push_back(Param::Biomass); break;
+    case Unknown::PB: out.push_back(Param::PB); break;
+    case Unknown::QB: out.push_back(Param::QB); break;
+    case Unknown::EE: out.push_back(Param::EE); break;
+    case Unknown::QBTiedPB:
+        out.push_back(Param::PB);
+        out.push_back(Param::QB);
+        break;
+    case Unknown::None: break;
+    }
+    std::sort(out.begin(), out.end());
+    return out;
+}
+
+void fillLiving(const BalancePlan& plan, const BalanceValues& v, std::size_t i,
+                CompartmentBalance& row)
+{
+    const auto k = static_cast<Eigen::Index>(i);
+    const bool consumer = row.kind == CompartmentKind::Consumer;
+    row.solved = solvedParams(plan.unknownOf(i), plan.pqStandInOf(i));
+    row.biomass = v.biomass[k];
+    row.pb = v.pb[k];
+    row.ee = v.ee[k];
+    row.production = v.production[k];
+    row.predation = v.predation[k];
+    row.flowToDetritus = v.flowToDetritus[k];
+    row.residual = v.residual[k];
+    row.z = row.pb;
+    row.m0 = row.pb * (1.0 - row.ee);
+    if (row.biomass > 0.0) {
+        row.m2 = row.predation / row.biomass;
+        row.f = row.catchTotal / row.biomass;
+    }
+    if (consumer) {
+        row.qb = v.qb[k];
+        row.consumption = v.consumption[k];
+        row.egestion = row.unassim * row.consumption;
+        row.respiration = row.consumption * (1.0 - row.unassim) - row.production;
+        if (row.qb != 0.0) row.pq = row.pb / row.qb;
+        const double assimilated = row.consumption * (1.0 - row.unassim);
+        if (assimilated != 0.0) row.netEfficiency = row.production / assimilated;
+        if (row.biomass > 0.0) row.rb = row.respiration / row.biomass;
+        if (row.respiration != 0.0) row.pr = row.production / row.respiration;
+    } else {
+        row.egestion = 0.0;
+    }
+}
+
+void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, const CompartmentBalance& row,
+                 const BalanceValues& v, Problems& problems)
+{
+    const auto k = static_cast<Eigen::Index>(i);
+    const Compartment& c = model.compartment(i);
+    const BalanceRules& rules = model.rules;
+    const std::string& name = row.name;
+    const std::string flow = model.units.flow();
+
+    for (Param p : row.solved) {
+        const double value = p == Param::Biomass ? row.biomass : p == Param::PB ? row.pb : p == Param::QB ? row.qb : row.ee;
+        if (value < 0.0)
+            problems.push_back(makeProblem(code::kNegativeValue, Severity::Error, name, paramKey(p),
+                                       "Solved " + std::string(paramSymbol(p)) + " of '" + name + "' is negative (" +
+                                           num(value) + ").",
+                                       "Predation and catch on '" + name +
+                                           "' are inconsistent with its other inputs; check its predators' diets."));
+    }
+    if (row.ee > rules.eeMax + kBoundTolerance)
+        problems.push_back(makeProblem(code::kEEAboveMax, Severity::Error, name, "ee",
+                                   "EE of '" + name + "' is " + num(row.ee) + ", above " + num(rules.eeMax) +
+                                       ": predation, catch and export take more than it produces.",
+                                   "Raise its B or P/B, or lower its predators' consumption of it or its catch."));
+    if (std::abs(v.residual[k]) > kResidualTolerance * v.residualScale[k]) {
+        const bool fullyGiven = plan.unknownOf(i) == Unknown::None;
+        std::string message = "The balance equation of '" + name + "' does not close: B P/B EE minus (predation + "
+                              "catch + E + BA) = " + num(v.residual[k]) + " " + flow + ".";
+        if (fullyGiven && row.production > 0.0)
+            message += " The EE that would close it is " +
+                       num((v.predation[k] + row.catchTotal + row.netEmigration + row.biomassAccum) / row.production) +
+                       ".";
+        problems.push_back(makeProblem(code::kEquationResidual, Severity::Error, name, fullyGiven ? "ee" : "",
+                                   std::move(message),
+                                   fullyGiven ? "Leave one of its B, P/B, Q/B or EE empty so that it is solved."
+                                              : "The equations are inconsistent; see the other residuals."));
+    }
+    if (row.kind != CompartmentKind::Consumer) return;
+    if (row.respiration < -kBoundTolerance * std::abs(row.consumption))
+        problems.push_back(makeProblem(code::kNegativeRespiration, Severity::Error, name, "qb",
+                                   "Respiration of '" + name + "' is negative (" + num(row.respiration) + " " + flow +
+                                       "): it produces more than it assimilates.",
+                                   "Raise its Q/B or lower its P/B or U."));
+    if (row.pq < rules.pqMin || row.pq > rules.pqMax)
+        problems.push_back(makeProblem(code::kPQOutOfRange, Severity::Warning, name, "pq",
+                                   "P/Q of '" + name + "' is " + num(row.pq) + ", outside the usual range " +
+                                       num(rules.pqMin) + " to " + num(rules.pqMax) + " (rule of thumb).",
+                                   "Check its P/B and Q/B."));
+    if (c.value(Param::PQ) && c.value(Param::PB) && c.value(Param::QB) && *c.value(Param::QB) != 0.0) {
+        const double implied = *c.value(Param::PB) / *c.value(Param::QB);
+        if (std::abs(implied - *c.value(Param::PQ)) > 1e-6 * std::abs(*c.value(Param::PQ)))
+            problems.push_back(makeProblem(code::kPQInconsistent, Severity::Warning, name, "pq",
+                                       "Given P/Q of '" + name + "' (" + num(*c.value(Param::PQ)) +
+                                           ") differs from its P/B / Q/B (" + num(implied) + "); P/B and Q/B are used.",
+                                       "Leave P/Q empty, or leave P/B or Q/B empty so that P/Q stands in."));
+    }
+}
+
+}  // namespace
+
+BalanceSheet solveBalance(const Model& model)
+{
+    BalanceSheet sheet;
+    const BalancePlan plan = BalancePlan::build(model);
+    sheet.problems = plan.problems();
+    fillGivenValues(model, sheet);
+    fillTrophicLevels(model, sheet);
+    if (plan.hasStructuralErrors()) {
+        sheet.status = BalanceStatus::Invalid;
+        return sheet;
+    }
+
+    const BalanceInputs inputs = BalanceInputs::fromModel(model);
+    BalanceWorkspace ws = plan.makeWorkspace();
+    BalanceValues values = plan.makeValues();
+    plan.solve(inputs, ws, values);
+    sheet.pivotRatio = values.pivotRatio;
+    if (values.status == NumericStatus::Singular) {
+        reportSingular(model, plan, ws, sheet);
+        sheet.status = BalanceStatus::Invalid;
+        return sheet;
+    }
+    if (values.pivotRatio < kIllConditionedPivotRatio)
+        sheet.problems.push_back(makeProblem(code::kIllConditioned, Severity::Warning, "", "",
+                                         "The balance equations are nearly singular (pivot ratio " +
+                                             num(values.pivotRatio) + "): solved values are sensitive to the inputs.",
+                                         "Give directly some of the values being solved."));
+
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        CompartmentBalance& row = sheet.rows[i];
+        const auto k = static_cast<Eigen::Index>(i);
+        if (row.kind == CompartmentKind::Detritus) {
+            row.solved = {Param::EE};
+            row.ee = values.detritusEE[k];
+            row.predation = values.predation[k];
+            row.detritusInflow = values.detritusInflow[k];
+            row.detritusConsumption = values.predation[k];
+            row.detritusExport = values.detritusExport[k];
+            if (row.ee > 1.0 + kBoundTolerance || std::isnan(row.ee))
+                sheet.problems.push_back(makeProblem(
+                    code::kDetritusEEAboveOne, Severity::Error, row.name, "ee",
+                    "Detritus pool '" + row.name + "' is consumed beyond its inflow (consumption " +
+                        num(row.detritusConsumption) + ", inflow " + num(row.detritusInflow) + " " +
+                        model.units.flow() + ").",
+                    "Lower the detritus share in its consumers' diets, or add a detritus import."));
+            continue;
+        }
+        fillLiving(plan, values, i, row);
+        checkLiving(model, plan, i, row, values, sheet.problems);
+    }
+    sheet.status = hasErrors(sheet.problems) ? BalanceStatus::Unbalanced : BalanceStatus::Balanced;
+    return sheet;
+}
+
+}  // namespace tl

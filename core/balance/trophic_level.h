@@ -1,0 +1,46 @@
+// Effective trophic level and omnivory index of every compartment (DESIGN.md 3.3).
+//
+//   TL_j = 1                               for producers and detritus pools;
+//   TL_j = 1 + sum_i DC'_ij TL_i            for consumers,
+//   OI_j = sum_i (TL_i - (TL_j - 1))^2 DC'_ij   (omnivory index, Pauly et al. 1993),
+//
+// with DC'_ij = DC_ij / sum_k DC_kj the diet renormalised without `import`. The
+// consumers' levels solve one linear system (I - DC'^T) TL = 1 + basal terms (Eigen
+// LU), not a fixed-point iteration. This is the same quantity as networkx's
+// trophic_levels on the weighted diet graph (prey -> predator), producers and pools
+// being the nodes without food.
+//
+// Two cases the equation leaves open, handled explicitly (this project's choices):
+//  - a consumer with no modelled prey (all-import or empty diet): its food comes from
+//    outside, treated as basal food of TL 1, so TL = 2 and OI = 0 (NoModelledPrey);
+//  - a consumer whose food chains never reach a producer, pool or such a consumer (a
+//    closed feeding loop, e.g. two groups eating only each other) has no finite level,
+//    nor has anything that eats it: TL and OI are NaN (Undefined).
+#pragma once
+
+#include <cstdint>
+#include <vector>
+
+#include <Eigen/Dense>
+
+#include "core/model/model.h"
+
+namespace tl {
+
+enum class TrophicLevelNote : std::uint8_t { Basal, Computed, NoModelledPrey, Undefined };
+
+struct TrophicLevels {
+    Eigen::VectorXd tl;  // per compartment
+    Eigen::VectorXd oi;
+    std::vector<TrophicLevelNote> note;
+};
+
+// diet(prey, predator) = fraction of prey in predator's diet, import excluded (columns
+// are renormalised here, so flows work as well as fractions). basal[i] marks
+// producers and detritus pools.
+TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal);
+
+// From a model's diet matrix; producers and detritus pools are basal.
+TrophicLevels computeTrophicLevels(const Model& model);
+
+}  // namespace tl
