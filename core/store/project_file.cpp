@@ -508,6 +508,20 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
                               ProjectFile* (*make)(fs::path, sqlite3*, bool, std::string, int))
 {
     ProjectOpenResult result;
+    // SQLite makes -wal and -shm files beside a WAL database when it opens it. If the
+    // file is then refused, remove the ones this attempt made, so that a refused file
+    // is left exactly as it was found.
+    std::error_code ec;
+    fs::path wal = path, shm = path;
+    wal += "-wal";
+    shm += "-shm";
+    const bool hadWal = fs::exists(wal, ec), hadShm = fs::exists(shm, ec);
+    auto refuse = [&](sqlite3* db) {
+        sqlite3_close(db);
+        if (!hadWal && fs::exists(wal, ec) && fs::file_size(wal, ec) == 0) fs::remove(wal, ec);
+        if (!hadShm && !fs::exists(wal, ec)) fs::remove(shm, ec);
+        return std::move(result);
+    };
     auto openDb = [&](bool readOnly) -> sqlite3* {
         sqlite3* db = nullptr;
         const int flags = (readOnly ? SQLITE_OPEN_READONLY : SQLITE_OPEN_READWRITE) | SQLITE_OPEN_NOFOLLOW;
@@ -535,8 +549,7 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
                 result.problems.push_back(fileProblem(path, "store-damaged", "damaged: " + why,
                                                       "The file was left unchanged; restore it from a backup."));
             }
-            sqlite3_close(db);
-            return result;
+            return refuse(db);
         }
     }
     const auto appId = pragmaInt(db, "PRAGMA application_id");
@@ -544,8 +557,7 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
     if (!appId || !version || *appId != store::kApplicationId || *version < 1) {
         result.problems.push_back(fileProblem(path, "store-not-project",
                                               "not a Trophic Ledger project (no schema version); it was left unchanged"));
-        sqlite3_close(db);
-        return result;
+        return refuse(db);
     }
     int schema = static_cast<int>(*version);
     std::string reason;
