@@ -184,6 +184,7 @@ BalanceWorkspace BalancePlan::makeWorkspace() const
     ws.y.setZero(k);
     ws.rowScale.setOnes(m);
     ws.colScale.setOnes(k);
+    ws.colGross.setZero(k);
     ws.rhsWork.setZero(m);
     if (m == k) ws.lu = Eigen::FullPivLU<Eigen::MatrixXd>(m, k);
     else ws.qr = Eigen::ColPivHouseholderQR<Eigen::MatrixXd>(m, k);
@@ -220,7 +221,15 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
     }
 
     // 2. Assemble A x = b, row r = living compartment i.
+    // colGross tracks the largest term added into each column, so that entries which
+    // cancel to rounding (e.g. P/B EE - Q/B DC_ii of a group eaten only by itself) are
+    // recognised as zero before equilibration would blow them up.
     ws.a.setZero();
+    ws.colGross.setZero();
+    const auto add = [&ws](Eigen::Index r, int col, double term) {
+        ws.a(r, col) += term;
+        ws.colGross[col] = std::max(ws.colGross[col], std::abs(term));
+    };
     for (Eigen::Index r = 0; r < m; ++r) {
         const std::size_t i = rowCompartment_[static_cast<std::size_t>(r)];
         const auto ii = static_cast<Eigen::Index>(i);
@@ -229,19 +238,19 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
         switch (unknown_[i]) {
         case Unknown::None:
         case Unknown::QB: rhs -= out.biomass[ii] * out.pb[ii] * out.ee[ii]; break;
-        case Unknown::Biomass: ws.a(r, col) += out.pb[ii] * out.ee[ii]; break;
-        case Unknown::PB: ws.a(r, col) += out.biomass[ii] * out.ee[ii]; break;
-        case Unknown::EE: ws.a(r, col) += out.biomass[ii] * out.pb[ii]; break;
-        case Unknown::QBTiedPB: ws.a(r, col) += out.biomass[ii] * out.ee[ii] * in.pq[ii]; break;
+        case Unknown::Biomass: add(r, col, out.pb[ii] * out.ee[ii]); break;
+        case Unknown::PB: add(r, col, out.biomass[ii] * out.ee[ii]); break;
+        case Unknown::EE: add(r, col, out.biomass[ii] * out.pb[ii]); break;
+        case Unknown::QBTiedPB: add(r, col, out.biomass[ii] * out.ee[ii] * in.pq[ii]); break;
         }
         for (std::size_t j : consumers_) {
             const auto jj = static_cast<Eigen::Index>(j);
             const double dc = in.diet(ii, jj);
             if (dc == 0.0) continue;
             switch (unknown_[j]) {
-            case Unknown::Biomass: ws.a(r, colOf_[j]) -= dc * out.qb[jj]; break;
+            case Unknown::Biomass: add(r, colOf_[j], -dc * out.qb[jj]); break;
             case Unknown::QB:
-            case Unknown::QBTiedPB: ws.a(r, colOf_[j]) -= dc * out.biomass[jj]; break;
+            case Unknown::QBTiedPB: add(r, colOf_[j], -dc * out.biomass[jj]); break;
             default: rhs += dc * out.biomass[jj] * out.qb[jj]; break;
             }
         }
@@ -254,6 +263,9 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
     out.pivotRatio = 1.0;
     if (k > 0) {
         for (Eigen::Index c = 0; c < k; ++c) {
+            const double residue = kCancellationResidue * ws.colGross[c];
+            for (Eigen::Index r = 0; r < m; ++r)
+                if (std::abs(ws.a(r, c)) <= residue) ws.a(r, c) = 0.0;
             ws.colScale[c] = unitScale(ws.a.col(c));
             ws.a.col(c) *= ws.colScale[c];
         }

@@ -84,6 +84,7 @@ struct BalanceWorkspace {
     Eigen::MatrixXd a;               // rows = living equations, cols = unknowns
     Eigen::VectorXd b, x, y;
     Eigen::VectorXd rowScale, colScale;
+    Eigen::VectorXd colGross;        // largest term added into each column
     Eigen::VectorXd rhsWork;         // permuted / rotated right-hand side
     Eigen::FullPivLU<Eigen::MatrixXd> lu;                 // square systems
     Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr;       // overdetermined systems
@@ -121,6 +122,9 @@ public:
     // (about 5000 machine epsilons; this project's choice). After a Singular step,
     // ws.a holds the equilibrated A for diagnosis.
     static constexpr double kSingularPivotRatio = 1e-12;
+    // An entry of A at or below this share of the largest term summed into its column
+    // is cancellation residue and counts as 0 (about 450 machine epsilons).
+    static constexpr double kCancellationResidue = 1e-13;
 
 private:
     std::vector<CompartmentKind> kinds_;
