@@ -134,8 +134,7 @@ void reportSingular(const Model& model, const BalancePlan& plan, const BalanceWo
             unknownKey(plan.unknownOf(i)),
             "The balance equations cannot determine the unknowns of " + what +
                 ": they depend on each other (singular system).",
-            "Enter one of these values instead of solving for it, or give the prey of these "
-            "compartments a predator whose biomass and consumption are known."));
+            "Enter one of these values instead of solving for it."));
 }
 
 std::vector<Param> solvedParams(Unknown u, PqStandIn s)

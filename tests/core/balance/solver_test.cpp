@@ -243,5 +243,278 @@ TEST(SolverConservation, ConsumersAndPoolsCloseTheirBudgets)
     }
 }
 
+// ---------------------------------------------------------------------------------
+// Every reported problem, by code and compartment name.
+
+const Problem* findProblem(const BalanceSheet& sheet, std::string_view code, std::string_view compartment)
+{
+    for (const Problem& p : sheet.problems)
+        if (p.code == code && p.compartment == compartment) return &p;
+    return nullptr;
+}
+
+std::string listProblems(const BalanceSheet& sheet)
+{
+    std::string out;
+    for (const Problem& p : sheet.problems) out += p.code + " [" + p.compartment + "] " + p.message + "\n";
+    return out;
+}
+
+TEST(SolverProblems, TwoUnknownsNameTheCompartmentAndTheMissingValues)
+{
+    Model m = tenPercentChain();
+    m.compartment(2).value(Param::Biomass).reset();  // Carnivore: B and EE both missing
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Invalid);
+    const Problem* p = findProblem(sheet, code::kUnderdetermined, "Carnivore");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_EQ(p->severity, Severity::Error);
+    EXPECT_NE(p->message.find("B, EE"), std::string::npos) << p->message;
+    EXPECT_EQ(findProblem(sheet, code::kUnderdetermined, "Grazer"), nullptr);
+}
+
+TEST(SolverProblems, PBAndQBBothMissingWithoutPQIsTwoUnknowns)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::PB).reset();
+    m.compartment(1).value(Param::QB).reset();
+    m.compartment(1).value(Param::EE) = 0.5;
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Invalid);
+    const Problem* p = findProblem(sheet, code::kUnderdetermined, "Grazer");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_NE(p->message.find("P/B, Q/B"), std::string::npos) << p->message;
+}
+
+TEST(SolverProblems, SingularSystemNamesTheCompartmentsInvolved)
+{
+    // Grazer's Q/B appears only in Alga's row, which also holds Alga's unknown EE:
+    // one equation, two unknowns, the rest of the rows do not involve them.
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::QB).reset();
+    m.compartment(1).value(Param::EE) = 0.5;
+    for (std::size_t i : {2u, 3u}) m.compartment(i).value(Param::EE) = i == 2 ? 0.5 : 0.8;
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Invalid) << listProblems(sheet);
+    const Problem* alga = findProblem(sheet, code::kSingularSystem, "Alga");
+    const Problem* grazer = findProblem(sheet, code::kSingularSystem, "Grazer");
+    ASSERT_NE(alga, nullptr) << listProblems(sheet);
+    ASSERT_NE(grazer, nullptr) << listProblems(sheet);
+    EXPECT_EQ(grazer->parameter, "qb");
+    EXPECT_EQ(alga->parameter, "ee");
+    EXPECT_EQ(findProblem(sheet, code::kSingularSystem, "Carnivore"), nullptr);
+}
+
+TEST(SolverProblems, CannibalEatenOnlyByItselfHasUndeterminedBiomass)
+{
+    // B (P/B EE - Q/B DC_ii) = 0 with P/B EE = Q/B DC_ii: any B satisfies it.
+    Model m;
+    Compartment alga = make("Alga", CompartmentKind::Producer, {{Param::Biomass, 100}, {Param::PB, 10}});
+    m.addCompartment(alga);
+    m.addCompartment(make("Pike", CompartmentKind::Consumer, {{Param::PB, 0.6}, {Param::QB, 3}, {Param::EE, 0.1}}));
+    m.addCompartment(make("Detritus", CompartmentKind::Detritus));
+    m.setDiet(1, 0, 0.98);
+    m.setDiet(1, 1, 0.02);  // 3 x 0.02 = 0.06 = 0.6 x 0.1
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Invalid);
+    ASSERT_NE(findProblem(sheet, code::kSingularSystem, "Pike"), nullptr) << listProblems(sheet);
+}
+
+TEST(SolverProblems, EEAboveOneUnbalancesAndNamesTheCompartment)
+{
+    Model m = tenPercentChain();
+    m.compartment(0).value(Param::PB) = 5;  // Alga produces 500, Grazer eats 1000
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    EXPECT_NEAR(sheet.rows[0].ee, 2.0, 1e-12);
+    const Problem* p = findProblem(sheet, code::kEEAboveMax, "Alga");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_EQ(p->parameter, "ee");
+    EXPECT_EQ(sheet.problems.size(), 1u) << listProblems(sheet);
+}
+
+TEST(SolverProblems, EEMaxRuleIsHonoured)
+{
+    Model m = tenPercentChain();
+    m.rules.eeMax = 0.7;  // Top's EE is 0.8
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    EXPECT_NE(findProblem(sheet, code::kEEAboveMax, "Top"), nullptr) << listProblems(sheet);
+    EXPECT_EQ(findProblem(sheet, code::kEEAboveMax, "Carnivore"), nullptr);
+}
+
+TEST(SolverProblems, NegativeRespiration)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::Unassim) = 0.95;  // assimilates 50, produces 100
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    EXPECT_NEAR(sheet.rows[1].respiration, -50.0, 1e-9);
+    EXPECT_NE(findProblem(sheet, code::kNegativeRespiration, "Grazer"), nullptr) << listProblems(sheet);
+}
+
+TEST(SolverProblems, PQOutsideRuleOfThumbIsAWarningOnly)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::PB) = 60;  // P/Q = 0.6 > 0.5
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
+    const Problem* p = findProblem(sheet, code::kPQOutOfRange, "Grazer");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_EQ(p->severity, Severity::Warning);
+    m.compartment(3).value(Param::QB) = 300;  // Top P/Q = 0.033 < 0.05
+    EXPECT_NE(findProblem(solveBalance(m), code::kPQOutOfRange, "Top"), nullptr);
+}
+
+TEST(SolverProblems, FullyGivenEquationThatDoesNotCloseReportsItsResidual)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::EE) = 0.4;  // Grazer fully given; 40 produced-and-used vs 50 eaten
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    const Problem* p = findProblem(sheet, code::kEquationResidual, "Grazer");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_NEAR(sheet.rows[1].residual, -10.0, 1e-9);
+    EXPECT_NE(p->message.find("-10"), std::string::npos) << p->message;
+    EXPECT_NE(p->message.find("would close it is 0.5"), std::string::npos) << p->message;
+    for (const char* other : {"Alga", "Carnivore", "Top"})
+        EXPECT_EQ(findProblem(sheet, code::kEquationResidual, other), nullptr) << other;
+}
+
+TEST(SolverProblems, NegativeSolvedValue)
+{
+    Model m = tenPercentChain();
+    m.compartment(0).value(Param::NetEmigration) = -1500;  // immigration beyond use: EE = (1000 - 1500) / 2000
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    EXPECT_NEAR(sheet.rows[0].ee, -0.25, 1e-12);
+    const Problem* p = findProblem(sheet, code::kNegativeValue, "Alga");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_EQ(p->parameter, "ee");
+}
+
+TEST(SolverProblems, DetritusConsumedBeyondInflow)
+{
+    Model m = tenPercentChain();
+    const std::size_t worm = m.addCompartment(
+        make("Worm", CompartmentKind::Consumer, {{Param::Biomass, 100}, {Param::PB, 2}, {Param::QB, 20}, {Param::EE, 0}}));
+    m.setDiet(worm, 4, 1.0);  // eats 2000 of a pool that receives ~1263 + 400 egested by the worm
+    m.compartment(worm).value(Param::EE).reset();
+    m.fleet(0).landings[worm] = 10;
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    const Problem* p = findProblem(sheet, code::kDetritusEEAboveOne, "Detritus");
+    ASSERT_NE(p, nullptr) << listProblems(sheet);
+    EXPECT_GT(sheet.rows[4].ee, 1.0);
+    EXPECT_LT(sheet.rows[4].detritusExport, 0.0);
+}
+
+// ---------------------------------------------------------------------------------
+// P/Q standing in for P/B or Q/B (DESIGN 3.2).
+
+TEST(SolverPQ, StandsInForPB)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::PB).reset();
+    m.compartment(1).value(Param::PQ) = 0.1;
+    const BalanceSheet sheet = solveBalance(m);
+    ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
+    EXPECT_NEAR(sheet.rows[1].pb, 10.0, 1e-12);
+    EXPECT_NEAR(sheet.rows[1].ee, 0.5, 1e-12);
+    EXPECT_EQ(sheet.rows[1].solved, (std::vector<Param>{Param::PB, Param::EE}));
+}
+
+TEST(SolverPQ, StandsInForQBAndFeedsThePreyEquation)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::QB).reset();
+    m.compartment(1).value(Param::PQ) = 0.1;
+    const BalanceSheet sheet = solveBalance(m);
+    ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
+    EXPECT_NEAR(sheet.rows[1].qb, 100.0, 1e-12);
+    EXPECT_NEAR(sheet.rows[0].ee, 0.5, 1e-12);  // Alga's EE needs Grazer's Q
+    EXPECT_EQ(sheet.rows[1].solved, (std::vector<Param>{Param::QB, Param::EE}));
+}
+
+TEST(SolverPQ, TiesPBAndQBWhenBothAreMissing)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::PB).reset();
+    m.compartment(1).value(Param::QB).reset();
+    m.compartment(1).value(Param::PQ) = 0.1;
+    m.compartment(1).value(Param::EE) = 0.5;
+    const BalanceSheet sheet = solveBalance(m);
+    ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
+    EXPECT_NEAR(sheet.rows[1].qb, 100.0, 1e-10);
+    EXPECT_NEAR(sheet.rows[1].pb, 10.0, 1e-11);
+    EXPECT_NEAR(sheet.rows[0].ee, 0.5, 1e-12);
+}
+
+TEST(SolverPQ, StandsInForPBOfAPredatorWhoseBiomassIsSolved)
+{
+    Model m = tenPercentChain();
+    m.compartment(2).value(Param::PB).reset();
+    m.compartment(2).value(Param::PQ) = 0.1;
+    m.compartment(2).value(Param::Biomass).reset();
+    m.compartment(2).value(Param::EE) = 0.5;
+    const BalanceSheet sheet = solveBalance(m);
+    ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
+    EXPECT_NEAR(sheet.rows[2].biomass, 0.5, 1e-12);
+    EXPECT_NEAR(sheet.rows[2].pb, 10.0, 1e-12);
+}
+
+TEST(SolverPQ, InconsistentPQIsWarnedAndIgnored)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::PQ) = 0.3;  // P/B / Q/B = 0.1
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Balanced);
+    EXPECT_NE(findProblem(sheet, code::kPQInconsistent, "Grazer"), nullptr) << listProblems(sheet);
+    EXPECT_NEAR(sheet.rows[1].pq, 0.1, 1e-15);
+}
+
+TEST(SolverPQ, NonPositivePQCannotStandIn)
+{
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::QB).reset();
+    m.compartment(1).value(Param::PQ) = 0.0;
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Invalid);
+    EXPECT_NE(findProblem(sheet, code::kInvalidValue, "Grazer"), nullptr) << listProblems(sheet);
+}
+
+// ---------------------------------------------------------------------------------
+// Harvest and routing reach the right pools.
+
+TEST(SolverDetritus, DeadDiscardsGoToTheFleetPoolAndRoutingSplitsTheRest)
+{
+    Model m = tenPercentChain();
+    const std::size_t sediment = m.addCompartment(make("Sediment", CompartmentKind::Detritus));
+    m.fleet(0).discards[2] = 0.5;            // Carnivore: 0.5 discarded, 40 % survive -> 0.3 dead
+    m.fleet(0).discardSurvival[2] = 0.4;
+    m.fleet(0).discardPool = sediment;
+    m.setRouting(1, 4, 0.25);                // Grazer's 250 split 1:3
+    m.setRouting(1, sediment, 0.75);
+    const BalanceSheet sheet = solveBalance(m);
+    ASSERT_NE(sheet.status, BalanceStatus::Invalid) << listProblems(sheet);
+    // Carnivore EE now (2.5 + 0.3) / 5 = 0.56
+    EXPECT_NEAR(sheet.rows[2].ee, 0.56, 1e-12);
+    EXPECT_NEAR(sheet.rows[2].catchTotal, 0.3, 1e-15);
+    // Pool "Detritus": Alga 1000 + Grazer 62.5 + Carnivore (0.44 x 5 + 10) + Top 0.55
+    EXPECT_NEAR(sheet.rows[4].detritusInflow, 1000 + 62.5 + 12.2 + 0.55, 1e-9);
+    // Sediment: Grazer 187.5 + dead discards 0.3
+    EXPECT_NEAR(sheet.rows[sediment].detritusInflow, 187.8, 1e-9);
+    EXPECT_NEAR(sheet.rows[2].flowToDetritus, 12.5, 1e-12);  // 2.2 + 10 + 0.3
+}
+
+TEST(SolverDetritus, NoPoolIsWarned)
+{
+    Model m = tenPercentChain();
+    m.removeCompartment(4);
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Balanced);
+    EXPECT_NE(findProblem(sheet, code::kNoDetritusPool, ""), nullptr) << listProblems(sheet);
+}
+
 }  // namespace
 }  // namespace tl
