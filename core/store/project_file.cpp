@@ -577,31 +577,34 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
     } else if (readOnly) {
         reason = "opened read-only on request";
     } else if (schema < store::kSchemaVersion) {
-        Transaction tx(db);
-        if (!tx.begun()) {
-            result.problems.push_back(writeFailure(path, db, "updating the file to the current schema"));
-            sqlite3_close(db);
-            return result;
-        }
-        const auto current = pragmaInt(db, "PRAGMA user_version");  // another process may have migrated it
-        schema = static_cast<int>(current.value_or(schema));
-        for (const store::Migration& step : store::migrations()) {
-            if (step.from != schema) continue;
-            if (const auto error = execute(db, step.sql)) {
-                result.problems.push_back(fileProblem(path, "store-migration-failed",
-                                                      "could not be updated from schema " + std::to_string(schema) + ": " +
-                                                          *error + "; nothing was changed"));
-                sqlite3_close(db);  // rolls back
-                return result;
+        // All steps in one transaction: the file ends at the current version or stays
+        // at its own, never in between.
+        const bool migrated = [&] {
+            Transaction tx(db);
+            if (!tx.begun()) {
+                result.problems.push_back(writeFailure(path, db, "updating the file to the current schema"));
+                return false;
             }
-            ++schema;
-        }
-        execute(db, "PRAGMA user_version = " + std::to_string(schema));
-        if (!tx.commit()) {
-            result.problems.push_back(writeFailure(path, db, "updating the file to the current schema"));
-            sqlite3_close(db);
-            return result;
-        }
+            const auto current = pragmaInt(db, "PRAGMA user_version");  // another process may have migrated it
+            schema = static_cast<int>(current.value_or(schema));
+            for (const store::Migration& step : store::migrations()) {
+                if (step.from != schema) continue;
+                if (const auto error = execute(db, step.sql)) {
+                    result.problems.push_back(fileProblem(path, "store-migration-failed",
+                                                          "could not be updated from schema " + std::to_string(schema) +
+                                                              ": " + *error + "; nothing was changed",
+                                                          "Open it read-only, or with the program version that made it."));
+                    return false;
+                }
+                ++schema;
+            }
+            if (execute(db, "PRAGMA user_version = " + std::to_string(schema)) || !tx.commit()) {
+                result.problems.push_back(writeFailure(path, db, "updating the file to the current schema"));
+                return false;
+            }
+            return true;
+        }();
+        if (!migrated) return refuse(db);
     }
     if (!readOnly) {
         execute(db, "PRAGMA journal_mode = WAL");

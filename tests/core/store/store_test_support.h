@@ -99,10 +99,10 @@ inline Project inventedProject(const std::string& title = "invented test project
 // A fresh, empty folder under the system temporary directory; removed on destruction.
 class TempDir {
 public:
-    TempDir()
+    explicit TempDir(std::filesystem::path base = std::filesystem::temp_directory_path())
     {
         std::random_device rd;
-        path_ = std::filesystem::temp_directory_path() / ("tl_store_test_" + std::to_string(rd()) + std::to_string(rd()));
+        path_ = base / ("tl_store_test_" + std::to_string(rd()) + std::to_string(rd()));
         std::filesystem::create_directories(path_);
     }
     ~TempDir()
