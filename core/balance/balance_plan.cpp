@@ -294,8 +294,17 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
             out.pivotRatio = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
             out.rank = (pivots.array() > kSingularPivotRatio * maxPivot).count();
             if (out.pivotRatio > kSingularPivotRatio) {
-                // Least squares: R y' = (Q^T b)_top, y = Pi y'.
-                ws.rhsWork.applyOnTheLeft(ws.qr.householderQ().transpose());
+                // Least squares: R y' = (Q^T b)_top, y = Pi y'. Q = H_0 ... H_{k-1} with
+                // H_h = I - tau_h v v^T, v = (1, essential part below the diagonal); applied
+                // by hand because Eigen's sequence product allocates on a vector block.
+                const Eigen::MatrixXd& qr = ws.qr.matrixQR();
+                for (Eigen::Index h = 0; h < k; ++h) {
+                    const Eigen::Index below = m - h - 1;
+                    const auto essential = qr.col(h).tail(below);
+                    const double w = ws.qr.hCoeffs()[h] * (ws.rhsWork[h] + essential.dot(ws.rhsWork.tail(below)));
+                    ws.rhsWork[h] -= w;
+                    ws.rhsWork.tail(below) -= w * essential;
+                }
                 ws.x = ws.rhsWork.head(k);
                 ws.qr.matrixR().topLeftCorner(k, k).triangularView<Eigen::Upper>().solveInPlace(ws.x);
                 ws.y = ws.qr.colsPermutation() * ws.x;
