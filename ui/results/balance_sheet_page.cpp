@@ -1,0 +1,241 @@
+#include "ui/results/balance_sheet_page.h"
+
+#include <QAction>
+#include <QApplication>
+#include <QCheckBox>
+#include <QClipboard>
+#include <QComboBox>
+#include <QFileDialog>
+#include <QHBoxLayout>
+#include <QHeaderView>
+#include <QItemSelectionModel>
+#include <QLabel>
+#include <QLineEdit>
+#include <QMenu>
+#include <QMessageBox>
+#include <QPushButton>
+#include <QSaveFile>
+#include <QTableView>
+#include <QVBoxLayout>
+#include <cmath>
+#include <set>
+
+#include "ui/results/results_palette.h"
+
+namespace tl::ui {
+
+// --- filter ---------------------------------------------------------------------------
+
+void BalanceSheetFilter::setNameFilter(const QString& text)
+{
+    name_ = text.trimmed();
+    invalidateFilter();
+}
+
+void BalanceSheetFilter::setKindFilter(std::optional<CompartmentKind> kind)
+{
+    kind_ = kind;
+    invalidateFilter();
+}
+
+void BalanceSheetFilter::setProblemsOnly(bool on)
+{
+    problemsOnly_ = on;
+    invalidateFilter();
+}
+
+bool BalanceSheetFilter::filterAcceptsRow(int sourceRow, const QModelIndex& sourceParent) const
+{
+    const auto* m = qobject_cast<const BalanceSheetModel*>(sourceModel());
+    if (!m) return true;
+    using C = BalanceSheetModel::Column;
+    if (!name_.isEmpty()) {
+        const QString name = m->index(sourceRow, BalanceSheetModel::column(C::Name), sourceParent).data().toString();
+        if (!name.contains(name_, Qt::CaseInsensitive)) return false;
+    }
+    if (kind_) {
+        const QString key = m->cellText(sourceRow, C::Kind);
+        if (key.toStdString() != kindKey(*kind_)) return false;
+    }
+    if (problemsOnly_ && !m->worstSeverity(sourceRow)) return false;
+    return true;
+}
+
+bool BalanceSheetFilter::lessThan(const QModelIndex& left, const QModelIndex& right) const
+{
+    const QVariant a = left.data(BalanceSheetModel::kValueRole), b = right.data(BalanceSheetModel::kValueRole);
+    if (a.typeId() == QMetaType::Double && b.typeId() == QMetaType::Double) {
+        const double x = a.toDouble(), y = b.toDouble();
+        const bool nx = std::isnan(x), ny = std::isnan(y);
+        // Empty cells go last whichever way the column is sorted.
+        if (nx || ny) return sortOrder() == Qt::AscendingOrder ? (!nx && ny) : (nx && !ny);
+        return x < y;
+    }
+    if (left.column() == BalanceSheetModel::column(BalanceSheetModel::Column::Status)) {
+        const auto* m = qobject_cast<const BalanceSheetModel*>(sourceModel());
+        auto rank = [m](int row) {
+            const auto s = m->worstSeverity(row);
+            return s ? 3 - static_cast<int>(*s) : 0;  // OK < note < warning < error
+        };
+        return rank(left.row()) < rank(right.row());
+    }
+    return QString::localeAwareCompare(a.toString(), b.toString()) < 0;
+}
+
+// --- page -----------------------------------------------------------------------------
+
+BalanceSheetPage::BalanceSheetPage(QWidget* parent)
+    : ResultsPage(parent), model_(new BalanceSheetModel(this)), filter_(new BalanceSheetFilter(this)),
+      table_(new QTableView(this)), statusIcon_(new QLabel(this)), statusLabel_(new QLabel(this)),
+      nameEdit_(new QLineEdit(this)), kindCombo_(new QComboBox(this)),
+      problemsOnly_(new QCheckBox(tr("Only compartments with problems"), this))
+{
+    filter_->setSourceModel(model_);
+    table_->setModel(filter_);
+    table_->setSortingEnabled(true);
+    table_->sortByColumn(-1, Qt::AscendingOrder);  // model order until the user sorts
+    table_->setSelectionBehavior(QAbstractItemView::SelectRows);
+    table_->setSelectionMode(QAbstractItemView::ExtendedSelection);
+    table_->setAlternatingRowColors(true);
+    table_->setWordWrap(false);
+    table_->horizontalHeader()->setDefaultAlignment(Qt::AlignCenter);
+    table_->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
+    table_->verticalHeader()->setVisible(false);
+    table_->setContextMenuPolicy(Qt::CustomContextMenu);
+
+    statusLabel_->setWordWrap(true);
+    statusLabel_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    nameEdit_->setPlaceholderText(tr("Filter compartments by name"));
+    nameEdit_->setClearButtonEnabled(true);
+    kindCombo_->addItem(tr("All kinds"));
+    kindCombo_->addItem(kindLabel(CompartmentKind::Producer));
+    kindCombo_->addItem(kindLabel(CompartmentKind::Consumer));
+    kindCombo_->addItem(kindLabel(CompartmentKind::Detritus));
+
+    auto* copyButton = new QPushButton(tr("Copy"), this);
+    copyButton->setToolTip(tr("Copy the selected rows (all visible rows if none) as tab-separated text"));
+    auto* exportButton = new QPushButton(tr("Export CSV…"), this);
+
+    auto* legendIcon = new QLabel(this);
+    legendIcon->setPixmap(solvedIcon().pixmap(12, 12));
+    auto* legend = new QLabel(tr("%1; bold. Columns marked (input) show what was entered, empty = unknown.")
+                                  .arg(solvedLegend()), this);
+
+    auto* statusRow = new QHBoxLayout;
+    statusRow->addWidget(statusIcon_);
+    statusRow->addWidget(statusLabel_, 1);
+    auto* filterRow = new QHBoxLayout;
+    filterRow->addWidget(nameEdit_, 2);
+    filterRow->addWidget(kindCombo_);
+    filterRow->addWidget(problemsOnly_);
+    filterRow->addStretch(1);
+    filterRow->addWidget(copyButton);
+    filterRow->addWidget(exportButton);
+    auto* legendRow = new QHBoxLayout;
+    legendRow->addWidget(legendIcon);
+    legendRow->addWidget(legend, 1);
+    auto* layout = new QVBoxLayout(this);
+    layout->addLayout(statusRow);
+    layout->addLayout(filterRow);
+    layout->addWidget(table_, 1);
+    layout->addLayout(legendRow);
+
+    auto* copyAction = new QAction(tr("&Copy"), this);
+    copyAction->setShortcut(QKeySequence::Copy);
+    copyAction->setShortcutContext(Qt::WidgetWithChildrenShortcut);
+    addAction(copyAction);
+    auto* exportAction = new QAction(tr("&Export CSV…"), this);
+
+    connect(nameEdit_, &QLineEdit::textChanged, filter_, &BalanceSheetFilter::setNameFilter);
+    connect(kindCombo_, &QComboBox::currentIndexChanged, this, [this](int i) {
+        static const CompartmentKind kinds[] = {CompartmentKind::Producer, CompartmentKind::Consumer,
+                                                CompartmentKind::Detritus};
+        filter_->setKindFilter(i <= 0 ? std::nullopt : std::optional(kinds[i - 1]));
+    });
+    connect(problemsOnly_, &QCheckBox::toggled, filter_, &BalanceSheetFilter::setProblemsOnly);
+    connect(copyButton, &QPushButton::clicked, this, &BalanceSheetPage::copy);
+    connect(copyAction, &QAction::triggered, this, &BalanceSheetPage::copy);
+    connect(exportButton, &QPushButton::clicked, this, &BalanceSheetPage::exportCsvInteractive);
+    connect(exportAction, &QAction::triggered, this, &BalanceSheetPage::exportCsvInteractive);
+    connect(table_, &QTableView::customContextMenuRequested, this, [this, copyAction, exportAction](QPoint at) {
+        QMenu menu(this);
+        menu.addAction(copyAction);
+        menu.addAction(exportAction);
+        menu.exec(table_->viewport()->mapToGlobal(at));
+    });
+    connect(table_, &QTableView::doubleClicked, this, [this](const QModelIndex& index) {
+        const QModelIndex src = filter_->mapToSource(index);
+        emit compartmentActivated(model_->cellText(src.row(), BalanceSheetModel::Column::Name));
+    });
+}
+
+void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceSheet& sheet)
+{
+    model_->setScenario(model, sheet);
+    std::optional<Severity> worst;
+    int withProblems = 0;
+    QStringList general;
+    for (const Problem& p : sheet.problems) {
+        if (!worst || static_cast<int>(p.severity) < static_cast<int>(*worst)) worst = p.severity;
+        if (p.compartment.empty()) general << QString::fromStdString(p.message).toHtmlEscaped();
+    }
+    for (int r = 0; r < model_->rowCount(); ++r)
+        if (model_->worstSeverity(r)) ++withProblems;
+    QString text;
+    switch (sheet.status) {
+    case BalanceStatus::Balanced: text = tr("<b>Balanced.</b>"); break;
+    case BalanceStatus::Unbalanced: text = tr("<b>Not balanced.</b>"); break;
+    case BalanceStatus::Invalid: text = tr("<b>Could not be solved.</b>"); break;
+    }
+    text += " " + tr("%n compartment(s) with problems.", nullptr, withProblems);
+    if (!general.isEmpty()) text += "<br>" + general.join("<br>");
+    statusLabel_->setText(text);
+    statusIcon_->setPixmap(statusIcon(sheet.status == BalanceStatus::Invalid ? std::optional(Severity::Error)
+                                      : sheet.status == BalanceStatus::Unbalanced ? std::optional(Severity::Warning)
+                                                                                    : worst)
+                               .pixmap(20, 20));
+    table_->resizeColumnsToContents();
+}
+
+std::vector<int> BalanceSheetPage::chosenSourceRows(bool selectionOnly) const
+{
+    std::vector<int> rows;
+    if (selectionOnly && table_->selectionModel()) {
+        std::set<int> viewRows;
+        for (const QModelIndex& i : table_->selectionModel()->selectedIndexes()) viewRows.insert(i.row());
+        for (int v : viewRows) rows.push_back(filter_->mapToSource(filter_->index(v, 0)).row());
+        if (!rows.empty()) return rows;
+    }
+    for (int v = 0; v < filter_->rowCount(); ++v) rows.push_back(filter_->mapToSource(filter_->index(v, 0)).row());
+    return rows;
+}
+
+QString BalanceSheetPage::selectionAsText() const { return model_->toText(chosenSourceRows(true), '\t'); }
+
+void BalanceSheetPage::copy() { QApplication::clipboard()->setText(selectionAsText()); }
+
+bool BalanceSheetPage::exportCsv(const QString& path, QString* error) const
+{
+    QSaveFile file(path);
+    if (!file.open(QIODevice::WriteOnly | QIODevice::Text)) {
+        if (error) *error = tr("Cannot write %1: %2").arg(path, file.errorString());
+        return false;
+    }
+    file.write(model_->toText(chosenSourceRows(false), ',').toUtf8());
+    if (!file.commit()) {
+        if (error) *error = tr("Cannot write %1: %2").arg(path, file.errorString());
+        return false;
+    }
+    return true;
+}
+
+void BalanceSheetPage::exportCsvInteractive()
+{
+    const QString path = QFileDialog::getSaveFileName(this, tr("Export balance sheet"), QStringLiteral("balance_sheet.csv"),
+                                                      tr("CSV files (*.csv)"));
+    if (path.isEmpty()) return;
+    QString error;
+    if (!exportCsv(path, &error)) QMessageBox::warning(this, tr("Export balance sheet"), error);
+}
+
+}  // namespace tl::ui

@@ -1,0 +1,186 @@
+#include "ui/results/figure_export.h"
+
+#include <QApplication>
+#include <QBuffer>
+#include <QRegularExpression>
+#include <QDir>
+#include <QFileDialog>
+#include <QFileInfo>
+#include <QImage>
+#include <QInputDialog>
+#include <QMenu>
+#include <QMessageBox>
+#include <QPageSize>
+#include <QPdfWriter>
+#include <QSaveFile>
+#include <QSvgGenerator>
+#include <QTemporaryDir>
+
+#include "core/balance/balance_sheet.h"
+#include "core/model/model.h"
+#include "ui/results/flow_map_page.h"
+#include "ui/results/level_bars_page.h"
+
+namespace tl::ui {
+namespace {
+
+constexpr double kLogicalDpi = 96.0;  // logical pixels per inch of the figure layout
+
+// Writes `bytes` to `path` through QSaveFile (temporary file, then rename).
+std::optional<QString> writeAtomically(const QString& path, const QByteArray& bytes)
+{
+    QSaveFile file(path);
+    if (!file.open(QIODevice::WriteOnly)) return QObject::tr("Cannot write %1: %2").arg(path, file.errorString());
+    file.write(bytes);
+    if (!file.commit()) return QObject::tr("Cannot write %1: %2").arg(path, file.errorString());
+    return std::nullopt;
+}
+
+}  // namespace
+
+std::optional<FigureFormat> parseFigureFormat(const QString& text)
+{
+    const QString t = text.trimmed().toLower();
+    if (t == "png") return FigureFormat::Png;
+    if (t == "svg") return FigureFormat::Svg;
+    if (t == "pdf") return FigureFormat::Pdf;
+    return std::nullopt;
+}
+
+QString figureSuffix(FigureFormat f)
+{
+    switch (f) {
+    case FigureFormat::Png: return "png";
+    case FigureFormat::Svg: return "svg";
+    case FigureFormat::Pdf: return "pdf";
+    }
+    return {};
+}
+
+std::optional<QString> exportFigure(FigureSource& source, FigureFormat format, const QString& path,
+                                    const FigureOptions& options)
+{
+    const QSize size = options.size.isEmpty() ? source.figureSize() : options.size;
+    if (size.isEmpty()) return QObject::tr("The figure is empty; nothing to export.");
+    if (options.dpi < 30 || options.dpi > 2400)
+        return QObject::tr("Resolution %1 dpi is outside 30-2400 dpi.").arg(options.dpi);
+    const double scale = options.dpi / kLogicalDpi;
+
+    switch (format) {
+    case FigureFormat::Png: {
+        const QSize pixels(qRound(size.width() * scale), qRound(size.height() * scale));
+        if (static_cast<qint64>(pixels.width()) * pixels.height() > 400'000'000LL)
+            return QObject::tr("%1 x %2 pixels is too large; lower the resolution.").arg(pixels.width()).arg(pixels.height());
+        QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
+        image.fill(Qt::white);
+        const int dotsPerMeter = qRound(options.dpi / 0.0254);
+        image.setDotsPerMeterX(dotsPerMeter);
+        image.setDotsPerMeterY(dotsPerMeter);
+        source.renderFigure(image, size, scale);
+        QByteArray bytes;
+        {
+            QBuffer buffer(&bytes);
+            buffer.open(QIODevice::WriteOnly);
+            if (!image.save(&buffer, "PNG")) return QObject::tr("Could not encode the PNG image.");
+        }
+        return writeAtomically(path, bytes);
+    }
+    case FigureFormat::Svg: {
+        QByteArray bytes;
+        QBuffer buffer(&bytes);
+        buffer.open(QIODevice::WriteOnly);
+        QSvgGenerator svg;
+        svg.setOutputDevice(&buffer);
+        svg.setSize(size);
+        svg.setViewBox(QRect(QPoint(0, 0), size));
+        svg.setResolution(static_cast<int>(kLogicalDpi));
+        svg.setTitle(source.figureTitle());
+        svg.setDescription(QObject::tr("Trophic Ledger figure"));
+        source.renderFigure(svg, size, 1.0);
+        buffer.close();
+        return writeAtomically(path, bytes);
+    }
+    case FigureFormat::Pdf: {
+        // QPdfWriter needs a file: write into a temporary one next to the target, then rename.
+        const QFileInfo target(path);
+        QSaveFile file(path);
+        if (!file.open(QIODevice::WriteOnly)) return QObject::tr("Cannot write %1: %2").arg(path, file.errorString());
+        QPdfWriter pdf(&file);
+        pdf.setResolution(options.dpi);
+        pdf.setPageSize(QPageSize(QSizeF(size.width() / kLogicalDpi * 72.0, size.height() / kLogicalDpi * 72.0),
+                                  QPageSize::Point, QString(), QPageSize::ExactMatch));
+        pdf.setPageMargins(QMarginsF(0, 0, 0, 0));
+        pdf.setTitle(source.figureTitle());
+        pdf.setCreator(QStringLiteral("Trophic Ledger"));
+        source.renderFigure(pdf, size, options.dpi / kLogicalDpi);
+        if (!file.commit()) return QObject::tr("Cannot write %1: %2").arg(path, file.errorString());
+        return std::nullopt;
+    }
+    }
+    return QObject::tr("Unknown figure format.");
+}
+
+void addFigureExportActions(QMenu& menu, FigureSource& source, QWidget* dialogParent)
+{
+    for (FigureFormat format : {FigureFormat::Png, FigureFormat::Svg, FigureFormat::Pdf}) {
+        const QString suffix = figureSuffix(format);
+        menu.addAction(QObject::tr("Export as %1…").arg(suffix.toUpper()), dialogParent, [&source, dialogParent, format, suffix] {
+            FigureOptions options;
+            if (format == FigureFormat::Png) {
+                bool ok = false;
+                options.dpi = QInputDialog::getInt(dialogParent, QObject::tr("Export as PNG"),
+                                                   QObject::tr("Resolution (dots per inch):"), 300, 72, 1200, 1, &ok);
+                if (!ok) return;
+            }
+            QString name = source.figureTitle().toLower();
+            name.replace(QRegularExpression("[^a-z0-9]+"), "_");
+            const QString path = QFileDialog::getSaveFileName(
+                dialogParent, QObject::tr("Export figure"), QDir::home().filePath(name + "." + suffix),
+                QObject::tr("%1 files (*.%2)").arg(suffix.toUpper(), suffix));
+            if (path.isEmpty()) return;
+            if (auto error = exportFigure(source, format, path, options))
+                QMessageBox::warning(dialogParent, QObject::tr("Export figure"), *error);
+        });
+    }
+}
+
+void ensureGuiApplication()
+{
+    if (QCoreApplication::instance()) return;
+    if (qEnvironmentVariableIsEmpty("QT_QPA_PLATFORM")) qputenv("QT_QPA_PLATFORM", "offscreen");
+    static int argc = 1;
+    static char name[] = "tledger";
+    static char* argv[] = {name, nullptr};
+    static QApplication app(argc, argv);
+}
+
+std::optional<QString> exportScenarioFigure(const tl::Model& model, const tl::BalanceSheet& sheet,
+                                            const ScenarioFigureRequest& request)
+{
+    ensureGuiApplication();
+    if (request.view == "level-bars") {
+        LevelBarsPage page;
+        page.setScenario(model, sheet);
+        if (!page.unavailableReason().isEmpty()) return page.unavailableReason();
+        const QString q = request.quantity.toLower(), c = request.chains.toLower();
+        if (q == "throughput") page.setQuantity(LevelQuantity::Throughput);
+        else if (q == "biomass") page.setQuantity(LevelQuantity::Biomass);
+        else if (q == "production") page.setQuantity(LevelQuantity::Production);
+        else return QObject::tr("Unknown quantity '%1'; expected throughput, biomass or production.").arg(request.quantity);
+        if (c == "combined") page.setChains(LevelChains::Combined);
+        else if (c == "producers") page.setChains(LevelChains::FromProducers);
+        else if (c == "detritus") page.setChains(LevelChains::FromDetritus);
+        else return QObject::tr("Unknown chains '%1'; expected combined, producers or detritus.").arg(request.chains);
+        page.setLogScale(request.logScale);
+        return exportFigure(page, request.format, request.path, request.options);
+    }
+    if (request.view == "flow-map") {
+        FlowMapPage page;
+        page.setScenario(model, sheet);
+        if (!page.scene()->unavailableReason().isEmpty()) return page.scene()->unavailableReason();
+        return exportFigure(page, request.format, request.path, request.options);
+    }
+    return QObject::tr("Unknown view '%1'; expected level-bars or flow-map.").arg(request.view);
+}
+
+}  // namespace tl::ui

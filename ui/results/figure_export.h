@@ -1,0 +1,65 @@
+// Figure export: any results chart as PNG (at a chosen DPI), SVG (QSvgGenerator, text
+// kept as text) or PDF, written atomically; plus the offscreen renderer that the CLI's
+// `tledger export MODEL --format svg|png|pdf --view level-bars|flow-map --out PATH`
+// calls (see figure_export_cli.h for its Qt-free entry point).
+#pragma once
+
+#include <QPaintDevice>
+#include <QSize>
+#include <QString>
+#include <optional>
+
+class QMenu;
+class QWidget;
+
+namespace tl {
+class Model;
+struct BalanceSheet;
+}  // namespace tl
+
+namespace tl::ui {
+
+// A view that can draw itself as a figure of a given logical size (pixels at 96 dpi).
+class FigureSource {
+public:
+    virtual ~FigureSource() = default;
+    virtual QSize figureSize() const = 0;  // natural size of the figure
+    // Draws the whole figure on `device`: laid out at `size` logical pixels, painted
+    // scaled by `scale` (device pixels per logical pixel). Opens its own painter.
+    virtual void renderFigure(QPaintDevice& device, QSize size, double scale) = 0;
+    virtual QString figureTitle() const = 0;
+};
+
+enum class FigureFormat { Png, Svg, Pdf };
+std::optional<FigureFormat> parseFigureFormat(const QString& text);  // "png", "svg", "pdf"
+QString figureSuffix(FigureFormat f);
+
+struct FigureOptions {
+    int dpi = 300;           // PNG and PDF resolution; SVG is resolution-free
+    QSize size;              // logical size; empty = the source's figureSize()
+};
+
+// Returns an error message, or nullopt on success. The file is replaced atomically.
+std::optional<QString> exportFigure(FigureSource& source, FigureFormat format, const QString& path,
+                                    const FigureOptions& options = {});
+
+// Adds "Export as PNG… / SVG… / PDF…" entries (file dialog, DPI prompt for PNG).
+void addFigureExportActions(QMenu& menu, FigureSource& source, QWidget* dialogParent);
+
+// Offscreen rendering of one view of a scenario ("level-bars" or "flow-map").
+struct ScenarioFigureRequest {
+    QString view;
+    FigureFormat format = FigureFormat::Svg;
+    QString path;
+    FigureOptions options;
+    QString quantity = QStringLiteral("throughput");  // level bars: throughput|biomass|production
+    QString chains = QStringLiteral("combined");      // level bars: combined|producers|detritus
+    bool logScale = false;                            // level bars
+};
+std::optional<QString> exportScenarioFigure(const tl::Model& model, const tl::BalanceSheet& sheet,
+                                            const ScenarioFigureRequest& request);
+
+// Creates a QApplication on the offscreen platform when none exists (CLI use).
+void ensureGuiApplication();
+
+}  // namespace tl::ui
