@@ -2,6 +2,26 @@
 // harvest.csv and detritus_routing.csv. UTF-8, RFC 4180 quoting, '.' decimal mark.
 // Every malformed input becomes a Problem naming file, line, column and what was
 // expected; the reader never throws and never returns a half-read model.
+//
+// Locations: line = physical line (1-based) where the cell starts; column = the
+// cell's field number (1-based), as a spreadsheet counts columns.
+//
+// Beyond the four files of the contract, two optional files carry what a Model holds
+// and the contract has no column for, so that a write/read round trip loses nothing:
+//   confidence.csv  compartment,parameter,grade,cv,source   (data confidence, DESIGN 3.1)
+//   settings.csv    key,value   (units: currency, area, time; check rules: ee_max,
+//                   pq_min, pq_max, diet_sum_tolerance, cv_grade_a .. cv_grade_d)
+// and harvest.csv may add the columns discard_survival (fraction of discards that
+// survive, 0..1) and discard_pool (the detritus pool receiving a fleet's dead
+// discards; one value per fleet). A harvest row with a fleet and no compartment
+// declares a fleet that has no catch yet.
+//
+// What the reader checks: the files' structure (header, cell counts, quoting,
+// encoding), numbers, names (known, unique, right kind), fractions within [0, 1],
+// values that cannot be negative. It warns (the model is still returned) when a
+// diet row or a source's routing does not sum to 1, when a consumer has no diet row,
+// and when a producer or detritus pool is given a diet. Ecological checks (EE > 1,
+// P/Q range, what is unknown) belong to validation and the solver.
 #pragma once
 
 #include <filesystem>
@@ -19,8 +39,12 @@ struct CsvReadResult {
 
 CsvReadResult readCsvModel(const std::filesystem::path& folder);
 
-// Writes the four files into `folder` (created if missing), each atomically
-// (temporary file, then rename). Returns problems (e.g. unwritable folder).
+// Writes compartments.csv, diet.csv, harvest.csv, detritus_routing.csv,
+// confidence.csv and settings.csv into `folder` (created if missing), each
+// atomically (temporary file, then rename); files with nothing to say hold just
+// their header, so no stale file from an earlier write survives. Numbers are written
+// in their shortest exact form, so readCsvModel(writeCsvModel(m)) == m. Returns
+// problems (e.g. unwritable folder, a name the reader would refuse).
 Problems writeCsvModel(const Model& model, const std::filesystem::path& folder);
 
 }  // namespace tl

@@ -1,0 +1,1037 @@
+#include "core/io/csv_model.h"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <set>
+#include <span>
+
+#include "core/io/atomic_file.h"
+#include "core/io/csv_table.h"
+#include "core/model/text.h"
+#include "core/model/validation.h"
+
+namespace tl {
+namespace {
+
+constexpr std::string_view kCompartmentsFile = "compartments.csv";
+constexpr std::string_view kDietFile = "diet.csv";
+constexpr std::string_view kHarvestFile = "harvest.csv";
+constexpr std::string_view kRoutingFile = "detritus_routing.csv";
+constexpr std::string_view kConfidenceFile = "confidence.csv";
+constexpr std::string_view kSettingsFile = "settings.csv";
+constexpr std::string_view kImportColumn = "import";
+constexpr std::size_t kMaxProblems = 200;  // beyond this, one summary line
+
+// ---------------------------------------------------------------------------------
+// Problems
+// ---------------------------------------------------------------------------------
+
+Problem problemAt(std::string code, Severity severity, const std::string& file, int line, int column,
+                  std::string message, std::string hint = {})
+{
+    Problem p;
+    p.code = std::move(code);
+    p.severity = severity;
+    p.message = std::move(message);
+    p.hint = std::move(hint);
+    p.location = FileLocation{file, line, column};
+    return p;
+}
+
+Problem errorAt(std::string code, const std::string& file, const CsvField& f, std::string message,
+                std::string hint = {})
+{
+    return problemAt(std::move(code), Severity::Error, file, f.line, f.column, std::move(message), std::move(hint));
+}
+
+// Cell text or a name as quoted in a message: trimmed, shortened when long. Single
+// quotes, as validation uses, so they are not mistaken for CSV quoting.
+std::string shown(std::string_view text)
+{
+    text = trim(text);
+    std::string s(text.substr(0, 40));
+    if (text.size() > 40) s += "…";
+    return "'" + s + "'";
+}
+
+std::string lowerAscii(std::string_view s)
+{
+    std::string out(s);
+    for (char& c : out)
+        if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+    return out;
+}
+
+// Names are matched exactly; this only finds a likely intended name for the hint.
+std::string didYouMean(std::string_view name, const Model& model)
+{
+    const std::string key = lowerAscii(trim(name));
+    for (const Compartment& c : model.compartments())
+        if (lowerAscii(c.name) == key)
+            return "Did you mean '" + c.name + "'? Names must match exactly, including case.";
+    return {};
+}
+
+std::string joinKeys(std::span<const std::string_view> keys)
+{
+    std::string out;
+    for (std::string_view k : keys) out += (out.empty() ? "" : ", ") + std::string(k);
+    return out;
+}
+
+// ---------------------------------------------------------------------------------
+// Where each value came from, so that validation's findings can name their cell
+// ---------------------------------------------------------------------------------
+
+struct Cell {
+    int line = 0;
+    int column = 0;
+};
+
+struct Locations {
+    std::string compartmentsFile, dietFile, harvestFile, routingFile;
+    // compartments.csv
+    std::vector<int> compartmentLine;                  // per compartment index
+    std::array<int, kParamCount> paramColumn{};        // 0 when the column is absent
+    // diet.csv
+    std::map<std::size_t, int> dietLine;               // predator -> line of its row
+    std::map<std::size_t, int> preyColumn;             // prey -> column in the header
+    int importColumn = 0;
+    // detritus_routing.csv
+    struct RoutingRow { int line; int sourceColumn, detritusColumn, fractionColumn; };
+    std::map<std::pair<std::size_t, std::size_t>, RoutingRow> routingRow;  // (source, pool)
+    std::map<std::size_t, Cell> firstRoutingCell;                           // source -> its first source cell
+    // harvest.csv
+    struct HarvestRow { int line; std::array<int, 6> column; };
+    std::map<std::pair<std::size_t, std::size_t>, HarvestRow> harvestRow;  // (fleet, compartment)
+    std::map<std::size_t, Cell> fleetCell;                                 // fleet -> its first fleet cell
+    std::map<std::size_t, Cell> discardPoolCell;                           // fleet -> cell naming its pool
+    // Compartments whose rows had a structural error: validation findings about them
+    // would only repeat the same fault in other words. Key: (compartment, area).
+    std::set<std::pair<std::string, std::string>> broken;
+};
+
+// ---------------------------------------------------------------------------------
+// Cells
+// ---------------------------------------------------------------------------------
+
+struct NumberCell {
+    bool bad = false;
+    std::optional<double> value;  // empty cell -> nullopt
+};
+
+// Parses one numeric cell; reports a problem naming `what` (the column and row). Ranges
+// and signs are validation's job, except where `nonNegative` asks (settings).
+NumberCell numberCell(const CsvField& f, const std::string& file, const std::string& what, Problems& problems,
+                      bool nonNegative = false)
+{
+    NumberCell out;
+    const std::string_view text = trim(f.text);
+    if (text.empty()) return out;
+    out.value = parseNumber(text);
+    if (!out.value) {
+        std::string hint;
+        std::string dotted(text);
+        std::replace(dotted.begin(), dotted.end(), ',', '.');
+        if (text.find(',') != std::string_view::npos && parseNumber(dotted))
+            hint = "Write " + dotted + ": the decimal mark is '.', and no thousands separators.";
+        else if (text.ends_with("%"))
+            hint = "Write a fraction (0.25), not a percentage (25%).";
+        else
+            hint = "Leave the cell empty if the value is unknown.";
+        problems.push_back(errorAt("csv-number", file, f,
+                                   what + ": expected a number with '.' as decimal mark, found " + shown(text), hint));
+        out.bad = true;
+    } else if (nonNegative && *out.value < 0) {
+        problems.push_back(errorAt("csv-number", file, f, what + ": must not be negative, found " + shown(text)));
+        out.bad = true;
+    }
+    return out;
+}
+
+// ---------------------------------------------------------------------------------
+// Sheets with a keyed header (every file but diet.csv)
+// ---------------------------------------------------------------------------------
+
+struct KeyedSheet {
+    std::string file;
+    std::vector<int> position;           // per key: field index, or -1 when absent
+    std::vector<const CsvRecord*> rows;  // data rows with the right number of cells
+    const CsvField* field(const CsvRecord& r, std::size_t key) const
+    {
+        const int p = position[key];
+        return p < 0 ? nullptr : &r.fields[static_cast<std::size_t>(p)];
+    }
+    int column(std::size_t key) const { return position[key] + 1; }  // 0 when absent
+};
+
+// Checks that a data row has exactly as many cells as the header. An extra cell, even
+// an empty one, is refused: it is how a decimal comma or an unquoted comma in a name
+// shows, and accepting it would shift the values after it into the wrong columns.
+bool rowShapeOk(const CsvRecord& r, std::size_t headerSize, const std::string& file, Problems& problems)
+{
+    const std::string counts = "this row has " + std::to_string(r.fields.size()) + " cells but the header has " +
+                               std::to_string(headerSize);
+    if (r.fields.size() < headerSize) {
+        problems.push_back(problemAt(
+            "csv-row-cells", Severity::Error, file, r.line, static_cast<int>(r.fields.size()), counts,
+            "Every row needs a cell under every column; leave a cell empty (,,) rather than dropping it."));
+        return false;
+    }
+    if (r.fields.size() > headerSize) {
+        problems.push_back(errorAt(
+            "csv-row-cells", file, r.fields[headerSize], counts,
+            "A comma inside a name must be quoted (\"Perch, adult\"), and numbers use '.' as decimal mark."));
+        return false;
+    }
+    return true;
+}
+
+bool refuseOtherSeparators(const CsvRecord& header, const std::string& file, Problems& problems)
+{
+    if (header.fields.size() != 1 || header.fields[0].text.find_first_of(";\t") == std::string::npos) return false;
+    problems.push_back(errorAt("csv-header", file, header.fields[0],
+                               "the header is separated by semicolons or tabs; expected commas",
+                               "Export as \"CSV UTF-8 (comma delimited)\", with '.' as decimal mark."));
+    return true;
+}
+
+// Maps the header onto `keys`; every `required` key must be present, no key twice, no
+// unknown column. Returns nullopt when the rows cannot be read.
+std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::string_view> keys,
+                                    std::span<const std::string_view> required, Problems& problems)
+{
+    KeyedSheet sheet;
+    sheet.file = table.file;
+    sheet.position.assign(keys.size(), -1);
+    if (table.records.empty()) {
+        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
+                                     "the file is empty; expected a header line: " + joinKeys(keys)));
+        return std::nullopt;
+    }
+    const CsvRecord& header = table.records.front();
+    if (refuseOtherSeparators(header, table.file, problems)) return std::nullopt;
+    bool ok = true;
+    std::vector<std::size_t> unnamed;  // header cells left empty: fine if their column is empty
+    for (std::size_t c = 0; c < header.fields.size(); ++c) {
+        const std::string_view name = trim(header.fields[c].text);
+        if (name.empty()) {
+            unnamed.push_back(c);
+            continue;
+        }
+        const auto it = std::find(keys.begin(), keys.end(), name);
+        if (it == keys.end()) {
+            std::string hint = "Expected columns: " + joinKeys(keys) + ".";
+            for (std::string_view k : keys)
+                if (lowerAscii(name) == k) hint = "Did you mean '" + std::string(k) + "'? Column names are lower case.";
+            problems.push_back(errorAt("csv-unknown-column", table.file, header.fields[c],
+                                       "unknown column " + shown(name), hint));
+            ok = false;
+            continue;
+        }
+        const std::size_t key = static_cast<std::size_t>(it - keys.begin());
+        if (sheet.position[key] >= 0) {
+            problems.push_back(errorAt("csv-duplicate-column", table.file, header.fields[c],
+                                       "column " + shown(name) + " appears twice (first in column " +
+                                           std::to_string(sheet.position[key] + 1) + ")"));
+            ok = false;
+            continue;
+        }
+        sheet.position[key] = static_cast<int>(c);
+    }
+    for (std::string_view r : required) {
+        const std::size_t key = static_cast<std::size_t>(std::find(keys.begin(), keys.end(), r) - keys.begin());
+        if (sheet.position[key] < 0) {
+            problems.push_back(problemAt("csv-missing-column", Severity::Error, table.file, header.line, 0,
+                                         "the header has no column '" + std::string(r) + "'",
+                                         "Expected columns: " + joinKeys(keys) + "."));
+            ok = false;
+        }
+    }
+    if (!ok) return std::nullopt;
+
+    for (std::size_t k = 1; k < table.records.size(); ++k) {
+        const CsvRecord& r = table.records[k];
+        if (!rowShapeOk(r, header.fields.size(), table.file, problems)) continue;
+        bool rowOk = true;
+        for (std::size_t c : unnamed) {
+            if (trim(r.fields[c].text).empty()) continue;
+            problems.push_back(errorAt("csv-header", table.file, r.fields[c],
+                                       "this cell has no column name above it but holds " + shown(r.fields[c].text)));
+            rowOk = false;
+        }
+        if (rowOk) sheet.rows.push_back(&r);
+    }
+    return sheet;
+}
+
+// Reads `folder/name`. When the file is absent and not required, returns nullopt
+// without a problem.
+std::optional<CsvTable> readSheet(const std::filesystem::path& folder, std::string_view name, bool required,
+                                  Problems& problems)
+{
+    const std::filesystem::path path = folder / name;
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec)) {
+        if (required)
+            problems.push_back(problemAt("csv-missing-file", Severity::Error, path.string(), 0, 0,
+                                         "the model folder has no " + std::string(name)));
+        return std::nullopt;
+    }
+    CsvParseResult parsed = readCsvFile(path);
+    problems.insert(problems.end(), parsed.problems.begin(), parsed.problems.end());
+    return std::move(parsed.table);
+}
+
+// Looks up a compartment named in a cell; reports an unknown name.
+std::optional<std::size_t> knownCompartment(const Model& model, const CsvField& f, const std::string& file,
+                                            const std::string& role, Problems& problems)
+{
+    const std::string_view name = trim(f.text);
+    if (const auto i = model.indexOf(name)) return i;
+    std::string hint = didYouMean(name, model);
+    if (hint.empty()) hint = "Every name must be a compartment of " + std::string(kCompartmentsFile) + ".";
+    problems.push_back(errorAt("csv-unknown-compartment", file, f,
+                               name.empty() ? role + ": the cell is empty, expected a compartment name"
+                                            : role + " " + shown(name) + " is not a compartment of " +
+                                                  std::string(kCompartmentsFile),
+                               hint));
+    return std::nullopt;
+}
+
+// ---------------------------------------------------------------------------------
+// The files
+// ---------------------------------------------------------------------------------
+
+// settings.csv -----------------------------------------------------------------------
+constexpr std::array<std::string_view, 2> kSettingsKeys = {"key", "value"};
+
+std::string* textSetting(Model& m, std::string_view key)
+{
+    return key == "currency" ? &m.units.currency : key == "area" ? &m.units.area : key == "time" ? &m.units.time : nullptr;
+}
+
+double* numberSetting(Model& m, std::string_view key)
+{
+    BalanceRules& r = m.rules;
+    return key == "ee_max"               ? &r.eeMax
+           : key == "pq_min"             ? &r.pqMin
+           : key == "pq_max"             ? &r.pqMax
+           : key == "diet_sum_tolerance" ? &r.dietSumTolerance
+           : key == "cv_grade_a"         ? &r.cvByGrade[0]
+           : key == "cv_grade_b"         ? &r.cvByGrade[1]
+           : key == "cv_grade_c"         ? &r.cvByGrade[2]
+           : key == "cv_grade_d"         ? &r.cvByGrade[3]
+                                         : nullptr;
+}
+
+void readSettings(const CsvTable& table, Model& model, Problems& problems)
+{
+    const auto sheet = openKeyed(table, kSettingsKeys, kSettingsKeys, problems);
+    if (!sheet) return;
+    std::map<std::string, int, std::less<>> seen;
+    for (const CsvRecord* r : sheet->rows) {
+        const CsvField& keyField = *sheet->field(*r, 0);
+        const CsvField& valueField = *sheet->field(*r, 1);
+        const std::string key(trim(keyField.text));
+        if (const auto it = seen.find(key); it != seen.end()) {
+            problems.push_back(errorAt("csv-duplicate-row", table.file, keyField,
+                                       "setting " + shown(key) + " is given twice (first on line " +
+                                           std::to_string(it->second) + ")"));
+            continue;
+        }
+        seen.emplace(key, keyField.line);
+        if (std::string* text = textSetting(model, key)) {
+            if (trim(valueField.text).empty())
+                problems.push_back(errorAt("csv-missing-value", table.file, valueField,
+                                           "setting " + shown(key) + " needs a value"));
+            else
+                *text = std::string(trim(valueField.text));
+            continue;
+        }
+        double* number = numberSetting(model, key);
+        if (!number) {
+            problems.push_back(errorAt("csv-unknown-setting", table.file, keyField, "unknown setting " + shown(key),
+                                       "Known settings: currency, area, time, ee_max, pq_min, pq_max, "
+                                       "diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d."));
+            continue;
+        }
+        const NumberCell v = numberCell(valueField, table.file, "setting " + shown(key), problems, true);
+        if (v.bad) continue;
+        if (!v.value) {
+            problems.push_back(errorAt("csv-missing-value", table.file, valueField,
+                                       "setting " + shown(key) + " needs a number"));
+            continue;
+        }
+        *number = *v.value;
+    }
+}
+
+// compartments.csv -------------------------------------------------------------------
+// Column order of the contract: name, kind, then the parameters in Param order.
+std::array<std::string_view, 2 + kParamCount> compartmentKeys()
+{
+    std::array<std::string_view, 2 + kParamCount> keys{"name", "kind"};
+    for (std::size_t k = 0; k < kParamCount; ++k) keys[2 + k] = paramKey(kAllParams[k]);
+    return keys;
+}
+
+// Checks a name cell of compartments.csv; returns the trimmed name, or nullopt.
+std::optional<std::string> compartmentName(const CsvField& f, const std::string& file,
+                                           std::map<std::string, int, std::less<>>& seen, Problems& problems)
+{
+    const std::string name(trim(f.text));
+    if (name.empty()) {
+        problems.push_back(errorAt("csv-name", file, f, "the compartment has no name",
+                                   "Give every compartment a name; diet, harvest and routing refer to it by name."));
+        return std::nullopt;
+    }
+    if (name == kImportColumn) {
+        problems.push_back(errorAt("csv-name", file, f, "'import' is reserved for the import column of diet.csv",
+                                   "Choose another name, e.g. 'imported food'."));
+        return std::nullopt;
+    }
+    if (const auto it = seen.find(name); it != seen.end()) {
+        problems.push_back(errorAt("csv-duplicate-name", file, f,
+                                   "compartment " + shown(name) + " is already defined on line " +
+                                       std::to_string(it->second),
+                                   "Compartment names must be unique."));
+        return std::nullopt;
+    }
+    seen.emplace(name, f.line);
+    return name;
+}
+
+void readCompartments(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+{
+    const auto keys = compartmentKeys();
+    constexpr std::array<std::string_view, 2> required = {"name", "kind"};
+    const auto sheet = openKeyed(table, keys, required, problems);
+    if (!sheet) return;
+    for (std::size_t k = 0; k < kParamCount; ++k) loc.paramColumn[k] = sheet->column(2 + k);
+    if (sheet->rows.empty() && table.records.size() == 1)
+        problems.push_back(problemAt("csv-no-rows", Severity::Error, table.file, 2, 0,
+                                     "the file lists no compartments, only its header"));
+    std::map<std::string, int, std::less<>> seen;
+    for (const CsvRecord* r : sheet->rows) {
+        const std::size_t before = problems.size();
+        const auto name = compartmentName(*sheet->field(*r, 0), table.file, seen, problems);
+        const CsvField& kindField = *sheet->field(*r, 1);
+        const auto kind = parseKind(kindField.text);
+        if (!kind)
+            problems.push_back(errorAt("csv-kind", table.file, kindField,
+                                       "kind of " + (name ? shown(*name) : std::string("this compartment")) +
+                                           ": expected producer, consumer or detritus, found " +
+                                           shown(kindField.text)));
+        if (!name) continue;
+        Compartment c;
+        c.name = *name;
+        c.kind = kind.value_or(CompartmentKind::Consumer);
+        for (std::size_t k = 0; k < kParamCount; ++k) {
+            const CsvField* f = sheet->field(*r, 2 + k);
+            if (!f) continue;
+            const Param p = kAllParams[k];
+            const NumberCell v = numberCell(*f, table.file, std::string(paramKey(p)) + " of " + shown(*name), problems);
+            if (v.bad) {
+                problems.back().compartment = *name;
+                problems.back().parameter = paramKey(p);
+                continue;
+            }
+            c.value(p) = v.value;
+        }
+        if (problems.size() != before) loc.broken.insert({*name, "*"});
+        model.addCompartment(std::move(c));
+        loc.compartmentLine.push_back(r->line);
+    }
+}
+
+// diet.csv ---------------------------------------------------------------------------
+void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+{
+    if (table.records.empty()) {
+        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
+                                     "the file is empty; expected a header: predator, then one column per prey"));
+        return;
+    }
+    const CsvRecord& header = table.records.front();
+    if (refuseOtherSeparators(header, table.file, problems)) return;
+    const std::string_view corner = trim(header.fields[0].text);
+    if (!corner.empty() && corner != "predator") {
+        problems.push_back(errorAt("csv-header", table.file, header.fields[0],
+                                   "the first column must be headed 'predator', found " + shown(corner),
+                                   "Column 1 holds predator names; each further column is a prey (or 'import')."));
+        return;
+    }
+
+    // What each further column holds: a compartment index, or one of these.
+    constexpr long kImport = -1, kUnnamed = -2, kUnusable = -3;
+    std::vector<long> prey(header.fields.size(), kUnusable);
+    std::map<std::string, int, std::less<>> seenColumn;
+    for (std::size_t col = 1; col < header.fields.size(); ++col) {
+        const CsvField& f = header.fields[col];
+        const std::string name(trim(f.text));
+        if (name.empty()) {
+            prey[col] = kUnnamed;
+            continue;
+        }
+        if (const auto it = seenColumn.find(name); it != seenColumn.end()) {
+            problems.push_back(errorAt("csv-duplicate-column", table.file, f,
+                                       "prey column " + shown(name) + " appears twice (first in column " +
+                                           std::to_string(it->second) + ")"));
+            continue;
+        }
+        seenColumn.emplace(name, f.column);
+        if (name == kImportColumn) {
+            prey[col] = kImport;
+            loc.importColumn = f.column;
+        } else if (const auto i = model.indexOf(name)) {
+            prey[col] = static_cast<long>(*i);
+            loc.preyColumn[*i] = f.column;
+        } else {
+            std::string hint = didYouMean(name, model);
+            if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
+            problems.push_back(errorAt("csv-unknown-compartment", table.file, f,
+                                       "prey column " + shown(name) + " is not a compartment of compartments.csv",
+                                       hint));
+        }
+    }
+
+    for (std::size_t k = 1; k < table.records.size(); ++k) {
+        const CsvRecord& r = table.records[k];
+        if (!rowShapeOk(r, header.fields.size(), table.file, problems)) continue;
+        const auto predator = knownCompartment(model, r.fields[0], table.file, "predator", problems);
+        if (!predator) continue;
+        const std::string& predatorName = model.compartment(*predator).name;
+        if (const auto it = loc.dietLine.find(*predator); it != loc.dietLine.end()) {
+            problems.push_back(errorAt("csv-duplicate-row", table.file, r.fields[0],
+                                       "the diet of " + shown(predatorName) + " is already given on line " +
+                                           std::to_string(it->second)));
+            continue;
+        }
+        loc.dietLine.emplace(*predator, r.line);
+
+        const std::size_t before = problems.size();
+        for (std::size_t col = 1; col < header.fields.size(); ++col) {
+            const CsvField& f = r.fields[col];
+            if (prey[col] == kUnusable) continue;
+            if (prey[col] == kUnnamed) {
+                if (!trim(f.text).empty())
+                    problems.push_back(errorAt("csv-header", table.file, f,
+                                               "this cell has no prey name above it but holds " + shown(f.text)));
+                continue;
+            }
+            const std::string preyName =
+                prey[col] == kImport ? std::string(kImportColumn) : model.compartment(prey[col]).name;
+            const NumberCell v = numberCell(
+                f, table.file, "share of " + shown(preyName) + " in the diet of " + shown(predatorName), problems);
+            if (v.bad) {
+                Problem& p = problems.back();
+                p.compartment = predatorName;
+                p.parameter = "diet";
+                p.prey = preyName;
+                continue;
+            }
+            if (!v.value) continue;
+            if (prey[col] == kImport) model.setDietImport(*predator, *v.value);
+            else model.setDiet(*predator, static_cast<std::size_t>(prey[col]), *v.value);
+        }
+        if (problems.size() != before) loc.broken.insert({predatorName, "diet"});
+    }
+    // A prey column that could not be read leaves every row's sum in doubt.
+    if (std::find(prey.begin() + 1, prey.end(), kUnusable) != prey.end())
+        for (const Compartment& c : model.compartments()) loc.broken.insert({c.name, "diet"});
+}
+
+// harvest.csv ------------------------------------------------------------------------
+constexpr std::array<std::string_view, 6> kHarvestKeys = {"fleet",    "compartment",      "landings",
+                                                          "discards", "discard_survival", "discard_pool"};
+constexpr std::array<std::string_view, 2> kHarvestRequired = {"fleet", "compartment"};
+
+void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+{
+    const auto sheet = openKeyed(table, kHarvestKeys, kHarvestRequired, problems);
+    if (!sheet) return;
+    for (const CsvRecord* r : sheet->rows) {
+        const CsvField& fleetField = *sheet->field(*r, 0);
+        const std::string fleetName(trim(fleetField.text));
+        if (fleetName.empty()) {
+            problems.push_back(errorAt("csv-name", table.file, fleetField, "the fleet has no name",
+                                       "Give the fleet (gear, sector or licence group) a name."));
+            continue;
+        }
+        const std::size_t fleet = model.fleetIndexOf(fleetName).value_or(model.fleets().size());
+        if (fleet == model.fleets().size()) {
+            model.addFleet(fleetName);
+            loc.fleetCell[fleet] = {fleetField.line, fleetField.column};
+        }
+        const std::string fleetLabel = " of fleet " + shown(fleetName);
+
+        // Discard pool: one per fleet, named on any of its rows.
+        if (const CsvField* poolField = sheet->field(*r, 5); poolField && !trim(poolField->text).empty()) {
+            if (const auto pool = knownCompartment(model, *poolField, table.file, "discard pool", problems)) {
+                Fleet& f = model.fleet(fleet);
+                if (f.discardPool && *f.discardPool != *pool)
+                    problems.push_back(errorAt("csv-discard-pool", table.file, *poolField,
+                                               "fleet " + shown(fleetName) + " already sends its discards to " +
+                                                   shown(model.compartment(*f.discardPool).name) + " (line " +
+                                                   std::to_string(loc.discardPoolCell[fleet].line) + ")",
+                                               "A fleet has one discard pool; give the same pool on every row."));
+                else if (!f.discardPool) {
+                    f.discardPool = *pool;
+                    loc.discardPoolCell[fleet] = {poolField->line, poolField->column};
+                }
+            }
+        }
+
+        const CsvField& compartmentField = *sheet->field(*r, 1);
+        if (trim(compartmentField.text).empty()) {
+            // A row with a fleet only declares the fleet; it may not carry a catch.
+            for (std::size_t key = 2; key <= 4; ++key)
+                if (const CsvField* f = sheet->field(*r, key); f && !trim(f->text).empty()) {
+                    problems.push_back(errorAt("csv-unknown-compartment", table.file, compartmentField,
+                                               "this row" + fleetLabel + " gives " + std::string(kHarvestKeys[key]) +
+                                                   " but no compartment"));
+                    break;
+                }
+            continue;
+        }
+        const auto i = knownCompartment(model, compartmentField, table.file, "compartment", problems);
+        if (!i) continue;
+        const std::string& name = model.compartment(*i).name;
+        if (const auto it = loc.harvestRow.find({fleet, *i}); it != loc.harvestRow.end()) {
+            problems.push_back(errorAt("csv-duplicate-row", table.file, compartmentField,
+                                       "the catch of " + shown(name) + fleetLabel + " is already given on line " +
+                                           std::to_string(it->second.line),
+                                       "Give one row per fleet and compartment."));
+            continue;
+        }
+        Locations::HarvestRow where{r->line, {}};
+        for (std::size_t key = 0; key < kHarvestKeys.size(); ++key) where.column[key] = sheet->column(key);
+        loc.harvestRow.emplace(std::make_pair(fleet, *i), where);
+
+        Fleet& f = model.fleet(fleet);
+        std::vector<double>* targets[] = {&f.landings, &f.discards, &f.discardSurvival};
+        for (std::size_t key = 2; key <= 4; ++key) {
+            const CsvField* cell = sheet->field(*r, key);
+            if (!cell) continue;
+            const NumberCell v = numberCell(*cell, table.file,
+                                            std::string(kHarvestKeys[key]) + " of " + shown(name) + fleetLabel, problems);
+            if (v.bad) {
+                problems.back().compartment = name;
+                problems.back().parameter = "harvest";
+                problems.back().fleet = fleetName;
+                loc.broken.insert({name, "harvest"});
+                continue;
+            }
+            (*targets[key - 2])[*i] = v.value.value_or(0.0);
+        }
+    }
+}
+
+// detritus_routing.csv -----------------------------------------------------------------
+constexpr std::array<std::string_view, 3> kRoutingKeys = {"source", "detritus", "fraction"};
+
+void readRouting(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+{
+    const auto sheet = openKeyed(table, kRoutingKeys, kRoutingKeys, problems);
+    if (!sheet) return;
+    for (const CsvRecord* r : sheet->rows) {
+        const CsvField& sourceField = *sheet->field(*r, 0);
+        const CsvField& poolField = *sheet->field(*r, 1);
+        const auto source = knownCompartment(model, sourceField, table.file, "source", problems);
+        const auto pool = knownCompartment(model, poolField, table.file, "detritus pool", problems);
+        if (!source || !pool) {
+            if (source) loc.broken.insert({model.compartment(*source).name, "routing"});
+            continue;
+        }
+        const std::string& sourceName = model.compartment(*source).name;
+        const std::string& poolName = model.compartment(*pool).name;
+        if (const auto it = loc.routingRow.find({*source, *pool}); it != loc.routingRow.end()) {
+            problems.push_back(errorAt("csv-duplicate-row", table.file, poolField,
+                                       "the share of " + shown(sourceName) + " going to " + shown(poolName) +
+                                           " is already given on line " + std::to_string(it->second.line)));
+            continue;
+        }
+        loc.routingRow.emplace(std::make_pair(*source, *pool),
+                               Locations::RoutingRow{r->line, sheet->column(0), sheet->column(1), sheet->column(2)});
+        loc.firstRoutingCell.emplace(*source, Cell{sourceField.line, sourceField.column});
+
+        const CsvField& fractionField = *sheet->field(*r, 2);
+        const std::string what = "share of " + shown(sourceName) + " going to " + shown(poolName);
+        const NumberCell v = numberCell(fractionField, table.file, what, problems);
+        if (!v.bad && !v.value)
+            problems.push_back(errorAt("csv-missing-value", table.file, fractionField, what + ": the cell is empty",
+                                       "Give the fraction (0 to 1), or delete the row."));
+        if (v.bad || !v.value) {
+            problems.back().compartment = sourceName;
+            problems.back().parameter = "routing";
+            problems.back().prey = poolName;
+            loc.broken.insert({sourceName, "routing"});
+            continue;
+        }
+        model.setRouting(*source, *pool, *v.value);
+    }
+}
+
+// confidence.csv ---------------------------------------------------------------------
+constexpr std::array<std::string_view, 5> kConfidenceKeys = {"compartment", "parameter", "grade", "cv", "source"};
+constexpr std::array<std::string_view, 2> kConfidenceRequired = {"compartment", "parameter"};
+
+void readConfidence(const CsvTable& table, Model& model, Problems& problems)
+{
+    const auto sheet = openKeyed(table, kConfidenceKeys, kConfidenceRequired, problems);
+    if (!sheet) return;
+    const auto keys = compartmentKeys();
+    const std::string paramList = joinKeys(std::span(keys).subspan(2));
+    std::map<std::pair<std::size_t, std::size_t>, int> seen;
+    for (const CsvRecord* r : sheet->rows) {
+        const auto i = knownCompartment(model, *sheet->field(*r, 0), table.file, "compartment", problems);
+        const CsvField& paramField = *sheet->field(*r, 1);
+        const auto param = parseParamKey(trim(paramField.text));
+        if (!param)
+            problems.push_back(errorAt("csv-parameter", table.file, paramField,
+                                       "unknown parameter " + shown(paramField.text),
+                                       "Expected a parameter column of compartments.csv: " + paramList + "."));
+        if (!i || !param) continue;
+        const std::string& name = model.compartment(*i).name;
+        const std::string what = std::string(paramKey(*param)) + " of " + shown(name);
+        const std::size_t p = static_cast<std::size_t>(*param);
+        if (const auto it = seen.find({*i, p}); it != seen.end()) {
+            problems.push_back(errorAt("csv-duplicate-row", table.file, paramField,
+                                       "the confidence of " + what + " is already given on line " +
+                                           std::to_string(it->second)));
+            continue;
+        }
+        seen.emplace(std::make_pair(*i, p), paramField.line);
+
+        Confidence& conf = model.compartment(*i).confidenceOf(*param);
+        if (const CsvField* g = sheet->field(*r, 2)) {
+            if (const auto grade = parseGrade(g->text)) conf.grade = *grade;
+            else
+                problems.push_back(errorAt("csv-grade", table.file, *g,
+                                           "grade of " + what + ": expected A, B, C, D or empty, found " +
+                                               shown(g->text)));
+        }
+        if (const CsvField* cv = sheet->field(*r, 3)) {
+            const NumberCell v = numberCell(*cv, table.file, "cv of " + what, problems, true);
+            if (!v.bad) conf.cv = v.value;
+        }
+        if (const CsvField* s = sheet->field(*r, 4)) conf.source = std::string(trim(s->text));
+    }
+}
+
+// ---------------------------------------------------------------------------------
+// Validation findings, placed on the cell the value came from
+// ---------------------------------------------------------------------------------
+
+bool isHidden(const Problem& p, const Locations& loc)
+{
+    return loc.broken.contains({p.compartment, "*"}) || loc.broken.contains({p.compartment, p.parameter});
+}
+
+void placeOnCell(Problem& p, const Model& model, const Locations& loc)
+{
+    const auto at = [&](const std::string& file, int line, int column) { p.location = FileLocation{file, line, column}; };
+    const auto i = model.indexOf(p.compartment);
+    if (const auto param = parseParamKey(p.parameter); param && i) {
+        at(loc.compartmentsFile, loc.compartmentLine[*i], loc.paramColumn[static_cast<std::size_t>(*param)]);
+    } else if (p.parameter == "diet") {
+        at(loc.dietFile, 0, 0);
+        if (!i) return;
+        const auto row = loc.dietLine.find(*i);
+        if (row == loc.dietLine.end()) return;  // no row: the file as a whole
+        int column = 1;
+        if (p.prey == kImportColumn) column = loc.importColumn;
+        else if (const auto prey = model.indexOf(p.prey))
+            if (const auto c = loc.preyColumn.find(*prey); c != loc.preyColumn.end()) column = c->second;
+        at(loc.dietFile, row->second, column > 0 ? column : 1);
+    } else if (p.parameter == "routing" && i) {
+        at(loc.routingFile, 0, 0);
+        if (const auto pool = model.indexOf(p.prey)) {
+            if (const auto row = loc.routingRow.find({*i, *pool}); row != loc.routingRow.end()) {
+                const bool aboutPool = p.code == check::kRoutingToLiving;
+                at(loc.routingFile, row->second.line, aboutPool ? row->second.detritusColumn : row->second.fractionColumn);
+                return;
+            }
+        }
+        if (const auto c = loc.firstRoutingCell.find(*i); c != loc.firstRoutingCell.end())
+            at(loc.routingFile, c->second.line, c->second.column);
+    } else if (p.parameter == "harvest") {
+        at(loc.harvestFile, 0, 0);
+        const auto fleet = model.fleetIndexOf(p.fleet);
+        if (!fleet) return;
+        if (p.code == check::kDiscardPool) {
+            if (const auto c = loc.discardPoolCell.find(*fleet); c != loc.discardPoolCell.end())
+                at(loc.harvestFile, c->second.line, c->second.column);
+            return;
+        }
+        if (i)
+            if (const auto row = loc.harvestRow.find({*fleet, *i}); row != loc.harvestRow.end()) {
+                const std::size_t key = p.code == check::kNegativeLandings  ? 2
+                                        : p.code == check::kNegativeDiscards ? 3
+                                        : p.code == check::kDiscardSurvival  ? 4
+                                                                             : 1;  // the compartment cell
+                at(loc.harvestFile, row->second.line, row->second.column[key]);
+                return;
+            }
+        if (const auto c = loc.fleetCell.find(*fleet); c != loc.fleetCell.end())
+            at(loc.harvestFile, c->second.line, c->second.column);
+    } else {
+        at(loc.compartmentsFile, 0, 0);  // about the model as a whole
+    }
+}
+
+// Hints that only the reader can give, knowing what was typed.
+void addReaderHints(Problem& p, const Model& model)
+{
+    if (p.code != check::kDietFraction) return;
+    const auto i = model.indexOf(p.compartment);
+    if (i && std::abs(model.dietRowSum(*i) - 100.0) < 0.5)
+        p.hint = "This row sums to 100: write fractions (0.25), not percentages (25).";
+}
+
+// ---------------------------------------------------------------------------------
+// Writing
+// ---------------------------------------------------------------------------------
+
+std::string optionalNumber(const std::optional<double>& v) { return v ? formatNumber(*v) : std::string(); }
+
+// Names the reader would refuse or could not tell apart.
+Problems unwritableNames(const Model& model)
+{
+    Problems out;
+    const auto refuse = [&](std::string message) {
+        Problem p;
+        p.code = "csv-name";
+        p.message = std::move(message);
+        p.hint = "Rename it before exporting; names must be unique, non-empty and without spaces around them.";
+        out.push_back(std::move(p));
+    };
+    std::set<std::string, std::less<>> seen;
+    for (const Compartment& c : model.compartments()) {
+        if (trim(c.name).empty()) refuse("a compartment has no name");
+        else if (trim(c.name) != c.name) refuse("compartment " + shown(c.name) + " has spaces around its name");
+        else if (c.name == kImportColumn) refuse("'import' is reserved for the import column of diet.csv");
+        else if (!seen.insert(c.name).second) refuse("two compartments are named " + shown(c.name));
+    }
+    std::set<std::string, std::less<>> fleets;
+    for (const Fleet& f : model.fleets()) {
+        if (trim(f.name).empty()) refuse("a fleet has no name");
+        else if (trim(f.name) != f.name) refuse("fleet " + shown(f.name) + " has spaces around its name");
+        else if (!fleets.insert(f.name).second) refuse("two fleets are named " + shown(f.name));
+    }
+    return out;
+}
+
+std::string compartmentsText(const Model& model)
+{
+    const auto keys = compartmentKeys();
+    std::string out = csvRecord(std::vector<std::string>(keys.begin(), keys.end()));
+    for (const Compartment& c : model.compartments()) {
+        std::vector<std::string> row = {c.name, std::string(kindKey(c.kind))};
+        for (Param p : kAllParams) row.push_back(optionalNumber(c.value(p)));
+        out += csvRecord(row);
+    }
+    return out;
+}
+
+bool hasDiet(const Model& model, std::size_t j)
+{
+    const double* row = model.dietGrid().rowData(j);
+    return model.dietImport(j) != 0.0 || std::any_of(row, row + model.size(), [](double v) { return v != 0.0; });
+}
+
+std::string dietText(const Model& model)
+{
+    std::vector<std::string> header = {"predator"};
+    for (const Compartment& c : model.compartments()) header.push_back(c.name);
+    header.emplace_back(kImportColumn);
+    std::string out = csvRecord(header);
+    for (std::size_t j = 0; j < model.size(); ++j) {
+        // Consumers always get a row; others only if they hold a diet (kept, not lost).
+        if (model.compartment(j).kind != CompartmentKind::Consumer && !hasDiet(model, j)) continue;
+        std::vector<std::string> row = {model.compartment(j).name};
+        for (std::size_t i = 0; i < model.size(); ++i) row.push_back(formatNumber(model.diet(j, i)));
+        row.push_back(formatNumber(model.dietImport(j)));
+        out += csvRecord(row);
+    }
+    return out;
+}
+
+// Empty when the model has no fleet.
+std::string harvestText(const Model& model)
+{
+    if (model.fleets().empty()) return {};
+    bool extended = false;  // the two optional columns only when they carry something
+    for (const Fleet& f : model.fleets())
+        extended = extended || f.discardPool ||
+                   std::any_of(f.discardSurvival.begin(), f.discardSurvival.end(), [](double s) { return s != 0.0; });
+    std::string out = csvRecord(std::vector<std::string>(kHarvestKeys.begin(), kHarvestKeys.begin() + (extended ? 6 : 4)));
+    for (const Fleet& f : model.fleets()) {
+        const std::string pool = f.discardPool ? model.compartment(*f.discardPool).name : std::string();
+        bool wroteRow = false;
+        for (std::size_t i = 0; i < model.size(); ++i) {
+            if (f.landings[i] == 0.0 && f.discards[i] == 0.0 && f.discardSurvival[i] == 0.0) continue;
+            std::vector<std::string> row = {f.name, model.compartment(i).name, formatNumber(f.landings[i]),
+                                            formatNumber(f.discards[i])};
+            if (extended) {
+                row.push_back(formatNumber(f.discardSurvival[i]));
+                row.push_back(pool);
+            }
+            out += csvRecord(row);
+            wroteRow = true;
+        }
+        if (!wroteRow) {  // a fleet without catch yet: a row naming the fleet only
+            std::vector<std::string> row = {f.name, "", "", ""};
+            if (extended) {
+                row.emplace_back();
+                row.push_back(pool);
+            }
+            out += csvRecord(row);
+        }
+    }
+    return out;
+}
+
+// Empty when every source uses the default routing.
+std::string routingText(const Model& model)
+{
+    std::string rows;
+    for (std::size_t s = 0; s < model.size(); ++s)
+        for (std::size_t d = 0; d < model.size(); ++d)
+            if (model.routing(s, d) != 0.0)
+                rows += csvRecord({model.compartment(s).name, model.compartment(d).name, formatNumber(model.routing(s, d))});
+    return rows.empty() ? rows : csvRecord({"source", "detritus", "fraction"}) + rows;
+}
+
+// Empty when no parameter has a confidence.
+std::string confidenceText(const Model& model)
+{
+    std::string rows;
+    for (const Compartment& c : model.compartments())
+        for (Param p : kAllParams) {
+            const Confidence& conf = c.confidenceOf(p);
+            if (conf == Confidence{}) continue;
+            rows += csvRecord({c.name, std::string(paramKey(p)), std::string(gradeKey(conf.grade)),
+                               optionalNumber(conf.cv), conf.source});
+        }
+    return rows.empty() ? rows
+                        : csvRecord(std::vector<std::string>(kConfidenceKeys.begin(), kConfidenceKeys.end())) + rows;
+}
+
+// Empty when units and rules are the defaults; otherwise the settings that differ.
+std::string settingsText(const Model& model)
+{
+    Model defaults;
+    std::string rows;
+    for (const char* key : {"currency", "area", "time"})
+        if (*textSetting(const_cast<Model&>(model), key) != *textSetting(defaults, key))
+            rows += csvRecord({key, *textSetting(const_cast<Model&>(model), key)});
+    for (const char* key : {"ee_max", "pq_min", "pq_max", "diet_sum_tolerance", "cv_grade_a", "cv_grade_b",
+                            "cv_grade_c", "cv_grade_d"})
+        if (*numberSetting(const_cast<Model&>(model), key) != *numberSetting(defaults, key))
+            rows += csvRecord({key, formatNumber(*numberSetting(const_cast<Model&>(model), key))});
+    return rows.empty() ? rows : csvRecord({"key", "value"}) + rows;
+}
+
+}  // namespace
+
+CsvReadResult readCsvModel(const std::filesystem::path& folder)
+{
+    CsvReadResult result;
+    Problems& problems = result.problems;
+    std::error_code ec;
+    if (!std::filesystem::is_directory(folder, ec)) {
+        problems.push_back(problemAt("csv-missing-file", Severity::Error, folder.string(), 0, 0,
+                                     std::filesystem::exists(folder, ec)
+                                         ? "expected a CSV model folder but found a file"
+                                         : "the CSV model folder does not exist"));
+        return result;
+    }
+
+    Model model;
+    Locations loc;
+    loc.compartmentsFile = (folder / kCompartmentsFile).string();
+    loc.dietFile = (folder / kDietFile).string();
+    loc.harvestFile = (folder / kHarvestFile).string();
+    loc.routingFile = (folder / kRoutingFile).string();
+
+    if (const auto t = readSheet(folder, kSettingsFile, false, problems)) readSettings(*t, model, problems);
+    const auto compartments = readSheet(folder, kCompartmentsFile, true, problems);
+    if (compartments) readCompartments(*compartments, model, loc, problems);
+    const bool anyConsumer = std::any_of(model.compartments().begin(), model.compartments().end(),
+                                         [](const Compartment& c) { return c.kind == CompartmentKind::Consumer; });
+    // Without compartments.csv, a missing diet.csv would only add noise.
+    if (const auto t = readSheet(folder, kDietFile, compartments && anyConsumer, problems))
+        readDiet(*t, model, loc, problems);
+    if (const auto t = readSheet(folder, kHarvestFile, false, problems)) readHarvest(*t, model, loc, problems);
+    if (const auto t = readSheet(folder, kRoutingFile, false, problems)) readRouting(*t, model, loc, problems);
+    if (const auto t = readSheet(folder, kConfidenceFile, false, problems)) readConfidence(*t, model, problems);
+
+    // The semantic checks are validation's (one place for them); the reader adds where.
+    if (compartments) {
+        for (Problem& p : validateModel(model)) {
+            if (isHidden(p, loc)) continue;
+            placeOnCell(p, model, loc);
+            addReaderHints(p, model);
+            problems.push_back(std::move(p));
+        }
+    }
+
+    if (problems.size() > kMaxProblems) {
+        const std::size_t more = problems.size() - kMaxProblems;
+        const bool errorsHidden = std::any_of(problems.begin() + kMaxProblems, problems.end(),
+                                              [](const Problem& p) { return p.severity == Severity::Error; });
+        problems.resize(kMaxProblems);
+        Problem summary = problemAt("csv-too-many-problems", errorsHidden ? Severity::Error : Severity::Warning,
+                                    folder.string(), 0, 0,
+                                    "and " + std::to_string(more) + " more problems not listed",
+                                    "Fix the ones above first; they often cause the rest.");
+        problems.push_back(std::move(summary));
+    }
+    if (!hasErrors(problems)) result.model = std::move(model);
+    return result;
+}
+
+Problems writeCsvModel(const Model& model, const std::filesystem::path& folder)
+{
+    Problems problems = unwritableNames(model);
+    if (hasErrors(problems)) return problems;
+
+    std::error_code ec;
+    std::filesystem::create_directories(folder, ec);
+    if (ec || !std::filesystem::is_directory(folder, ec)) {
+        Problem p;
+        p.code = "csv-write";
+        p.message = "cannot create the folder " + folder.string() + (ec ? ": " + ec.message() : std::string());
+        p.location = FileLocation{folder.string(), 0, 0};
+        return {p};
+    }
+    // An empty text means "this file has nothing to say": it is not written, and one
+    // left from an earlier write is removed so that it cannot be read back as current.
+    const std::pair<std::string_view, std::string> files[] = {
+        {kCompartmentsFile, compartmentsText(model)}, {kDietFile, dietText(model)},
+        {kHarvestFile, harvestText(model)},           {kRoutingFile, routingText(model)},
+        {kConfidenceFile, confidenceText(model)},     {kSettingsFile, settingsText(model)},
+    };
+    for (const auto& [name, content] : files) {
+        const std::filesystem::path path = folder / name;
+        std::optional<std::string> error;
+        if (!content.empty()) {
+            error = writeFileAtomically(path, content);
+        } else if (std::filesystem::remove(path, ec); ec) {
+            error = "cannot remove the outdated " + path.string() + ": " + ec.message();
+        }
+        if (error) {
+            Problem p;
+            p.code = "csv-write";
+            p.message = *error;
+            p.location = FileLocation{path.string(), 0, 0};
+            problems.push_back(std::move(p));
+        }
+    }
+    return problems;
+}
+
+}  // namespace tl

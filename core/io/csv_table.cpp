@@ -1,0 +1,238 @@
+#include "core/io/csv_table.h"
+
+#include <fstream>
+#include <sstream>
+
+#include "core/model/text.h"
+
+namespace tl {
+namespace {
+
+Problem fileProblem(std::string code, const std::string& file, int line, int column, std::string message,
+                    std::string hint = {})
+{
+    Problem p;
+    p.code = std::move(code);
+    p.severity = Severity::Error;
+    p.message = std::move(message);
+    p.hint = std::move(hint);
+    p.location = FileLocation{file, line, column};
+    return p;
+}
+
+// Offset of the first byte that does not belong to a well-formed UTF-8 sequence
+// (Unicode 15, table 3-7: no overlong forms, no surrogates, nothing above U+10FFFF),
+// or npos when the whole text is valid.
+std::size_t firstInvalidUtf8(std::string_view s)
+{
+    const auto byte = [&](std::size_t k) { return static_cast<unsigned char>(s[k]); };
+    std::size_t i = 0;
+    while (i < s.size()) {
+        const unsigned char c = byte(i);
+        if (c < 0x80) { ++i; continue; }
+        std::size_t len = 0;
+        unsigned char lo = 0x80, hi = 0xBF;  // allowed range of the second byte
+        if (c >= 0xC2 && c <= 0xDF) len = 2;
+        else if (c >= 0xE0 && c <= 0xEF) {
+            len = 3;
+            if (c == 0xE0) lo = 0xA0;
+            if (c == 0xED) hi = 0x9F;
+        } else if (c >= 0xF0 && c <= 0xF4) {
+            len = 4;
+            if (c == 0xF0) lo = 0x90;
+            if (c == 0xF4) hi = 0x8F;
+        } else return i;
+        if (i + len > s.size()) return i;
+        if (byte(i + 1) < lo || byte(i + 1) > hi) return i;
+        for (std::size_t k = 2; k < len; ++k)
+            if (byte(i + k) < 0x80 || byte(i + k) > 0xBF) return i;
+        i += len;
+    }
+    return std::string_view::npos;
+}
+
+bool isBlank(const CsvRecord& r)
+{
+    for (const CsvField& f : r.fields)
+        if (!trim(f.text).empty()) return false;
+    return true;
+}
+
+// Refuses content that is clearly not UTF-8 CSV, with a message saying what it is.
+std::optional<Problem> recogniseWrongEncoding(std::string_view text, const std::string& file)
+{
+    if (text.starts_with("\xFF\xFE") || text.starts_with("\xFE\xFF"))
+        return fileProblem("csv-encoding", file, 1, 0, "the file is UTF-16 text, not UTF-8",
+                           "Save it again as \"CSV UTF-8 (comma delimited)\".");
+    if (text.starts_with("PK\x03\x04"))
+        return fileProblem("csv-encoding", file, 1, 0, "the file is a spreadsheet workbook (zip archive), not CSV text",
+                           "Export the sheet as \"CSV UTF-8 (comma delimited)\".");
+    if (const auto nul = text.find('\0'); nul != std::string_view::npos) {
+        int line = 1;
+        for (std::size_t k = 0; k < nul; ++k)
+            if (text[k] == '\n') ++line;
+        return fileProblem("csv-encoding", file, line, 0, "the file contains NUL bytes; it is not UTF-8 text",
+                           "Save it again as \"CSV UTF-8 (comma delimited)\".");
+    }
+    return std::nullopt;
+}
+
+}  // namespace
+
+CsvParseResult parseCsv(std::string_view text, std::string file)
+{
+    CsvParseResult out;
+    out.table.file = file;
+    if (text.starts_with("\xEF\xBB\xBF")) text.remove_prefix(3);
+    if (auto wrong = recogniseWrongEncoding(text, file)) {
+        out.problems.push_back(std::move(*wrong));
+        return out;
+    }
+
+    const std::size_t n = text.size();
+    std::size_t i = 0;
+    int line = 1;
+    CsvRecord record;
+    record.line = line;
+
+    // Consumes one line end at i (CRLF, LF or a lone CR) if there is one.
+    const auto takeLineEnd = [&]() -> bool {
+        if (i < n && text[i] == '\r') {
+            ++i;
+            if (i < n && text[i] == '\n') ++i;
+        } else if (i < n && text[i] == '\n') {
+            ++i;
+        } else {
+            return false;
+        }
+        ++line;
+        return true;
+    };
+    const auto finishRecord = [&]() {
+        if (!isBlank(record)) out.table.records.push_back(std::move(record));
+        record = CsvRecord{};
+        record.line = line;
+    };
+
+    while (true) {
+        CsvField field;
+        field.line = line;
+        field.column = static_cast<int>(record.fields.size()) + 1;
+
+        std::size_t j = i;  // white space before an opening quote is tolerated
+        while (j < n && (text[j] == ' ' || text[j] == '\t')) ++j;
+        if (j < n && text[j] == '"') {
+            i = j + 1;
+            bool closed = false;
+            while (i < n) {
+                const char c = text[i];
+                if (c == '"') {
+                    if (i + 1 < n && text[i + 1] == '"') {
+                        field.text += '"';
+                        i += 2;
+                    } else {
+                        ++i;
+                        closed = true;
+                        break;
+                    }
+                } else if (c == '\r' || c == '\n') {
+                    takeLineEnd();
+                    field.text += '\n';
+                } else {
+                    field.text += c;
+                    ++i;
+                }
+            }
+            if (!closed) {
+                out.problems.push_back(fileProblem(
+                    "csv-quote", file, field.line, field.column,
+                    "a quoted field opened here is never closed (the file ends inside it)",
+                    "Add the closing double quote; a quote inside a quoted field is written twice (\"\")."));
+                record.fields.push_back(std::move(field));
+                finishRecord();
+                break;
+            }
+            while (i < n && (text[i] == ' ' || text[i] == '\t')) ++i;
+            if (i < n && text[i] != ',' && text[i] != '\r' && text[i] != '\n') {
+                out.problems.push_back(fileProblem(
+                    "csv-quote", file, line, field.column,
+                    "unexpected text after the closing quote of a field",
+                    "Put the whole cell inside the quotes, and write a quote inside it twice (\"\")."));
+                while (i < n && text[i] != ',' && text[i] != '\r' && text[i] != '\n') field.text += text[i++];
+            }
+        } else {
+            const std::size_t start = i;
+            while (i < n && text[i] != ',' && text[i] != '\r' && text[i] != '\n') ++i;
+            field.text.assign(text.substr(start, i - start));
+        }
+
+        if (const std::size_t bad = firstInvalidUtf8(field.text); bad != std::string_view::npos) {
+            char byteText[8];
+            std::snprintf(byteText, sizeof byteText, "0x%02X", static_cast<unsigned char>(field.text[bad]));
+            out.problems.push_back(fileProblem(
+                "csv-encoding", file, field.line, field.column,
+                std::string("the cell is not valid UTF-8 text (byte ") + byteText + ")",
+                "Save the file as \"CSV UTF-8\"; older exports use a legacy code page for accented letters."));
+        }
+        record.fields.push_back(std::move(field));
+
+        if (i < n && text[i] == ',') {
+            ++i;
+            continue;
+        }
+        takeLineEnd();
+        finishRecord();
+        if (i >= n) break;
+    }
+    return out;
+}
+
+CsvParseResult readCsvFile(const std::filesystem::path& path)
+{
+    const std::string file = path.string();
+    std::error_code ec;
+    if (std::filesystem::is_directory(path, ec)) {
+        CsvParseResult out;
+        out.table.file = file;
+        out.problems.push_back(fileProblem("csv-unreadable", file, 0, 0, "expected a CSV file but found a folder"));
+        return out;
+    }
+    std::ifstream in(path, std::ios::binary);
+    std::ostringstream content;
+    if (in) content << in.rdbuf();
+    if (!in || in.bad()) {
+        CsvParseResult out;
+        out.table.file = file;
+        const bool exists = std::filesystem::exists(path, ec);
+        out.problems.push_back(fileProblem("csv-unreadable", file, 0, 0,
+                                           exists ? "the file cannot be read" : "the file does not exist"));
+        return out;
+    }
+    return parseCsv(content.str(), file);
+}
+
+std::string csvField(std::string_view text)
+{
+    const bool needsQuotes = text.find_first_of(",\"\r\n") != std::string_view::npos ||
+                             (!text.empty() && (text.front() == ' ' || text.front() == '\t' ||
+                                                text.back() == ' ' || text.back() == '\t'));
+    if (!needsQuotes) return std::string(text);
+    std::string out = "\"";
+    for (const char c : text) {
+        if (c == '"') out += '"';
+        out += c;
+    }
+    return out + '"';
+}
+
+std::string csvRecord(const std::vector<std::string>& fields)
+{
+    std::string out;
+    for (std::size_t k = 0; k < fields.size(); ++k) {
+        if (k > 0) out += ',';
+        out += csvField(fields[k]);
+    }
+    return out + '\n';
+}
+
+}  // namespace tl
