@@ -1,14 +1,215 @@
-// tledger export — being implemented (owner: see DEVELOPERS.md). Until then it says so.
+// tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH
+// (DESIGN 5.2). MODEL is a CSV model folder or a .tledger project.
+//   csv   the scenario as a CSV model folder (DESIGN 5.1, plus confidence/settings files)
+//   json  the project: information, every scenario (or the one named) with its inputs
+//         and its solve result (the `tledger solve --json` object under "result")
+//   scor  the solved scenario's flow network in SCOR format
+//   html  not available yet (exit 2)
+// Bad input exits 2 naming the file, and nothing is written: output goes to a
+// temporary path first and is renamed into place only when complete.
+#include <algorithm>
 #include <iostream>
+#include <random>
+#include <system_error>
 
 #include "app/tledger/commands.h"
+#include "app/tledger/options.h"
+#include "core/balance/solver.h"
+#include "core/io/atomic_file.h"
+#include "core/io/balance_report.h"
+#include "core/io/csv_model.h"
+#include "core/io/scor.h"
+#include "core/model/text.h"
+#include "core/network/flow_network.h"
+#include "core/store/project_file.h"
+#include "core/store/project_json.h"
 
 namespace tl::cli {
+namespace {
 
-int cmdExport(const Args&)
+namespace fs = std::filesystem;
+
+void printProblems(const Problems& problems)
 {
-    std::cerr << "tledger export: not available in this build yet\n";
-    return 2;
+    for (const Problem& p : problems) std::cerr << p.describe() << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
+}
+
+// MODEL as a project: a .tledger as stored, or a CSV folder as a one-scenario project.
+std::optional<Project> loadProject(const fs::path& path, const std::optional<std::string>& scenario)
+{
+    std::error_code ec;
+    if (!fs::exists(path, ec)) {
+        std::cerr << path.string() << ": no such file or folder (expected a CSV model folder or a .tledger project)\n";
+        return std::nullopt;
+    }
+    Project project;
+    if (fs::is_directory(path, ec)) {
+        CsvReadResult read = readCsvModel(path);
+        printProblems(read.problems);
+        if (!read.model) return std::nullopt;
+        const fs::path folder = path.filename().empty() ? path.parent_path() : path;
+        project.info.title = folder.filename().string();
+        project.info.units = read.model->units;
+        project.info.rules = read.model->rules;
+        Scenario s;
+        s.name = scenario.value_or(folder.filename().string());
+        s.description = "CSV model folder " + folder.filename().string();
+        s.model = std::move(*read.model);
+        project.scenarios.push_back(std::move(s));
+        return project;
+    }
+    StoreResult<Project> loaded = loadProjectFromFile(path);
+    printProblems(loaded.problems);
+    if (!loaded.value) return std::nullopt;
+    project = std::move(*loaded.value);
+    if (scenario) {
+        const Scenario* chosen = project.findScenario(std::string(trim(*scenario)));
+        if (!chosen) {
+            std::string names;
+            for (const std::string& n : project.scenarioNames()) names += (names.empty() ? "'" : ", '") + n + "'";
+            std::cerr << path.string() << ": has no scenario named '" << *scenario << "' (it has "
+                      << (names.empty() ? "none" : names) << ")\n";
+            return std::nullopt;
+        }
+        Scenario keep = *chosen;
+        project.scenarios = {std::move(keep)};
+        project.runs.erase(std::remove_if(project.runs.begin(), project.runs.end(),
+                                          [&](const StoredRun& r) { return r.scenario != project.scenarios[0].name; }),
+                           project.runs.end());
+    }
+    return project;
+}
+
+// The one scenario a csv or scor export needs.
+const Scenario* singleScenario(const Project& project, const fs::path& model)
+{
+    if (project.scenarios.size() == 1) return &project.scenarios.front();
+    std::string names;
+    for (const std::string& n : project.scenarioNames()) names += (names.empty() ? "'" : ", '") + n + "'";
+    std::cerr << model.string() << ": "
+              << (project.scenarios.empty() ? "holds no scenario to export"
+                                            : "holds " + std::to_string(project.scenarios.size()) + " scenarios (" +
+                                                  names + "); say which one with --scenario NAME")
+              << '\n';
+    return nullptr;
+}
+
+fs::path temporarySibling(const fs::path& target)
+{
+    std::random_device rd;
+    fs::path temp = target;
+    temp += ".partial-" + std::to_string(rd());
+    return temp;
+}
+
+int exportCsv(const Scenario& scenario, const fs::path& out)
+{
+    std::error_code ec;
+    if (fs::exists(out, ec) && !fs::is_directory(out, ec)) {
+        std::cerr << out.string() << ": exists and is not a folder; a CSV export writes a folder\n";
+        return 2;
+    }
+    if (fs::is_directory(out, ec)) {
+        // Each file is replaced atomically, and no file is stale afterwards (csv_model.h).
+        const Problems problems = writeCsvModel(scenario.model, out);
+        printProblems(problems);
+        return hasErrors(problems) ? 2 : 0;
+    }
+    const fs::path temp = temporarySibling(out);
+    const Problems problems = writeCsvModel(scenario.model, temp);
+    printProblems(problems);
+    if (hasErrors(problems)) {
+        fs::remove_all(temp, ec);
+        return 2;
+    }
+    fs::rename(temp, out, ec);
+    if (ec) {
+        std::cerr << out.string() << ": cannot be written (" << ec.message() << ")\n";
+        fs::remove_all(temp, ec);
+        return 2;
+    }
+    return 0;
+}
+
+std::string withoutTrailingSpace(std::string s)
+{
+    while (!s.empty() && (s.back() == '\n' || s.back() == ' ')) s.pop_back();
+    return s;
+}
+
+int exportJson(const Project& project, const fs::path& out)
+{
+    ProjectJsonOptions options;
+    options.notice = kDecisionSupportNotice;
+    const std::string json = projectJson(project, options, [](const Scenario& s) {
+        return JsonMembers{{"result", withoutTrailingSpace(balanceSheetJson(solveBalance(s.model)))}};
+    });
+    if (const auto error = writeFileAtomically(out, json)) {
+        std::cerr << out.string() << ": " << *error << '\n';
+        return 2;
+    }
+    return 0;
+}
+
+int exportScor(const Project& project, const Scenario& scenario, const fs::path& out)
+{
+    const BalanceSheet sheet = solveBalance(scenario.model);
+    if (sheet.status == BalanceStatus::Invalid) {
+        printProblems(sheet.problems);
+        std::cerr << "tledger export: scenario '" << scenario.name
+                  << "' cannot be solved, so it has no flow network to export; nothing was written\n";
+        return 1;
+    }
+    const FlowNetwork network = buildFlowNetwork(scenario.model, sheet);
+    const ScorNetwork scor = scorFromFlowNetwork(network, project.info.title + " - " + scenario.name);
+    if (const auto error = checkScorWritable(scor)) {
+        std::cerr << out.string() << ": " << *error << "; nothing was written\n";
+        return 2;
+    }
+    if (const auto error = writeScorFile(scor, out)) {
+        std::cerr << out.string() << ": " << *error << '\n';
+        return 2;
+    }
+    if (sheet.status == BalanceStatus::Unbalanced)
+        std::cerr << "tledger export: note: scenario '" << scenario.name
+                  << "' does not balance; the exported flows are those of its current inputs\n";
+    return 0;
+}
+
+}  // namespace
+
+int cmdExport(const Args& args)
+{
+    const auto opts = parseOptions(args, {"--scenario", "--format", "--out"}, {}, "export", std::cerr);
+    if (!opts) return 2;
+    const auto format = opts->value("--format");
+    const auto out = opts->value("--out");
+    if (opts->positional.size() != 1 || !format || !out || out->empty()) {
+        std::cerr << "tledger export: usage: tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH\n";
+        return 2;
+    }
+    if (*format != "csv" && *format != "json" && *format != "scor" && *format != "html") {
+        std::cerr << "tledger export: unknown --format '" << *format << "' (expected csv, json, scor or html)\n";
+        return 2;
+    }
+    if (*format == "html") {
+        std::cerr << "tledger export: --format html is not available yet; use json or csv\n";
+        return 2;
+    }
+    const fs::path model = opts->positional[0];
+    const auto project = loadProject(model, opts->value("--scenario"));
+    if (!project) return 2;
+
+    int code = 2;
+    if (*format == "json") {
+        code = exportJson(*project, *out);
+    } else {
+        const Scenario* scenario = singleScenario(*project, model);
+        if (!scenario) return 2;
+        code = *format == "csv" ? exportCsv(*scenario, *out) : exportScor(*project, *scenario, *out);
+    }
+    if (code == 0) std::cout << "wrote " << *out << '\n';
+    return code;
 }
 
 }  // namespace tl::cli

@@ -3,6 +3,7 @@
 #include <system_error>
 
 #include "core/io/csv_model.h"
+#include "core/store/project_file.h"
 
 namespace tl::cli {
 
@@ -20,8 +21,11 @@ std::optional<Model> loadModelForCli(const std::filesystem::path& path, const st
         for (const Problem& p : read.problems) err << p.describe() << '\n';
         return std::move(read.model);
     }
-    err << path.string() << ": not a CSV model folder (project files are not supported by this build yet)\n";
-    return std::nullopt;
+    // A file: a .tledger project (the store refuses anything else, naming the file).
+    StoreResult<Scenario> loaded = loadScenarioFromFile(path, scenario);
+    for (const Problem& p : loaded.problems) err << p.describe() << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
+    if (!loaded.value) return std::nullopt;
+    return std::move(loaded.value->model);
 }
 
 }  // namespace tl::cli

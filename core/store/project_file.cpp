@@ -990,4 +990,44 @@ Problems ProjectFile::deleteRun(std::int64_t id)
     });
 }
 
+StoreResult<Project> loadProjectFromFile(const fs::path& path)
+{
+    auto opened = ProjectFile::open(path, OpenMode::ReadOnly);
+    StoreResult<Project> result;
+    if (!opened.file) {
+        result.problems = std::move(opened.problems);
+        return result;
+    }
+    result = opened.file->load();
+    for (Problem& p : opened.problems)
+        if (p.code != "store-newer-version") result.problems.push_back(std::move(p));  // read-only is what was asked
+    return result;
+}
+
+StoreResult<Scenario> loadScenarioFromFile(const fs::path& path, const std::optional<std::string>& name)
+{
+    StoreResult<Scenario> result;
+    auto opened = ProjectFile::open(path, OpenMode::ReadOnly);
+    if (!opened.file) {
+        result.problems = std::move(opened.problems);
+        return result;
+    }
+    if (name && !trimmed(*name).empty()) return opened.file->loadScenario(*name);
+    auto list = opened.file->listScenarios();
+    if (!list.value) {
+        result.problems = std::move(list.problems);
+        return result;
+    }
+    if (list.value->size() == 1) return opened.file->loadScenario(list.value->front().name);
+    std::string names;
+    for (const ScenarioSummary& s : *list.value) names += (names.empty() ? "'" : ", '") + s.name + "'";
+    result.problems.push_back(
+        list.value->empty()
+            ? fileProblem(path, "store-no-scenario", "holds no scenario yet", "Import one with: tledger import CSV_FOLDER --into PROJECT --scenario NAME")
+            : fileProblem(path, "store-scenario-needed",
+                          "holds " + std::to_string(list.value->size()) + " scenarios (" + names + "); say which one",
+                          "Add --scenario NAME."));
+    return result;
+}
+
 }  // namespace tl

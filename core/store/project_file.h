@@ -103,4 +103,10 @@ private:
     int schemaVersion_ = 0;
 };
 
+// Conveniences for one-shot readers (CLI, report tools): open read-only, read, close.
+// loadScenarioFromFile takes the named scenario or, when `name` is empty, the only
+// one; with several scenarios and no name it fails with a Problem listing them.
+StoreResult<Project> loadProjectFromFile(const std::filesystem::path& path);
+StoreResult<Scenario> loadScenarioFromFile(const std::filesystem::path& path, const std::optional<std::string>& name);
+
 }  // namespace tl

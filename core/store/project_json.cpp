@@ -6,14 +6,28 @@
 namespace tl {
 namespace {
 
+// Re-indents a JSON value by two spaces per nesting step. Safe on any JSON text: a raw
+// line break can only sit between tokens (strings hold it escaped as \n).
+std::string indented(std::string value)
+{
+    while (!value.empty() && (value.back() == '\n' || value.back() == ' ')) value.pop_back();
+    std::string out;
+    out.reserve(value.size() + 64);
+    for (char c : value) {
+        out += c;
+        if (c == '\n') out += "  ";
+    }
+    return out;
+}
+
 // {"k1": v1, "k2": v2} from already valid JSON values, one member per line.
 std::string objectOf(const JsonMembers& members)
 {
     if (members.empty()) return "{}";
     std::string out = "{";
     for (std::size_t i = 0; i < members.size(); ++i) {
-        out += i == 0 ? "\n" : ",\n";
-        out += jsonEscape(members[i].first) + ": " + members[i].second;
+        out += i == 0 ? "\n  " : ",\n  ";
+        out += jsonEscape(members[i].first) + ": " + indented(members[i].second);
     }
     return out + "\n}";
 }
@@ -22,7 +36,7 @@ std::string arrayOf(const std::vector<std::string>& values)
 {
     if (values.empty()) return "[]";
     std::string out = "[";
-    for (std::size_t i = 0; i < values.size(); ++i) out += (i == 0 ? "\n" : ",\n") + values[i];
+    for (std::size_t i = 0; i < values.size(); ++i) out += (i == 0 ? "\n  " : ",\n  ") + indented(values[i]);
     return out + "\n]";
 }
 
@@ -114,6 +128,7 @@ std::string projectJson(const Project& project, const ProjectJsonOptions& option
     JsonMembers top;
     top.emplace_back("format", jsonEscape("trophic-ledger-project"));
     top.emplace_back("schema_version", std::to_string(store::kSchemaVersion));
+    if (!options.notice.empty()) top.emplace_back("notice", jsonEscape(options.notice));
     top.emplace_back("title", jsonEscape(info.title));
     top.emplace_back("notes", jsonEscape(info.notes));
     if (options.timestamps) {

@@ -20,6 +20,9 @@ struct ProjectJsonOptions {
     // created/modified/program version stamps; off when comparing content (the
     // sample-project drift test compares two files made at different times).
     bool timestamps = true;
+    // Written as "notice" at the top when not empty (the decision-support sentence
+    // every exported result carries).
+    std::string notice;
 };
 
 // Extra members of one scenario's object: key and an already valid JSON value.

@@ -1,0 +1,117 @@
+#include "core/store/scor_import.h"
+
+#include <vector>
+
+#include "core/model/text.h"
+
+namespace tl {
+namespace {
+
+Problem scorProblem(const std::string& file, Severity severity, std::string code, const std::string& compartment,
+                    std::string message)
+{
+    Problem p;
+    p.code = std::move(code);
+    p.severity = severity;
+    p.compartment = compartment;
+    p.message = std::move(message);
+    p.location = FileLocation{file, 0, 0};
+    return p;
+}
+
+}  // namespace
+
+ScorImport modelFromScor(const ScorNetwork& net, const std::string& fileName)
+{
+    ScorImport out;
+    const std::size_t n = net.names.size();
+    auto at = [](const std::vector<double>& v, std::size_t i) { return i < v.size() ? v[i] : 0.0; };
+    std::vector<std::vector<double>> F(n, std::vector<double>(n, 0.0));
+    for (const ScorFlow& f : net.flows)
+        if (f.from < n && f.to < n) F[f.from][f.to] += f.value;
+    auto living = [&](std::size_t i) { return i < net.livingCount; };
+
+    Model m;
+    for (std::size_t i = 0; i < n; ++i) {
+        Compartment c;
+        c.name = net.names[i];
+        double intake = 0.0;
+        for (std::size_t k = 0; k < n; ++k) intake += F[k][i];
+        c.kind = !living(i) ? CompartmentKind::Detritus : intake > 0.0 ? CompartmentKind::Consumer : CompartmentKind::Producer;
+        m.addCompartment(std::move(c));
+    }
+    std::vector<std::size_t> pools = m.detritusPools();
+    for (std::size_t i = 0; i < n; ++i) {
+        Compartment& c = m.compartment(i);
+        const double B = at(net.stocks, i), imp = at(net.imports, i), exp = at(net.exports, i),
+                     R = at(net.respiration, i);
+        double outflow = 0.0, intake = 0.0;
+        for (std::size_t k = 0; k < n; ++k) {
+            outflow += F[i][k];
+            intake += F[k][i];
+        }
+        if (c.kind == CompartmentKind::Detritus) {
+            if (B > 0.0) c.value(Param::Biomass) = B;
+            if (imp != 0.0) c.value(Param::DetritusImport) = imp;
+            if (R > 0.0)
+                out.problems.push_back(scorProblem(fileName, Severity::Warning, "scor-detritus-respiration", c.name,
+                                                   "detritus pool '" + c.name + "' respires " + formatNumber(R) +
+                                                       "; a model has no respiration of detritus, so it leaves as the "
+                                                       "pool's surplus export"));
+            for (std::size_t d : pools)
+                if (F[i][d] > 0.0)
+                    out.problems.push_back(scorProblem(fileName, Severity::Warning, "scor-detritus-to-detritus", c.name,
+                                                       "the flow from detritus pool '" + c.name + "' to '" +
+                                                           m.compartment(d).name + "' (" + formatNumber(F[i][d]) +
+                                                           ") cannot be expressed; it leaves as the pool's surplus export"));
+            continue;
+        }
+        if (!(B > 0.0)) {
+            out.problems.push_back(scorProblem(fileName, Severity::Error, "scor-no-biomass", c.name,
+                                               "living compartment '" + c.name + "' has no positive stock (" +
+                                                   formatNumber(B) + "); a model needs its biomass"));
+            continue;
+        }
+        double P = 0.0;
+        c.value(Param::Biomass) = B;
+        c.value(Param::Unassim) = 0.0;
+        if (c.kind == CompartmentKind::Consumer) {
+            const double Q = intake + imp;
+            P = Q - R;
+            c.value(Param::QB) = Q / B;
+            for (std::size_t k = 0; k < n; ++k)
+                if (F[k][i] > 0.0) m.setDiet(i, k, F[k][i] / Q);
+            if (imp > 0.0) m.setDietImport(i, imp / Q);
+            if (!(P > 0.0)) {
+                out.problems.push_back(scorProblem(fileName, Severity::Error, "scor-no-production", c.name,
+                                                   "consumer '" + c.name + "' respires " + formatNumber(R) +
+                                                       " of a consumption of " + formatNumber(Q) +
+                                                       ", which leaves no production"));
+                continue;
+            }
+        } else {
+            P = imp > 0.0 ? imp - R : outflow + exp;
+            if (!(P > 0.0)) {
+                out.problems.push_back(scorProblem(fileName, Severity::Error, "scor-no-production", c.name,
+                                                   "producer '" + c.name + "' has no net production (import " +
+                                                       formatNumber(imp) + ", respiration " + formatNumber(R) + ")"));
+                continue;
+            }
+        }
+        c.value(Param::PB) = P / B;
+        if (exp != 0.0) c.value(Param::NetEmigration) = exp;
+        double toDetritus = 0.0;
+        for (std::size_t d : pools) toDetritus += F[i][d];
+        if (toDetritus > 0.0 && pools.size() > 1)
+            for (std::size_t d : pools)
+                if (F[i][d] > 0.0) m.setRouting(i, d, F[i][d] / toDetritus);
+    }
+    if (pools.empty())
+        out.problems.push_back(scorProblem(fileName, Severity::Warning, "scor-no-detritus", "",
+                                           "the network has no non-living compartment; a model normally has a "
+                                           "detritus pool"));
+    if (!hasErrors(out.problems)) out.model = std::move(m);
+    return out;
+}
+
+}  // namespace tl
