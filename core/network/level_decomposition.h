@@ -7,6 +7,9 @@
 //                               as for the trophic level, so sum_k k s_jk = TL_j)
 // has the share s_jk of its activity at level k given by the food chains of length k:
 //   s_j1 = 1 for producers and detritus,  s_j,k+1 = sum_i a_ij s_ik  for consumers.
+// A consumer that eats nothing from the modelled nodes (imported food only) sits at
+// level II, its food counted as level-I food (as core/balance/trophic_level.h does);
+// it is counted with the producer-based chains.
 // Chains through feeding cycles are infinite; the series is cut once less than 1e-12 of
 // every node is left and the remainder is put in the last level kept.
 // With s, per level k (sums over nodes j):

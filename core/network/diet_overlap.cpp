@@ -1,0 +1,33 @@
+#include "core/network/diet_overlap.h"
+
+#include <cmath>
+
+namespace tl {
+
+DietOverlap dietOverlap(const Model& model)
+{
+    const std::size_t n = model.size();
+    DietOverlap out;
+    for (std::size_t j = 0; j < n; ++j)
+        if (model.compartment(j).kind == CompartmentKind::Consumer && model.dietRowSum(j) > 0.0)
+            out.predators.push_back(j);
+
+    // One column per predator: its diet fractions, with the import column as item n.
+    const auto P = static_cast<Eigen::Index>(out.predators.size());
+    Eigen::MatrixXd diets(static_cast<Eigen::Index>(n + 1), P);
+    for (Eigen::Index c = 0; c < P; ++c) {
+        const std::size_t j = out.predators[static_cast<std::size_t>(c)];
+        for (std::size_t i = 0; i < n; ++i) diets(static_cast<Eigen::Index>(i), c) = model.diet(j, i);
+        diets(static_cast<Eigen::Index>(n), c) = model.dietImport(j);
+    }
+    const Eigen::MatrixXd cross = diets.transpose() * diets;  // sum_i p_ij p_ik
+    out.overlap = Eigen::MatrixXd::Zero(P, P);
+    for (Eigen::Index a = 0; a < P; ++a)
+        for (Eigen::Index b = 0; b < P; ++b) {
+            const double norm = std::sqrt(cross(a, a) * cross(b, b));
+            out.overlap(a, b) = norm > 0.0 ? cross(a, b) / norm : 0.0;
+        }
+    return out;
+}
+
+}  // namespace tl

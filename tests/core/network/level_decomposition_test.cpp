@@ -1,0 +1,126 @@
+// Level decomposition (trophic aggregation, Ulanowicz 1995) and transfer efficiency.
+#include <cmath>
+
+#include <gtest/gtest.h>
+
+#include "core/balance/solver.h"
+#include "core/network/flow_network.h"
+#include "core/network/flow_trophic_level.h"
+#include "core/network/level_decomposition.h"
+#include "tests/core/network/test_models.h"
+
+namespace tl {
+namespace {
+
+// Four-level chain, 10 % transfer at each step (common practice, no source): TE = 0.10 at
+// every level of the producer-based chains and at II-IV combined; every compartment's
+// throughput sits at exactly one integer level.
+TEST(LevelDecomposition, TenPercentChainHasTenPercentAtEveryLevel)
+{
+    const Model model = testing::tenPercentChain();
+    const BalanceSheet sheet = solveBalance(model);
+    ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << (sheet.problems.empty() ? "" : sheet.problems[0].message);
+    const FlowNetwork net = buildFlowNetwork(model, sheet);
+    const LevelDecomposition levels = decomposeLevels(net);
+
+    ASSERT_EQ(levels.levelCount(), 4);
+    for (int k = 0; k < 4; ++k) {
+        EXPECT_NEAR(levels.fromProducers.levels[k].te, 0.10, 1e-12) << "level " << k + 1;
+        if (k > 0) {
+            EXPECT_NEAR(levels.combined.levels[k].te, 0.10, 1e-12) << "level " << k + 1;
+        }
+    }
+    EXPECT_NEAR(levels.fromProducers.meanTe, 0.10, 1e-12);
+    EXPECT_NEAR(levels.combined.meanTe, 0.10, 1e-12);
+
+    // Throughput 1000, 100, 10, 1 (algae P, then each consumer's Q); biomass 100, 10, 1, 0.1.
+    const double throughput[] = {1000, 100, 10, 1}, biomass[] = {100, 10, 1, 0.1};
+    for (int k = 0; k < 4; ++k) {
+        EXPECT_NEAR(levels.fromProducers.levels[k].throughput, throughput[k], 1e-9);
+        EXPECT_NEAR(levels.fromProducers.levels[k].biomass, biomass[k], 1e-12);
+    }
+    EXPECT_NEAR(levels.combined.levels[3].catchTotal, 0.1, 1e-12);
+
+    // Integer levels: each compartment's shares are one 1 and zeros.
+    const int expectedLevel[] = {1, 2, 3, 4, 1};
+    for (Eigen::Index j = 0; j < 5; ++j)
+        for (Eigen::Index k = 0; k < 4; ++k)
+            EXPECT_EQ(levels.combined.share(j, k), k + 1 == expectedLevel[j] ? 1.0 : 0.0) << net.names[j] << " " << k;
+
+    // Detritus: inflow = non-grazed algae 900 + egestion 0.2 x (100 + 10 + 1) = 922.2, none
+    // eaten, all exported: its chains have TE 1 at level I and nothing above.
+    EXPECT_NEAR(levels.fromDetritus.levels[0].throughput, 922.2, 1e-9);
+    EXPECT_NEAR(levels.fromDetritus.levels[0].te, 1.0, 1e-12);
+    EXPECT_EQ(levels.fromDetritus.levels[1].throughput, 0.0);
+    EXPECT_NEAR(levels.combined.levels[0].te, (100.0 + 922.2) / (1000.0 + 922.2), 1e-12);
+}
+
+// Omnivore eating half producer, half herbivore (invented): half its throughput at
+// level II, half at level III; the mean level equals its trophic level 2.5.
+TEST(LevelDecomposition, OmnivoreSplitsOverTwoLevels)
+{
+    FlowNetwork net;
+    net.names = {"Plants", "Herbivore", "Omnivore"};
+    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer};
+    net.stocks = {10, 4, 2};
+    net.imports = {100, 0, 0};
+    net.foodImport = {0, 0, 0};
+    net.exports = {0, 0, 0.5};
+    net.respiration = {60, 14, 3.5};
+    net.production = {100, 2, 0.5};
+    net.flows = Eigen::MatrixXd::Zero(3, 3);
+    net.flows(0, 1) = 20;
+    net.flows(0, 2) = 2;
+    net.flows(1, 2) = 2;
+    const LevelDecomposition d = decomposeLevels(net);
+    ASSERT_EQ(d.levelCount(), 3);
+    EXPECT_DOUBLE_EQ(d.combined.share(2, 1), 0.5);
+    EXPECT_DOUBLE_EQ(d.combined.share(2, 2), 0.5);
+    // Level II throughput: herbivore 20 + half the omnivore's 4; level III: 2.
+    EXPECT_DOUBLE_EQ(d.combined.levels[1].throughput, 22.0);
+    EXPECT_DOUBLE_EQ(d.combined.levels[2].throughput, 2.0);
+    // Passed up from II: herbivore's 2 to the omnivore; TE II = 2 / 22 (half of the
+    // omnivore's export 0.5 is at level II: (2 + 0.25) / 22).
+    EXPECT_DOUBLE_EQ(d.combined.levels[1].te, (2.0 + 0.25) / 22.0);
+    const FlowTrophicLevels tl = flowTrophicLevels(net);
+    double meanLevel = 0;
+    for (Eigen::Index k = 0; k < 3; ++k) meanLevel += static_cast<double>(k + 1) * d.combined.share(2, k);
+    EXPECT_DOUBLE_EQ(meanLevel, tl.tl[2]);
+    EXPECT_DOUBLE_EQ(tl.tl[2], 2.5);
+}
+
+// Cannibalism makes chains of every length: the series is cut and its remainder kept,
+// so the shares still sum to 1 and their mean is still the trophic level.
+TEST(LevelDecomposition, FeedingCycleKeepsSharesAndMeanLevel)
+{
+    const Model model = testing::richWeb();
+    const BalanceSheet sheet = solveBalance(model);
+    ASSERT_NE(sheet.status, BalanceStatus::Invalid);
+    const FlowNetwork net = buildFlowNetwork(model, sheet);
+    const FlowTrophicLevels tl = flowTrophicLevels(net);
+    const LevelDecomposition shallow = decomposeLevels(net, 6), d = decomposeLevels(net);
+    ASSERT_EQ(shallow.levelCount(), 6);
+    for (std::size_t j = 0; j < net.size(); ++j) {
+        const Eigen::Index J = static_cast<Eigen::Index>(j);
+        EXPECT_NEAR(shallow.combined.share.row(J).sum(), 1.0, 1e-12) << net.names[j];
+        EXPECT_NEAR(d.combined.share.row(J).sum(), 1.0, 1e-12) << net.names[j];
+        double mean = 0, meanShallow = 0;
+        for (Eigen::Index k = 0; k < d.combined.share.cols(); ++k) mean += static_cast<double>(k + 1) * d.combined.share(J, k);
+        for (Eigen::Index k = 0; k < 6; ++k) meanShallow += static_cast<double>(k + 1) * shallow.combined.share(J, k);
+        // The remainder sits at the last level kept, so a cut series gives a lower bound
+        // on the mean level; with the default depth the cut-off chains are negligible.
+        EXPECT_LE(meanShallow, tl.tl[j] + 1e-12) << net.names[j];
+        EXPECT_NEAR(mean, tl.tl[j], 1e-10) << net.names[j];
+        EXPECT_NEAR(tl.tl[j], sheet.rows[j].tl, 1e-12) << net.names[j] << " flow TL vs diet TL";
+    }
+    // Producer- plus detritus-based shares make the combined ones.
+    EXPECT_LT((d.fromProducers.share + d.fromDetritus.share - d.combined.share).cwiseAbs().maxCoeff(), 1e-15);
+    // Throughput over levels adds up to the throughflow of all nodes.
+    double total = 0, perLevel = 0;
+    for (std::size_t j = 0; j < net.size(); ++j) total += net.throughflow(j);
+    for (const auto& bin : d.combined.levels) perLevel += bin.throughput;
+    EXPECT_NEAR(perLevel, total, 1e-9 * total);
+}
+
+}  // namespace
+}  // namespace tl
