@@ -3,6 +3,7 @@
 // or the model does not balance; warnings alone leave it at 0.
 #include <algorithm>
 #include <iostream>
+#include <sstream>
 
 #include "app/tledger/commands.h"
 #include "app/tledger/load_model.h"
@@ -21,14 +22,19 @@ int cmdCheck(const Args& args)
         std::cerr << "tledger check: expected one MODEL (a CSV folder or a .tledger project)\n";
         return 2;
     }
-    const auto model = loadModelForCli(opts->positional[0], opts->value("--scenario"), std::cerr);
-    if (!model) return 2;
+    // The reader's warnings come back from validateModel below; print only a failed load.
+    std::ostringstream loadMessages;
+    const auto model = loadModelForCli(opts->positional[0], opts->value("--scenario"), loadMessages);
+    if (!model) {
+        std::cerr << loadMessages.str();
+        return 2;
+    }
 
     Problems problems = validateModel(*model);
     const BalanceSheet sheet = solveBalance(*model);
     for (const Problem& p : sheet.problems) {
         const bool duplicate = std::any_of(problems.begin(), problems.end(), [&](const Problem& q) {
-            return q.code == p.code && q.compartment == p.compartment && q.parameter == p.parameter;
+            return q.code == p.code && q.compartment == p.compartment && q.parameter == p.parameter && q.prey == p.prey;
         });
         if (!duplicate) problems.push_back(p);
     }

@@ -18,12 +18,14 @@ std::optional<Model> loadModelForCli(const std::filesystem::path& path, const st
     if (std::filesystem::is_directory(path, ec)) {
         (void)scenario;  // a CSV folder holds exactly one scenario
         CsvReadResult read = readCsvModel(path);
-        for (const Problem& p : read.problems) err << p.describe() << '\n';
+        for (const Problem& p : read.problems)
+            err << (p.severity == Severity::Error ? "" : "warning: ") << p.describe() << '\n';
         return std::move(read.model);
     }
     // A file: a .tledger project (the store refuses anything else, naming the file).
     StoreResult<Scenario> loaded = loadScenarioFromFile(path, scenario);
-    for (const Problem& p : loaded.problems) err << p.describe() << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
+    for (const Problem& p : loaded.problems)
+        err << (p.severity == Severity::Error ? "" : "warning: ") << p.describe() << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
     if (!loaded.value) return std::nullopt;
     return std::move(loaded.value->model);
 }

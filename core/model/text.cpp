@@ -2,8 +2,6 @@
 
 #include <charconv>
 #include <cmath>
-#include <cstdio>
-#include <cstdlib>
 
 namespace tl {
 
@@ -28,12 +26,11 @@ std::optional<double> parseNumber(std::string_view s)
 
 std::string formatNumber(double v)
 {
+    // std::to_chars gives the shortest text that reads back exactly, independent of
+    // the C locale (the GUI sets one, and "%g" would then write a decimal comma).
     char buf[64];
-    for (int precision = 1; precision <= 17; ++precision) {
-        std::snprintf(buf, sizeof buf, "%.*g", precision, v);
-        if (std::strtod(buf, nullptr) == v) break;
-    }
-    return buf;
+    const auto result = std::to_chars(buf, buf + sizeof buf, v);
+    return std::string(buf, result.ptr);
 }
 
 }  // namespace tl
