@@ -1,4 +1,5 @@
 #include "ui/results/figure_export.h"
+#include "ui/results/figure_export_cli.h"
 
 #include <QApplication>
 #include <QBuffer>
@@ -181,6 +182,31 @@ std::optional<QString> exportScenarioFigure(const tl::Model& model, const tl::Ba
         return exportFigure(page, request.format, request.path, request.options);
     }
     return QObject::tr("Unknown view '%1'; expected level-bars or flow-map.").arg(request.view);
+}
+
+}  // namespace tl::ui
+
+// --- Qt-free CLI entry point (figure_export_cli.h) ------------------------------------
+
+namespace tl::ui {
+
+std::string exportFigureForCli(const tl::Model& model, const tl::BalanceSheet& sheet, const CliFigureRequest& request)
+{
+    const auto format = parseFigureFormat(QString::fromStdString(request.format));
+    if (!format)
+        return "unknown figure format '" + request.format + "'; expected svg, png or pdf";
+    ensureGuiApplication();
+    ScenarioFigureRequest r;
+    r.view = QString::fromStdString(request.view);
+    r.format = *format;
+    r.path = QString::fromStdString(request.path);
+    r.options.dpi = request.dpi;
+    if (request.width > 0 && request.height > 0) r.options.size = QSize(request.width, request.height);
+    r.quantity = QString::fromStdString(request.quantity);
+    r.chains = QString::fromStdString(request.chains);
+    r.logScale = request.logScale;
+    const auto error = exportScenarioFigure(model, sheet, r);
+    return error ? error->toStdString() : std::string();
 }
 
 }  // namespace tl::ui
