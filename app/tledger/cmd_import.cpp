@@ -1,7 +1,10 @@
-// tledger import SOURCE --into PROJECT --scenario NAME [--description TEXT] [--title TEXT] [--replace]
+// tledger import SOURCE --into PROJECT --scenario NAME [--description TEXT] [--parent NAME]
+//                [--title TEXT] [--notes TEXT] [--replace]
 // (DESIGN 5.2): reads a CSV model folder (or a SCOR flow network) and stores it as a
 // scenario of a .tledger project, creating the project when it does not exist. Bad
 // input exits 2 with the file, line and column, and the project is not touched.
+// --parent records the scenario this one derives from; --title and --notes apply when
+// the project is created.
 #include <iostream>
 #include <system_error>
 
@@ -26,13 +29,14 @@ void printProblems(const Problems& problems)
 int cmdImport(const Args& args)
 {
     const auto opts =
-        parseOptions(args, {"--into", "--scenario", "--description", "--title"}, {"--replace"}, "import", std::cerr);
+        parseOptions(args, {"--into", "--scenario", "--description", "--parent", "--title", "--notes"}, {"--replace"},
+                     "import", std::cerr);
     if (!opts) return 2;
     const auto into = opts->value("--into");
     const auto name = opts->value("--scenario");
     if (opts->positional.size() != 1 || !into || !name || trim(*name).empty()) {
         std::cerr << "tledger import: usage: tledger import CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME"
-                     " [--description TEXT] [--title TEXT] [--replace]\n";
+                     " [--description TEXT] [--parent NAME] [--title TEXT] [--notes TEXT] [--replace]\n";
         return 2;
     }
     const std::filesystem::path source = opts->positional[0];
@@ -43,6 +47,7 @@ int cmdImport(const Args& args)
     Scenario scenario;
     scenario.name = std::string(trim(*name));
     scenario.description = opts->value("--description").value_or("");
+    scenario.parent = std::string(trim(opts->value("--parent").value_or("")));
     if (std::filesystem::is_directory(source, ec)) {
         CsvReadResult read = readCsvModel(source);
         printProblems(read.problems);
@@ -82,6 +87,7 @@ int cmdImport(const Args& args)
     if (!std::filesystem::exists(project, ec)) {
         Project p;
         p.info.title = opts->value("--title").value_or(project.stem().string());
+        p.info.notes = opts->value("--notes").value_or("");
         p.info.units = scenario.model.units;
         p.info.rules = scenario.model.rules;
         p.scenarios.push_back(scenario);
@@ -104,6 +110,11 @@ int cmdImport(const Args& args)
         if (info.value->info.units != scenario.model.units)
             std::cerr << project.string() << ": note: the project's units (" << info.value->info.units.biomass()
                       << ") are kept; " << source.string() << " declared " << scenario.model.units.biomass() << '\n';
+        if (!scenario.parent.empty() && !info.value->findScenario(scenario.parent)) {
+            std::cerr << project.string() << ": --parent '" << scenario.parent
+                      << "' is not a scenario of this project; nothing was changed\n";
+            return 2;
+        }
         const bool exists = info.value->findScenario(scenario.name) != nullptr;
         if (exists && !opts->has("--replace")) {
             std::cerr << project.string() << ": already has a scenario named '" << scenario.name
