@@ -365,7 +365,8 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
             inflow += in.routing(ss, dd) * (out.flowToDetritus[ss] - in.deadDiscards[ss]) + in.discardsToPool(ss, dd);
         }
         out.detritusInflow[dd] = inflow;
-        out.detritusEE[dd] = inflow > 0.0 ? out.predation[dd] / inflow : (out.predation[dd] > 0.0 ? kNaN : 0.0);
+        // EE_d is undefined without inflow unless nothing is eaten either.
+        out.detritusEE[dd] = inflow > 0.0 ? out.predation[dd] / inflow : (out.predation[dd] != 0.0 ? kNaN : 0.0);
         out.detritusExport[dd] = inflow - out.predation[dd] - in.biomassAccum[dd];
         out.ee[dd] = out.detritusEE[dd];
     }
