@@ -106,11 +106,23 @@ std::string reportJson(const NetworkReport& r)
     w.field("catch_mean_tl", s.catchMeanTl);
     if (r.hasCatch) w.field("notice", kDecisionSupportNotice);
 
+    // Keys of "tl" and "oi" are the names; a repeated name (some published networks have
+    // them) gets " #<position>" so no value is lost. "compartments" lists the keys in order.
+    std::vector<std::string> keys;
+    for (std::size_t i = 0; i < net.size(); ++i) {
+        std::string key = net.names[i];
+        for (std::size_t k = 0; k < i; ++k)
+            if (net.names[k] == net.names[i]) key = net.names[i] + " #" + std::to_string(i + 1);
+        keys.push_back(std::move(key));
+    }
+    w.key("compartments").beginArray();
+    for (const std::string& key : keys) w.value(key);
+    w.endArray();
     w.key("tl").beginObject();
-    for (std::size_t i = 0; i < net.size(); ++i) w.field(net.names[i], r.tl[i]);
+    for (std::size_t i = 0; i < net.size(); ++i) w.field(keys[i], r.tl[i]);
     w.endObject();
     w.key("oi").beginObject();
-    for (std::size_t i = 0; i < net.size(); ++i) w.field(net.names[i], r.oi[i]);
+    for (std::size_t i = 0; i < net.size(); ++i) w.field(keys[i], r.oi[i]);
     w.endObject();
 
     w.key("levels");
