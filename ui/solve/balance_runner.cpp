@@ -1,0 +1,82 @@
+#include "ui/solve/balance_runner.h"
+
+#include <QCoreApplication>
+#include <QtConcurrent/QtConcurrentRun>
+#include <chrono>
+#include <set>
+#include <tuple>
+
+#include "core/balance/solver.h"
+#include "core/model/validation.h"
+
+namespace tl::ui {
+
+SolveOutcome solveAndCheck(const tl::Model& model)
+{
+    const auto t0 = std::chrono::steady_clock::now();
+    SolveOutcome out;
+    out.checks = tl::validateModel(model);
+    out.sheet = tl::solveBalance(model);
+    // The solver may repeat an input problem validation already found: show it once.
+    std::set<std::tuple<std::string, std::string, std::string, std::string>> seen;
+    for (const auto& p : out.checks) seen.emplace(p.code, p.compartment, p.parameter, p.prey);
+    for (const auto& p : out.sheet.problems)
+        if (seen.emplace(p.code, p.compartment, p.parameter, p.prey).second) out.checks.push_back(p);
+    out.milliseconds = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
+    return out;
+}
+
+BalanceRunner::BalanceRunner(QObject* parent) : QObject(parent)
+{
+    connect(&watcher_, &QFutureWatcher<SolveOutcome>::finished, this, &BalanceRunner::onFinished);
+}
+
+BalanceRunner::~BalanceRunner() { watcher_.waitForFinished(); }
+
+void BalanceRunner::request(const tl::Model& model)
+{
+    if (watcher_.isRunning()) {
+        pending_ = model;  // the running result is stale; solve the newest state next
+        return;
+    }
+    if (lastMs_ < inlineLimitMs_) {
+        SolveOutcome out = solveAndCheck(model);
+        lastMs_ = out.milliseconds;
+        emit solved(out);
+        return;
+    }
+    startBackground(model);
+}
+
+void BalanceRunner::startBackground(const tl::Model& model)
+{
+    emit started();
+    watcher_.setFuture(QtConcurrent::run([m = model]() {
+        SolveOutcome out = solveAndCheck(m);
+        out.inBackground = true;
+        return out;
+    }));
+}
+
+void BalanceRunner::onFinished()
+{
+    SolveOutcome out = watcher_.result();
+    lastMs_ = out.milliseconds;
+    if (pending_) {
+        tl::Model next = std::move(*pending_);
+        pending_.reset();
+        startBackground(next);  // stale result dropped; the newest inputs are being solved
+        return;
+    }
+    emit solved(out);
+}
+
+void BalanceRunner::waitForIdle()
+{
+    while (watcher_.isRunning() || pending_) {
+        watcher_.waitForFinished();
+        QCoreApplication::processEvents();
+    }
+}
+
+}  // namespace tl::ui

@@ -1,0 +1,290 @@
+#include "ui/tables/harvest_table_model.h"
+
+#include <QBrush>
+#include <QColor>
+#include <QFont>
+#include <cmath>
+#include <limits>
+
+#include "core/model/text.h"
+#include "ui/document/project_document.h"
+#include "ui/style/palette.h"
+
+namespace tl::ui {
+namespace {
+
+QString qs(const std::string& s) { return QString::fromStdString(s); }
+QString numberOrEmpty(double v) { return v == 0.0 ? QString() : ScenarioTableModel::numberText(v); }
+
+}  // namespace
+
+// --- HarvestTableModel ----------------------------------------------------------------
+
+HarvestTableModel::HarvestTableModel(ProjectDocument* doc, QObject* parent) : ScenarioTableModel(doc, parent)
+{
+    refreshFromDocument();
+}
+
+QStringList HarvestTableModel::rowKeys(const tl::Model& m) const
+{
+    const_cast<HarvestTableModel*>(this)->rows_ = m.living();
+    QStringList keys;
+    for (std::size_t i : rows_) keys << qs(m.compartment(i).name);
+    return keys;
+}
+
+QStringList HarvestTableModel::columnKeys(const tl::Model& m) const
+{
+    QStringList keys;
+    for (const auto& f : m.fleets())
+        keys << qs(f.name) + QStringLiteral("/landings") << qs(f.name) + QStringLiteral("/discards")
+             << qs(f.name) + QStringLiteral("/survival");
+    return keys;
+}
+
+int HarvestTableModel::rowOfCompartment(std::size_t compartment) const
+{
+    for (std::size_t r = 0; r < rows_.size(); ++r)
+        if (rows_[r] == compartment) return int(r);
+    return -1;
+}
+
+QVariant HarvestTableModel::headerData(int section, Qt::Orientation orientation, int role) const
+{
+    const tl::Model& m = model();
+    if (orientation == Qt::Vertical) {
+        if (section < 0 || section >= int(rows_.size())) return {};
+        if (role == Qt::DisplayRole) return qs(m.compartment(rows_[std::size_t(section)]).name);
+        if (role == Qt::DecorationRole) return kindIcon(m.compartment(rows_[std::size_t(section)]).kind);
+        return {};
+    }
+    const int f = fleetOf(section);
+    if (f >= int(m.fleets().size())) return {};
+    const QString fleet = qs(m.fleet(std::size_t(f)).name);
+    const QString flow = qs(m.units.flow());
+    if (role == Qt::DisplayRole) {
+        switch (fieldOf(section)) {
+        case Field::Landings: return tr("%1\nlandings (%2)").arg(fleet, flow);
+        case Field::Discards: return tr("%1\ndiscards (%2)").arg(fleet, flow);
+        case Field::Survival: return tr("%1\ndiscards surviving").arg(fleet);
+        }
+    }
+    if (role == Qt::ToolTipRole && fieldOf(section) == Field::Survival)
+        return tr("Fraction of %1's discards returned alive (0–1); the rest goes to detritus.").arg(fleet);
+    return {};
+}
+
+QString HarvestTableModel::cellName(int row, int column) const
+{
+    if (row < 0 || row >= int(rows_.size()) || fleetOf(column) >= int(model().fleets().size())) return {};
+    const QString comp = qs(model().compartment(rows_[std::size_t(row)]).name);
+    const QString fleet = qs(model().fleet(std::size_t(fleetOf(column))).name);
+    switch (fieldOf(column)) {
+    case Field::Landings: return tr("the landings of %1 by %2").arg(comp, fleet);
+    case Field::Discards: return tr("the discards of %1 by %2").arg(comp, fleet);
+    case Field::Survival: return tr("the discard survival of %1 in %2").arg(comp, fleet);
+    }
+    return {};
+}
+
+bool HarvestTableModel::isEditable(int row, int column) const
+{
+    return row >= 0 && row < int(rows_.size()) && column >= 0 && fleetOf(column) < int(model().fleets().size());
+}
+
+QString HarvestTableModel::cellText(const tl::Model& m, int row, int column) const
+{
+    if (!isEditable(row, column)) return {};
+    const tl::Fleet& f = m.fleet(std::size_t(fleetOf(column)));
+    const std::size_t i = rows_[std::size_t(row)];
+    switch (fieldOf(column)) {
+    case Field::Landings: return numberOrEmpty(f.landings[i]);
+    case Field::Discards: return numberOrEmpty(f.discards[i]);
+    case Field::Survival: return numberOrEmpty(f.discardSurvival[i]);
+    }
+    return {};
+}
+
+QString HarvestTableModel::applyText(tl::Model& m, int row, int column, const QString& text) const
+{
+    const bool fraction = fieldOf(column) == Field::Survival;
+    const Parsed parsed = parseCell(text, cellName(row, column), true, 0.0,
+                                    fraction ? 1.0 : std::numeric_limits<double>::infinity());
+    if (!parsed.error.isEmpty()) return parsed.error;
+    tl::Fleet& f = m.fleet(std::size_t(fleetOf(column)));
+    const std::size_t i = rows_[std::size_t(row)];
+    const double v = parsed.value.value_or(0.0);
+    switch (fieldOf(column)) {
+    case Field::Landings: f.landings[i] = v; break;
+    case Field::Discards: f.discards[i] = v; break;
+    case Field::Survival: f.discardSurvival[i] = v; break;
+    }
+    return {};
+}
+
+QVariant HarvestTableModel::extraData(const tl::Model&, int row, int column, int role) const
+{
+    if (role == Qt::BackgroundRole && fleetOf(column) % 2 == 1) return QBrush(QColor(0xF6, 0xF6, 0xF9));
+    if (role == Qt::ToolTipRole) return cellName(row, column);
+    return {};
+}
+
+QString HarvestTableModel::addFleet(const QString& name, QString* why)
+{
+    QString stem = name.trimmed().isEmpty() ? tr("Fleet") : name.trimmed();
+    QString unique = stem;
+    for (int n = 2; model().fleetIndexOf(unique.toStdString()); ++n) unique = QStringLiteral("%1 %2").arg(stem).arg(n);
+    if (!name.trimmed().isEmpty() && unique != stem) {
+        if (why) *why = tr("A fleet called \"%1\" already exists.").arg(stem);
+        return {};
+    }
+    tl::Model copy = model();
+    copy.addFleet(unique.toStdString());
+    document()->editModel(copy, tr("Add fleet %1").arg(unique));
+    return unique;
+}
+
+bool HarvestTableModel::renameFleet(int fleet, const QString& name, QString* why)
+{
+    const QString n = name.trimmed();
+    if (fleet < 0 || fleet >= int(model().fleets().size())) return false;
+    if (n.isEmpty()) {
+        if (why) *why = tr("A fleet needs a name.");
+        return false;
+    }
+    const auto other = model().fleetIndexOf(n.toStdString());
+    if (other && int(*other) != fleet) {
+        if (why) *why = tr("A fleet called \"%1\" already exists.").arg(n);
+        return false;
+    }
+    tl::Model copy = model();
+    const QString old = qs(copy.fleet(std::size_t(fleet)).name);
+    copy.fleet(std::size_t(fleet)).name = n.toStdString();
+    document()->editModel(copy, tr("Rename fleet %1 to %2").arg(old, n));
+    return true;
+}
+
+void HarvestTableModel::removeFleet(int fleet)
+{
+    if (fleet < 0 || fleet >= int(model().fleets().size())) return;
+    tl::Model copy = model();
+    const QString old = qs(copy.fleet(std::size_t(fleet)).name);
+    copy.removeFleet(std::size_t(fleet));
+    document()->editModel(copy, tr("Remove fleet %1").arg(old));
+}
+
+// --- RoutingTableModel ----------------------------------------------------------------
+
+RoutingTableModel::RoutingTableModel(ProjectDocument* doc, QObject* parent) : ScenarioTableModel(doc, parent)
+{
+    refreshFromDocument();
+}
+
+QStringList RoutingTableModel::rowKeys(const tl::Model& m) const
+{
+    const_cast<RoutingTableModel*>(this)->rows_ = m.living();
+    QStringList keys;
+    for (std::size_t i : rows_) keys << qs(m.compartment(i).name);
+    return keys;
+}
+
+QStringList RoutingTableModel::columnKeys(const tl::Model& m) const
+{
+    const_cast<RoutingTableModel*>(this)->pools_ = m.detritusPools();
+    QStringList keys;
+    for (std::size_t i : pools_) keys << qs(m.compartment(i).name);
+    keys << QStringLiteral("\x01sum");
+    return keys;
+}
+
+int RoutingTableModel::rowOfCompartment(std::size_t compartment) const
+{
+    for (std::size_t r = 0; r < rows_.size(); ++r)
+        if (rows_[r] == compartment) return int(r);
+    return -1;
+}
+
+QVariant RoutingTableModel::headerData(int section, Qt::Orientation orientation, int role) const
+{
+    const tl::Model& m = model();
+    if (orientation == Qt::Vertical) {
+        if (section < 0 || section >= int(rows_.size())) return {};
+        if (role == Qt::DisplayRole) return qs(m.compartment(rows_[std::size_t(section)]).name);
+        if (role == Qt::DecorationRole) return kindIcon(m.compartment(rows_[std::size_t(section)]).kind);
+        return {};
+    }
+    if (section == sumColumn()) return role == Qt::DisplayRole ? QVariant(tr("Row sum")) : QVariant();
+    if (section < 0 || section >= int(pools_.size())) return {};
+    if (role == Qt::DisplayRole) return qs(m.compartment(pools_[std::size_t(section)]).name);
+    if (role == Qt::DecorationRole) return kindIcon(tl::CompartmentKind::Detritus);
+    if (role == Qt::ToolTipRole) return tr("Share of each compartment's detritus flow going to %1").arg(qs(m.compartment(pools_[std::size_t(section)]).name));
+    return {};
+}
+
+QString RoutingTableModel::cellName(int row, int column) const
+{
+    if (row < 0 || row >= int(rows_.size())) return {};
+    const QString src = qs(model().compartment(rows_[std::size_t(row)]).name);
+    if (column < 0 || column >= int(pools_.size())) return tr("the routing sum of %1").arg(src);
+    return tr("the share of %1's detritus flow going to %2").arg(src, qs(model().compartment(pools_[std::size_t(column)]).name));
+}
+
+bool RoutingTableModel::isEditable(int row, int column) const
+{
+    return row >= 0 && row < int(rows_.size()) && column >= 0 && column < int(pools_.size());
+}
+
+QString RoutingTableModel::cellText(const tl::Model& m, int row, int column) const
+{
+    if (row < 0 || row >= int(rows_.size())) return {};
+    const std::size_t src = rows_[std::size_t(row)];
+    if (column == sumColumn()) {
+        double sum = 0.0;
+        for (std::size_t p : pools_) sum += m.effectiveRouting(src, p);
+        return QString::number(sum, 'f', 3);
+    }
+    if (column < 0 || column >= int(pools_.size())) return {};
+    return numberOrEmpty(m.routing(src, pools_[std::size_t(column)]));
+}
+
+QString RoutingTableModel::applyText(tl::Model& m, int row, int column, const QString& text) const
+{
+    const Parsed parsed = parseCell(text, cellName(row, column), true, 0.0, 1.0);
+    if (!parsed.error.isEmpty()) return parsed.error;
+    m.setRouting(rows_[std::size_t(row)], pools_[std::size_t(column)], parsed.value.value_or(0.0));
+    return {};
+}
+
+QVariant RoutingTableModel::extraData(const tl::Model& m, int row, int column, int role) const
+{
+    if (row < 0 || row >= int(rows_.size())) return {};
+    const std::size_t src = rows_[std::size_t(row)];
+    const bool isDefault = !m.hasExplicitRouting(src);
+    if (column == sumColumn()) {
+        double sum = 0.0;
+        for (std::size_t p : pools_) sum += m.effectiveRouting(src, p);
+        const bool ok = pools_.empty() || std::abs(sum - 1.0) <= 1e-6;
+        if (role == Qt::DecorationRole) return ok ? okIcon() : severityIcon(tl::Severity::Warning);
+        if (role == Qt::DisplayRole)
+            return isDefault ? tr("1 — all to the first pool (default)")
+                             : ok ? tr("%1 — sums to 1").arg(sum, 0, 'f', 3) : tr("%1 — should be 1").arg(sum, 0, 'f', 3);
+        if (role == Qt::TextAlignmentRole) return int(Qt::AlignLeft | Qt::AlignVCenter);
+        if (role == Qt::BackgroundRole) return QBrush(QColor(0xF4, 0xF4, 0xF0));
+        return {};
+    }
+    if (column < 0 || column >= int(pools_.size())) return {};
+    if (isDefault) {
+        const double eff = m.effectiveRouting(src, pools_[std::size_t(column)]);
+        if (role == Qt::DisplayRole && eff > 0.0) return tr("%1 (default)").arg(eff);
+        if (role == Qt::FontRole) {
+            QFont f;
+            f.setItalic(true);
+            return f;
+        }
+        if (role == Qt::ForegroundRole) return QBrush(QColor(0x70, 0x70, 0x70));
+    }
+    if (role == Qt::ToolTipRole) return cellName(row, column);
+    return {};
+}
+
+}  // namespace tl::ui

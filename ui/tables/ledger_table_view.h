@@ -1,0 +1,40 @@
+// LedgerTableView: a QTableView that behaves like a spreadsheet for the workbench's
+// ScenarioTableModels — type to overwrite, Enter moves down, Tab moves right, arrows
+// move, Ctrl+C / Ctrl+V copy and paste tab-separated blocks (the way spreadsheets put
+// them on the clipboard), Ctrl+D fills down, Delete clears. Every block edit is one
+// undo step, and what could not be taken is reported cell by cell.
+#pragma once
+
+#include <QTableView>
+
+#include "ui/tables/scenario_table_model.h"
+
+namespace tl::ui {
+
+class LedgerTableView : public QTableView {
+    Q_OBJECT
+public:
+    explicit LedgerTableView(QWidget* parent = nullptr);
+
+    ScenarioTableModel* ledgerModel() const;
+    QList<QAction*> editActions() const { return editActions_; }
+
+    void copySelection();
+    void pasteClipboard();
+    void fillDownSelection();
+    void clearSelection();
+    // Sets the current cell and selects it (Checks panel navigation).
+    void goToCell(int row, int column);
+
+signals:
+    // A block edit finished: the summary says what was taken and what was refused.
+    void blockEdited(const tl::ui::BlockEditReport& report, const QString& action);
+
+protected:
+    void keyPressEvent(QKeyEvent* event) override;
+
+private:
+    QList<QAction*> editActions_;
+};
+
+}  // namespace tl::ui

@@ -1,0 +1,87 @@
+#include "ui/widgets/checks_panel.h"
+
+#include <QHeaderView>
+#include <algorithm>
+#include <QLabel>
+#include <QTreeWidget>
+#include <QVBoxLayout>
+
+#include "core/model/compartment.h"
+#include "ui/style/palette.h"
+
+namespace tl::ui {
+
+QString whereText(const tl::Problem& p)
+{
+    QStringList parts;
+    const QString comp = QString::fromStdString(p.compartment);
+    if (!p.fleet.empty()) parts << QString::fromStdString(p.fleet);
+    if (p.parameter == "diet" && !p.prey.empty())
+        parts << QObject::tr("%1 eats %2").arg(comp, QString::fromStdString(p.prey));
+    else {
+        if (!comp.isEmpty()) parts << comp;
+        if (auto param = tl::parseParamKey(p.parameter))
+            parts << QString::fromUtf8(tl::paramSymbol(*param).data(), qsizetype(tl::paramSymbol(*param).size()));
+        else if (p.parameter == "diet") parts << QObject::tr("diet");
+        else if (p.parameter == "routing") parts << QObject::tr("detritus routing") + (p.prey.empty() ? QString() : QStringLiteral(" → ") + QString::fromStdString(p.prey));
+        else if (p.parameter == "harvest") parts << QObject::tr("harvest");
+        else if (!p.parameter.empty()) parts << QString::fromStdString(p.parameter);
+    }
+    return parts.isEmpty() ? QObject::tr("whole scenario") : parts.join(QStringLiteral(" · "));
+}
+
+ChecksPanel::ChecksPanel(QWidget* parent) : QWidget(parent)
+{
+    auto* layout = new QVBoxLayout(this);
+    layout->setContentsMargins(4, 4, 4, 4);
+    summary_ = new QLabel(this);
+    summary_->setObjectName(QStringLiteral("checksSummary"));
+    tree_ = new QTreeWidget(this);
+    tree_->setColumnCount(3);
+    tree_->setHeaderLabels({tr("Severity"), tr("Where"), tr("What and what to do")});
+    tree_->setRootIsDecorated(false);
+    tree_->setUniformRowHeights(false);
+    tree_->setWordWrap(true);
+    tree_->setAlternatingRowColors(true);
+    tree_->header()->setSectionResizeMode(0, QHeaderView::ResizeToContents);
+    tree_->header()->setSectionResizeMode(1, QHeaderView::ResizeToContents);
+    tree_->header()->setStretchLastSection(true);
+    layout->addWidget(summary_);
+    layout->addWidget(tree_);
+    connect(tree_, &QTreeWidget::itemActivated, this, [this](QTreeWidgetItem* item) { activate(tree_->indexOfTopLevelItem(item)); });
+    connect(tree_, &QTreeWidget::itemClicked, this, [this](QTreeWidgetItem* item) { activate(tree_->indexOfTopLevelItem(item)); });
+    setProblems({});
+}
+
+void ChecksPanel::setProblems(const tl::Problems& problems)
+{
+    problems_ = problems;
+    // Errors first, then warnings, then notes; the order inside each group is kept.
+    std::stable_sort(problems_.begin(), problems_.end(),
+                     [](const tl::Problem& a, const tl::Problem& b) { return int(a.severity) < int(b.severity); });
+    tree_->clear();
+    int counts[3] = {0, 0, 0};
+    for (const auto& p : problems_) {
+        ++counts[int(p.severity)];
+        auto* item = new QTreeWidgetItem(tree_);
+        item->setIcon(0, severityIcon(p.severity));
+        item->setText(0, severityLabel(p.severity));
+        item->setText(1, whereText(p));
+        QString text = QString::fromStdString(p.message);
+        if (!p.hint.empty()) text += QLatin1Char('\n') + QString::fromStdString(p.hint);
+        item->setText(2, text);
+        item->setToolTip(2, text + QStringLiteral("\n[") + QString::fromStdString(p.code) + QLatin1Char(']'));
+    }
+    if (problems_.empty()) summary_->setText(tr("No problems found: inputs are complete and consistent."));
+    else
+        summary_->setText(tr("%1 error(s), %2 warning(s), %3 note(s). Click a line to go to its cell.")
+                              .arg(counts[0]).arg(counts[1]).arg(counts[2]));
+}
+
+void ChecksPanel::activate(int i)
+{
+    if (i < 0 || i >= int(problems_.size())) return;
+    emit problemActivated(problems_[std::size_t(i)]);
+}
+
+}  // namespace tl::ui
