@@ -212,7 +212,7 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
     if (row.ee > rules.eeMax + kBoundTolerance)
         problems.push_back(makeProblem(code::kEEAboveMax, Severity::Error, name, "ee",
                                    "EE of '" + name + "' is " + num(row.ee) + ", above " + num(rules.eeMax) +
-                                       ": predation, catch and export take more than it produces.",
+                                       ": predation, catch, net emigration and accumulation take more than it produces.",
                                    "Raise its B or P/B, or lower its predators' consumption of it or its catch."));
     if (std::abs(v.residual[k]) > kResidualTolerance * v.residualScale[k]) {
         const bool fullyGiven = plan.unknownOf(i) == Unknown::None;
