@@ -522,15 +522,25 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
         if (!hadShm && !fs::exists(wal, ec)) fs::remove(shm, ec);
         return std::move(result);
     };
+    // A read-only project is still opened read-write when the file system allows, with
+    // PRAGMA query_only so that no statement can change it: then closing the last
+    // connection removes the -wal and -shm files as usual, instead of leaving them
+    // beside the project. Read-only media fall back to a read-only connection.
     auto openDb = [&](bool readOnly) -> sqlite3* {
         sqlite3* db = nullptr;
-        const int flags = (readOnly ? SQLITE_OPEN_READONLY : SQLITE_OPEN_READWRITE) | SQLITE_OPEN_NOFOLLOW;
-        if (sqlite3_open_v2(path.c_str(), &db, flags, nullptr) != SQLITE_OK) {
+        int rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOFOLLOW, nullptr);
+        if (rc != SQLITE_OK && readOnly) {
+            sqlite3_close(db);
+            db = nullptr;
+            rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READONLY | SQLITE_OPEN_NOFOLLOW, nullptr);
+        }
+        if (rc != SQLITE_OK) {
             result.problems.push_back(fileProblem(path, "store-open-failed", "cannot be opened: " + sqliteError(db)));
             sqlite3_close(db);
             return nullptr;
         }
         configureConnection(db, busyTimeoutMs);
+        if (readOnly) execute(db, "PRAGMA query_only = ON");
         return db;
     };
     bool readOnly = mode == OpenMode::ReadOnly;
