@@ -115,7 +115,13 @@ int cmdImport(const Args& args)
                       << "' is not a scenario of this project; nothing was changed\n";
             return 2;
         }
-        const bool exists = info.value->findScenario(scenario.name) != nullptr;
+        const Scenario* existing = info.value->findScenario(scenario.name);
+        const bool exists = existing != nullptr;
+        if (existing) {  // --replace renews the inputs; what was not given on the line is kept
+            if (!opts->value("--description")) scenario.description = existing->description;
+            if (!opts->value("--parent")) scenario.parent = existing->parent;
+            scenario.layout = existing->layout;
+        }
         if (exists && !opts->has("--replace")) {
             std::cerr << project.string() << ": already has a scenario named '" << scenario.name
                       << "'; nothing was changed. Choose another --scenario, or add --replace to overwrite it.\n";
