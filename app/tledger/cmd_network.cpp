@@ -292,6 +292,7 @@ int fromModel(const ParsedOptions& opts)
     r.flowUnit = model->units.flow();
     r.stockUnit = model->units.biomass();
     r.network = buildFlowNetwork(*model, sheet);
+    for (const Problem& p : r.network.adjustments) std::cerr << "warning: " << p.describe() << '\n';
     r.indicators = systemIndicators(*model, sheet, r.network);
     for (const CompartmentBalance& row : sheet.rows) {
         r.tl.push_back(row.tl);

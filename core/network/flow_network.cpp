@@ -3,10 +3,24 @@
 #include <cmath>
 #include <limits>
 
+#include "core/model/text.h"
+
 namespace tl {
 namespace {
 
 double finiteOr(double v, double fallback) { return std::isfinite(v) ? v : fallback; }
+
+void noteShortfall(FlowNetwork& net, std::size_t i, const char* what, double amount)
+{
+    Problem p;
+    p.code = "network-shortfall-import";
+    p.severity = Severity::Warning;
+    p.compartment = net.names[i];
+    p.message = std::string("the balance implies a negative ") + what + " of " + formatNumber(-amount) +
+                " for '" + net.names[i] + "'; the flow network books it as an import of " + formatNumber(amount);
+    p.hint = "balance the scenario first (EE <= 1, R >= 0) for figures that describe real flows";
+    net.adjustments.push_back(std::move(p));
+}
 
 }  // namespace
 
@@ -42,14 +56,17 @@ FlowNetwork buildFlowNetwork(const Model& model, const BalanceSheet& sheet)
     const auto row = [&](std::size_t i) -> const CompartmentBalance* {
         return i < sheet.rows.size() ? &sheet.rows[i] : nullptr;
     };
-
     // A boundary term: positive leaves as export, negative enters as import.
     const auto boundary = [&](std::size_t i, double v) {
         if (!std::isfinite(v) || v == 0.0) return;
         if (v > 0) net.exports[i] += v;
         else net.imports[i] -= v;
     };
+    const auto addFlow = [&](std::size_t from, std::size_t to, double v) {
+        net.flows(static_cast<Eigen::Index>(from), static_cast<Eigen::Index>(to)) += v;
+    };
 
+    // 1. Nodes, consumption flows, primary production, food imports, respiration.
     for (std::size_t i = 0; i < n; ++i) {
         const Compartment& c = model.compartment(i);
         net.names[i] = c.name;
@@ -65,40 +82,36 @@ FlowNetwork buildFlowNetwork(const Model& model, const BalanceSheet& sheet)
             net.foodImport[i] += imp;
             continue;
         }
-        const double P = finiteOr(r->production, 0.0);
-        net.production[i] = P;
+        net.production[i] = finiteOr(r->production, 0.0);
         if (c.kind == CompartmentKind::Producer) {
-            net.imports[i] += P;  // net primary production enters from outside
+            net.imports[i] += net.production[i];  // net primary production enters from outside
+            continue;
+        }
+        const double Q = finiteOr(r->consumption, 0.0);
+        for (std::size_t prey = 0; prey < n; ++prey)
+            if (model.diet(i, prey) != 0.0) addFlow(prey, i, Q * model.diet(i, prey));
+        const double imported = Q * model.dietImport(i);
+        net.imports[i] += imported;
+        net.foodImport[i] += imported;
+        const double R = finiteOr(r->respiration, 0.0);
+        if (R < 0) {
+            noteShortfall(net, i, "respiration", -R);
+            net.imports[i] -= R;
         } else {
-            const double Q = finiteOr(r->consumption, 0.0);
-            for (std::size_t prey = 0; prey < n; ++prey) {
-                const double dc = model.diet(i, prey);
-                if (dc != 0.0) net.flows(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(i)) += Q * dc;
-            }
-            const double imported = Q * model.dietImport(i);
-            net.imports[i] += imported;
-            net.foodImport[i] += imported;
-            net.respiration[i] = finiteOr(r->respiration, 0.0);
+            net.respiration[i] = R;
         }
-        // Non-predation mortality and egestion to the detritus pools by routing.
-        const double ee = finiteOr(r->ee, 0.0);
-        const double egestion = finiteOr(r->egestion, 0.0);
-        const double toDetritus = (1.0 - ee) * P + egestion;
-        for (std::size_t d : pools) {
-            const double share = model.effectiveRouting(i, d);
-            if (share != 0.0) net.flows(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) += share * toDetritus;
-        }
-        boundary(i, finiteOr(r->netEmigration, 0.0));
-        boundary(i, finiteOr(r->biomassAccum, 0.0));
     }
 
-    // Harvest: landings leave, dead discards fall to a detritus pool.
+    // 2. Harvest: landings leave, dead discards fall to a detritus pool.
     const std::size_t fleets = model.fleets().size();
     net.fleetLandings = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(fleets), N);
     net.fleetDeadDiscards = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(fleets), N);
+    std::vector<double> caught(n, 0.0);
     for (std::size_t f = 0; f < fleets; ++f) {
         const Fleet& fleet = model.fleet(f);
         net.fleetNames.push_back(fleet.name);
+        const bool hasPool = fleet.discardPool.has_value() || !pools.empty();
+        const std::size_t pool = fleet.discardPool.value_or(pools.empty() ? 0 : pools[0]);
         for (std::size_t i = 0; i < n; ++i) {
             const double landed = i < fleet.landings.size() ? fleet.landings[i] : 0.0;
             const double discarded = i < fleet.discards.size() ? fleet.discards[i] : 0.0;
@@ -106,17 +119,41 @@ FlowNetwork buildFlowNetwork(const Model& model, const BalanceSheet& sheet)
             const double dead = discarded * (1.0 - survival);
             net.fleetLandings(static_cast<Eigen::Index>(f), static_cast<Eigen::Index>(i)) = landed;
             net.fleetDeadDiscards(static_cast<Eigen::Index>(f), static_cast<Eigen::Index>(i)) = dead;
+            caught[i] += landed + dead;
             net.exports[i] += landed;
-            if (dead != 0.0) {
-                const std::optional<std::size_t> pool =
-                    fleet.discardPool ? fleet.discardPool : (pools.empty() ? std::nullopt : std::optional(pools[0]));
-                if (pool) net.flows(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(*pool)) += dead;
-                else net.exports[i] += dead;  // no detritus pool: discards leave the system
-            }
+            if (dead == 0.0) continue;
+            if (hasPool) addFlow(i, pool, dead);
+            else net.exports[i] += dead;  // no detritus pool: dead discards leave the system
         }
     }
 
-    // Detritus pools: whatever is neither eaten nor accumulated leaves; a deficit enters.
+    // 3. Living nodes: other mortality M0 = P - predation - catch - E - BA (= (1 - EE) P
+    //    when the equation closes) and egestion U Q go to the pools by routing.
+    for (std::size_t i = 0; i < n; ++i) {
+        const CompartmentBalance* r = row(i);
+        if (!r || model.compartment(i).kind == CompartmentKind::Detritus) continue;
+        double predation = 0.0;
+        for (std::size_t j = 0; j < n; ++j)
+            if (model.compartment(j).kind == CompartmentKind::Consumer)
+                predation += net.flows(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j));
+        const double emigration = finiteOr(r->netEmigration, 0.0), accumulation = finiteOr(r->biomassAccum, 0.0);
+        boundary(i, emigration);
+        boundary(i, accumulation);
+        double toDetritus = net.production[i] - predation - caught[i] - emigration - accumulation +
+                            finiteOr(r->egestion, 0.0);
+        if (toDetritus < 0) {
+            noteShortfall(net, i, "flow to detritus", -toDetritus);
+            net.imports[i] -= toDetritus;
+            continue;
+        }
+        for (std::size_t d : pools) {
+            const double share = model.effectiveRouting(i, d);
+            if (share != 0.0) addFlow(i, d, share * toDetritus);
+        }
+        if (pools.empty() && toDetritus > 0) net.exports[i] += toDetritus;  // nowhere to settle: it leaves
+    }
+
+    // 4. Detritus pools: whatever is neither eaten nor accumulated leaves; a deficit enters.
     for (std::size_t d : pools) {
         const CompartmentBalance* r = row(d);
         const double in = net.inflow(d) + net.imports[d];
@@ -124,6 +161,7 @@ FlowNetwork buildFlowNetwork(const Model& model, const BalanceSheet& sheet)
         const double accumulated = r ? finiteOr(r->biomassAccum, 0.0) : 0.0;
         boundary(d, accumulated);
         const double surplus = in - eaten - accumulated;
+        if (surplus < 0) noteShortfall(net, d, "detritus surplus", -surplus);
         boundary(d, surplus);
     }
     return net;

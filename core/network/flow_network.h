@@ -5,7 +5,9 @@
 //
 // From a scenario, per compartment i (B, P, Q, EE, U from the BalanceSheet):
 //   consumption      F(i -> j) = B_j (Q/B)_j DC_ij          prey i to predator j
-//   to detritus      F(i -> d) = route_id [(1 - EE_i) P_i + U_i Q_i] + dead discards of i to d
+//   to detritus      F(i -> d) = route_id [M0_i + U_i Q_i] + dead discards of i to d, with
+//                    M0_i = P_i - predation_i - Y_i - E_i - BA_i (= (1 - EE_i) P_i when the
+//                    balance equation closes; this form keeps every node balanced)
 //   imports          P_i for producers (primary production), Q_j DC_import,j for consumers,
 //                    detritus import, and -E_i, -BA_i where these are negative
 //   exports          landings + positive E_i + positive BA_i; for detritus the surplus
@@ -13,6 +15,9 @@
 //   respiration      R_j = Q_j (1 - U_j) - P_j for consumers (producers enter with net P)
 // Fleets are boundary, not nodes: landings leave as exports and dead discards are flows
 // to detritus; both are also kept per fleet for the impact and catch analyses.
+// An unbalanced scenario can imply negative flows (M0 < 0 when EE > 1; R < 0 when
+// production exceeds assimilation; a detritus pool eaten beyond its inflow). Flows stay >= 0: such a shortfall enters as an
+// import of that compartment, and `adjustments` says so, naming it.
 #pragma once
 
 #include <cstddef>
@@ -46,6 +51,9 @@ struct FlowNetwork {
     std::vector<std::string> fleetNames;
     Eigen::MatrixXd fleetLandings;      // fleets x nodes
     Eigen::MatrixXd fleetDeadDiscards;  // fleets x nodes
+
+    // Warnings from buildFlowNetwork about shortfalls booked as imports (see above).
+    Problems adjustments;
 
     std::size_t size() const { return names.size(); }
     bool isLiving(std::size_t i) const { return roles[i] != NodeRole::Detritus; }

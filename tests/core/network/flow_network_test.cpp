@@ -115,3 +115,35 @@ TEST(FlowNetwork, ScorOrdersLivingCompartmentsFirst)
 
 }  // namespace
 }  // namespace tl
+
+namespace tl {
+namespace {
+
+// An unbalanced scenario (invented: predators eat 40 of the grazers' production of 10):
+// no negative flow, every node still balanced, and a warning names the compartment.
+TEST(FlowNetwork, UnbalancedScenarioBooksShortfallsAsImports)
+{
+    Model model = testing::tenPercentChain();
+    model.compartment(2).value(Param::QB) = 40.0;
+    const BalanceSheet sheet = solveBalance(model);
+    ASSERT_EQ(sheet.status, BalanceStatus::Unbalanced);
+    const FlowNetwork net = buildFlowNetwork(model, sheet);
+    EXPECT_GE(net.flows.minCoeff(), 0.0);
+    for (std::size_t j = 0; j < net.size(); ++j) {
+        EXPECT_GE(net.imports[j], 0.0);
+        EXPECT_GE(net.respiration[j], 0.0);
+        const double in = net.inflow(j) + net.imports[j];
+        const double out = net.outflow(j) + net.exports[j] + net.respiration[j];
+        EXPECT_NEAR(in, out, 1e-10 * std::max(in, 1.0)) << net.names[j];
+    }
+    // Grazers: P = 10, eaten 40, egestion 0.2 x 100 = 20: M0 + egestion = 10 - 40 + 20 = -10,
+    // booked as an import of 10 with a warning; no flow from grazers to detritus.
+    ASSERT_EQ(net.adjustments.size(), 1u);
+    EXPECT_EQ(net.adjustments[0].compartment, "Grazers");
+    EXPECT_EQ(net.adjustments[0].severity, Severity::Warning);
+    EXPECT_NEAR(net.imports[1], 10.0, 1e-12);
+    EXPECT_EQ(net.flows(1, 4), 0.0);
+}
+
+}  // namespace
+}  // namespace tl
