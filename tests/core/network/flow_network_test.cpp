@@ -41,6 +41,22 @@ TEST(FlowNetwork, BalancedModelGivesBalancedNodes)
     EXPECT_NEAR(net.flows(1, 7), 200.0, 1e-12);
     EXPECT_EQ(net.flows(1, 6), 0.0);
     EXPECT_EQ(net.respiration[0], 0.0);  // producers enter with net production
+
+    // Agrees with the balance sheet written independently (core/balance): flow to
+    // detritus per compartment, detritus export per pool, respiration per consumer.
+    for (std::size_t i = 0; i < net.size(); ++i) {
+        const CompartmentBalance& row = sheet.rows[i];
+        if (!net.isLiving(i)) {
+            EXPECT_NEAR(net.exports[i], row.detritusExport, 1e-10 * row.detritusInflow) << net.names[i];
+            EXPECT_NEAR(net.throughflow(i), row.detritusInflow, 1e-10 * row.detritusInflow) << net.names[i];
+            continue;
+        }
+        const double toPools = net.flows(static_cast<Eigen::Index>(i), 6) + net.flows(static_cast<Eigen::Index>(i), 7);
+        EXPECT_NEAR(toPools, row.flowToDetritus, 1e-10 * row.production) << net.names[i];
+        if (net.roles[i] == NodeRole::Consumer) {
+            EXPECT_NEAR(net.respiration[i], row.respiration, 1e-12) << net.names[i];
+        }
+    }
 }
 
 TEST(FlowNetwork, AnalysisSurvivesScorRoundTrip)
