@@ -10,14 +10,17 @@
 //   ami  = sum_ij T_ij/tstp log2(T_ij tstp / (T_i. T_.j)),  h = -sum_ij T_ij/tstp log2(T_ij/tstp)
 //   ascendency = tstp ami, capacity = tstp h, overhead = capacity - ascendency
 //   links = nonzero internal flows (self-loops counted), connectance = links / n^2
-// Food-web figures: total primary production (imports of producers), TPP/R, TPP/B,
-// total living biomass, system omnivory index (intake-weighted mean OI of consumers,
-// this project's convention).
+// Food-web figures: total primary production (net production of producers; for plain
+// flow networks the imports of producer nodes), TPP/R with R the respiration of the
+// network (consumers only for scenarios, which enter producers with net production),
+// TPP/B and total living biomass, system omnivory index (intake-weighted mean OI of
+// consumers, this project's convention).
 // Catch figures (solved scenarios only, Pauly & Christensen 1995, Nature 374:255):
 //   primary production required per unit production of j:
-//     ppr_j = 1 for producers and detritus (level I, as detritus is counted with primary
-//     production there); ppr_j = (Q_j / P_j) sum_i DC_ij ppr_i for consumers
-//     (food import needs none from this system);
+//     ppr_j = 1 for producers and detritus pools (both level I; counting detritus with
+//     primary production follows that paper as recalled from memory, not re-read);
+//     ppr_j = (Q_j / P_j) sum_i DC_ij ppr_i for consumers (imported food needs none from
+//     this system); NaN for a consumer without positive P and for whatever eats it;
 //   PPR of the catch = sum_j Y_j ppr_j;  mean TL of the catch = sum_j Y_j TL_j / sum_j Y_j.
 #pragma once
 
