@@ -204,9 +204,6 @@ TEST(ImportExport, ExportWithBadInputWritesNothing)
     r = tledger(dir, {"export", project.string(), "--format", "csv", "--out", out.string()});
     EXPECT_EQ(r.code, 2) << "two scenarios and no --scenario";
     EXPECT_NE(r.err.find("say which one"), std::string::npos) << r.err;
-    r = tledger(dir, {"export", project.string(), "--scenario", "baseline", "--format", "html", "--out", out.string()});
-    EXPECT_EQ(r.code, 2);
-    EXPECT_NE(r.err.find("not available yet"), std::string::npos);
     r = tledger(dir, {"export", project.string(), "--scenario", "baseline", "--format", "xml", "--out", out.string()});
     EXPECT_EQ(r.code, 2);
     EXPECT_FALSE(fs::exists(out));
@@ -217,6 +214,24 @@ TEST(ImportExport, ExportWithBadInputWritesNothing)
     r = tledger(dir, {"export", project.string(), "--scenario", "baseline", "--format", "csv", "--out", out.string()});
     EXPECT_EQ(r.code, 2);
     EXPECT_EQ(fileBytes(out), "keep me");
+}
+
+TEST(ImportExport, HtmlReportEscapesNamesAndStatesItsLimits)
+{
+    TempDir dir;
+    Project p = testing::inventedProject();
+    p.scenarios[0].model.compartment(0).name = "<script>alert('pike')</script> & co";
+    const fs::path project = dir / "p.tledger";
+    ASSERT_TRUE(ProjectFile::create(project, p).file);
+    const fs::path report = dir / "report.html";
+    CliRun r = tledger(dir, {"export", project.string(), "--format", "html", "--out", report.string()});
+    ASSERT_EQ(r.code, 0) << r.err;
+    const std::string text = fileBytes(report);
+    EXPECT_EQ(text.find("<script>"), std::string::npos) << "names are escaped";
+    EXPECT_NE(text.find("&lt;script&gt;alert(&#39;pike&#39;)&lt;/script&gt; &amp; co"), std::string::npos);
+    EXPECT_NE(text.find("does not replace, stock assessment"), std::string::npos);
+    EXPECT_NE(text.find("Scenario: more nets"), std::string::npos);
+    EXPECT_NE(text.find("Balance status: <strong>"), std::string::npos);
 }
 
 TEST(ImportExport, ScorFileImportsAndExportsBack)

@@ -439,6 +439,8 @@ TEST(ProjectFile, ReadOnlyOnRequestRefusesWrites)
         EXPECT_TRUE(hasCode(opened.file->save(inventedProject()), "store-read-only"));
     }
     EXPECT_EQ(fileBytes(path), before);
+    // Reading leaves nothing beside the project (no -wal / -shm files in the user's folder).
+    EXPECT_EQ(std::distance(std::filesystem::directory_iterator(dir.path()), std::filesystem::directory_iterator{}), 1);
 }
 
 }  // namespace

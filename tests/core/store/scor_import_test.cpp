@@ -55,9 +55,11 @@ TEST_F(CharcaImport, KindsFollowLivingFlagsAndIntake)
     EXPECT_EQ(m.compartment(17).kind, CompartmentKind::Consumer);    // Dicentrarchus
     EXPECT_EQ(m.compartment(18).kind, CompartmentKind::Detritus);    // DOC
     EXPECT_EQ(m.compartment(20).kind, CompartmentKind::Detritus);    // Sedimented POC
-    for (std::size_t i = 0; i < m.size(); ++i)
-        if (m.compartment(i).kind == CompartmentKind::Consumer)
+    for (std::size_t i = 0; i < m.size(); ++i) {
+        if (m.compartment(i).kind == CompartmentKind::Consumer) {
             EXPECT_NEAR(m.dietRowSum(i), 1.0, 1e-12) << m.compartment(i).name;
+        }
+    }
 }
 
 TEST_F(CharcaImport, FlowsBetweenDetritusPoolsAreReportedNotLost)
