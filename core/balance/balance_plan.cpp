@@ -34,6 +34,41 @@ double unitScale(const Vec& v)
     return m > 0.0 ? 1.0 / m : 1.0;
 }
 
+// Hager-Higham estimate of 1 / (||A||_1 ||A^-1||_1) from the LU factors of A (the
+// LAPACK xLACON iteration, at most five steps), in the workspace's vectors.
+double reciprocalConditionEstimate(BalanceWorkspace& ws)
+{
+    const Eigen::MatrixXd& lu = ws.lu.matrixLU();
+    const Eigen::Index n = lu.rows();
+    if (!(lu.diagonal().cwiseAbs().minCoeff() > 0.0)) return 0.0;  // a zero (or NaN) pivot
+    double normA = 0.0;
+    for (Eigen::Index c = 0; c < n; ++c) normA = std::max(normA, ws.a.col(c).cwiseAbs().sum());
+    Eigen::VectorXd& x = ws.estimateX;
+    Eigen::VectorXd& y = ws.estimateY;
+    x.setConstant(1.0 / static_cast<double>(n));
+    double estimate = 0.0;
+    for (int step = 0; step < 5; ++step) {
+        y = ws.lu.permutationP() * x;  // y = A^-1 x
+        lu.triangularView<Eigen::UnitLower>().solveInPlace(y);
+        lu.triangularView<Eigen::Upper>().solveInPlace(y);
+        const double norm = y.cwiseAbs().sum();
+        if (!std::isfinite(norm)) return 0.0;
+        if (step > 0 && norm <= estimate) break;
+        estimate = norm;
+        for (Eigen::Index i = 0; i < n; ++i) y[i] = y[i] >= 0.0 ? 1.0 : -1.0;  // xi = sign(y)
+        lu.transpose().triangularView<Eigen::Lower>().solveInPlace(y);      // z = A^-T xi
+        lu.transpose().triangularView<Eigen::UnitUpper>().solveInPlace(y);
+        Eigen::VectorXd& z = ws.estimateZ;
+        z = ws.lu.permutationP().transpose() * y;
+        Eigen::Index j = 0;
+        const double zmax = z.cwiseAbs().maxCoeff(&j);
+        if (step > 0 && zmax <= z.dot(x)) break;  // |z|_inf <= z^T x: a local maximum
+        x.setZero();
+        x[j] = 1.0;
+    }
+    return estimate > 0.0 ? 1.0 / (normA * estimate) : 0.0;
+}
+
 }  // namespace
 
 BalanceInputs BalanceInputs::fromModel(const Model& model)
@@ -186,7 +221,10 @@ BalanceWorkspace BalancePlan::makeWorkspace() const
     ws.colScale.setOnes(k);
     ws.colGross.setZero(k);
     ws.rhsWork.setZero(m);
-    if (m == k) ws.lu = Eigen::FullPivLU<Eigen::MatrixXd>(m, k);
+    ws.estimateX.setZero(k);
+    ws.estimateY.setZero(k);
+    ws.estimateZ.setZero(k);
+    if (m == k) ws.lu = Eigen::PartialPivLU<Eigen::MatrixXd>(m);
     else ws.qr = Eigen::ColPivHouseholderQR<Eigen::MatrixXd>(m, k);
     return ws;
 }
@@ -259,8 +297,7 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
 
     // 3. Equilibrate, factorise, solve.
     out.status = NumericStatus::Solved;
-    out.rank = k;
-    out.pivotRatio = 1.0;
+    out.conditioning = 1.0;
     if (k > 0) {
         for (Eigen::Index c = 0; c < k; ++c) {
             const double residue = kCancellationResidue * ws.colGross[c];
@@ -276,24 +313,18 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
         ws.rhsWork = ws.b.cwiseProduct(ws.rowScale);
         if (m == k) {
             ws.lu.compute(ws.a);
-            const auto pivots = ws.lu.matrixLU().diagonal().cwiseAbs();
-            const double maxPivot = pivots.maxCoeff();
-            out.pivotRatio = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
-            out.rank = (pivots.array() > kSingularPivotRatio * maxPivot).count();
-            if (out.pivotRatio > kSingularPivotRatio) {
-                // x = Q U^-1 L^-1 P b (Eigen's FullPivLU: P A Q = L U), in place.
-                ws.b = ws.lu.permutationP() * ws.rhsWork;
-                ws.lu.matrixLU().triangularView<Eigen::UnitLower>().solveInPlace(ws.b);
-                ws.lu.matrixLU().triangularView<Eigen::Upper>().solveInPlace(ws.b);
-                ws.y = ws.lu.permutationQ() * ws.b;
+            out.conditioning = reciprocalConditionEstimate(ws);
+            if (out.conditioning > kSingularConditioning) {
+                ws.y = ws.lu.permutationP() * ws.rhsWork;
+                ws.lu.matrixLU().triangularView<Eigen::UnitLower>().solveInPlace(ws.y);
+                ws.lu.matrixLU().triangularView<Eigen::Upper>().solveInPlace(ws.y);
             }
         } else {
             ws.qr.compute(ws.a);
             const auto pivots = ws.qr.matrixR().diagonal().cwiseAbs();
             const double maxPivot = pivots.maxCoeff();
-            out.pivotRatio = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
-            out.rank = (pivots.array() > kSingularPivotRatio * maxPivot).count();
-            if (out.pivotRatio > kSingularPivotRatio) {
+            out.conditioning = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
+            if (out.conditioning > kSingularConditioning) {
                 // Least squares: R y' = (Q^T b)_top, y = Pi y'. Q = H_0 ... H_{k-1} with
                 // H_h = I - tau_h v v^T, v = (1, essential part below the diagonal); applied
                 // by hand because Eigen's sequence product allocates on a vector block.
@@ -310,7 +341,7 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
                 ws.y = ws.qr.colsPermutation() * ws.x;
             }
         }
-        if (out.pivotRatio <= kSingularPivotRatio) {
+        if (!(out.conditioning > kSingularConditioning)) {
             out.status = NumericStatus::Singular;
             return;
         }

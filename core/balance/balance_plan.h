@@ -10,9 +10,12 @@
 // the numeric step fills A x = b from a flat BalanceInputs, equilibrates it (rows and
 // columns scaled to unit max norm), factorises it and writes every completed value
 // and derived flow into a BalanceValues, without heap allocation.
-//   square system:       full-pivot LU (rank-revealing: pivot ratio |u_nn| / |u_11|);
+//   square system:       partial-pivot LU, its conditioning checked by the Hager-Higham
+//                         estimate of 1 / cond_1 (Hager 1984 SIAM J Sci Stat Comput 5:311;
+//                         Higham 1988 ACM TOMS 14:381), computed without allocation;
 //   more rows than unknowns (some compartments fully given): column-pivoted Householder
-//                         QR least squares, then every equation's residual is reported.
+//                         QR least squares (rank-revealing: |r_kk| min / max), then every
+//                         equation's residual is reported.
 #pragma once
 
 #include <cstddef>
@@ -63,8 +66,9 @@ enum class NumericStatus : std::uint8_t { Solved, Singular };
 // Everything the numeric step writes. Sized by BalancePlan::makeValues.
 struct BalanceValues {
     NumericStatus status = NumericStatus::Solved;
-    Eigen::Index rank = 0;       // numerical rank of the equilibrated A
-    double pivotRatio = 1.0;     // min |pivot| / max |pivot| of the equilibrated A (1 if no unknowns)
+    // Conditioning of the equilibrated A: LU, estimate of 1 / cond_1(A); QR, min |r_kk| /
+    // max |r_kk|. 1 when nothing is unknown, 0 when exactly singular.
+    double conditioning = 1.0;
 
     // Completed inputs (given, from P/Q, or solved). Q/B is 0 for producers and pools.
     Eigen::VectorXd biomass, pb, qb, ee;
@@ -86,7 +90,8 @@ struct BalanceWorkspace {
     Eigen::VectorXd rowScale, colScale;
     Eigen::VectorXd colGross;        // largest term added into each column
     Eigen::VectorXd rhsWork;         // permuted / rotated right-hand side
-    Eigen::FullPivLU<Eigen::MatrixXd> lu;                 // square systems
+    Eigen::VectorXd estimateX, estimateY, estimateZ;  // condition estimate iterates
+    Eigen::PartialPivLU<Eigen::MatrixXd> lu;              // square systems
     Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr;       // overdetermined systems
 };
 
@@ -118,10 +123,10 @@ public:
     const Problems& problems() const { return problems_; }
     bool hasStructuralErrors() const { return hasErrors(problems_); }
 
-    // Pivot ratios at or below this mean the equilibrated system is rank deficient
-    // (about 5000 machine epsilons; this project's choice). After a Singular step,
-    // ws.a holds the equilibrated A for diagnosis.
-    static constexpr double kSingularPivotRatio = 1e-12;
+    // Conditioning at or below this means the equilibrated system is (numerically)
+    // singular: solved values would carry relative errors of 1e-4 or worse (this
+    // project's choice). After a Singular step, ws.a holds the equilibrated A.
+    static constexpr double kSingularConditioning = 1e-12;
     // An entry of A at or below this share of the largest term summed into its column
     // is cancellation residue and counts as 0 (about 450 machine epsilons).
     static constexpr double kCancellationResidue = 1e-13;

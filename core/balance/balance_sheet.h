@@ -53,9 +53,10 @@ struct BalanceSheet {
     BalanceStatus status = BalanceStatus::Invalid;
     std::vector<CompartmentBalance> rows;  // same order as Model::compartments()
     Problems problems;
-    // min |pivot| / max |pivot| of the equilibrated system (1 when nothing was unknown):
-    // a rank/conditioning indicator, small means the solved values are fragile.
-    double pivotRatio = kNotApplicable;
+    // Conditioning of the equilibrated system, about 1 / condition number (1 when
+    // nothing was unknown; see BalanceValues::conditioning): small means the solved
+    // values are fragile.
+    double conditioning = kNotApplicable;
 };
 
 }  // namespace tl

@@ -110,7 +110,7 @@ void reportSingular(const Model& model, const BalancePlan& plan, const BalanceWo
     const Eigen::MatrixXd& a = ws.a;  // equilibrated
     Eigen::JacobiSVD<Eigen::MatrixXd> svd(a, Eigen::ComputeFullV);
     const Eigen::VectorXd& sigma = svd.singularValues();
-    const double tol = BalancePlan::kSingularPivotRatio * std::max(1.0, sigma.size() ? sigma[0] : 0.0) * 1e3;
+    const double tol = BalancePlan::kSingularConditioning * 1e3 * (sigma.size() ? sigma[0] : 0.0);
     std::set<std::size_t> involved;
     std::string what;
     for (Eigen::Index s = 0; s < a.cols(); ++s) {
@@ -266,16 +266,16 @@ BalanceSheet solveBalance(const Model& model)
     BalanceWorkspace ws = plan.makeWorkspace();
     BalanceValues values = plan.makeValues();
     plan.solve(inputs, ws, values);
-    sheet.pivotRatio = values.pivotRatio;
+    sheet.conditioning = values.conditioning;
     if (values.status == NumericStatus::Singular) {
         reportSingular(model, plan, ws, sheet);
         sheet.status = BalanceStatus::Invalid;
         return sheet;
     }
-    if (values.pivotRatio < kIllConditionedPivotRatio)
+    if (values.conditioning < kIllConditioned)
         sheet.problems.push_back(makeProblem(code::kIllConditioned, Severity::Warning, "", "",
-                                         "The balance equations are nearly singular (pivot ratio " +
-                                             num(values.pivotRatio) + "): solved values are sensitive to the inputs.",
+                                         "The balance equations are nearly singular (conditioning " +
+                                             num(values.conditioning) + "): solved values are sensitive to the inputs.",
                                          "Give directly some of the values being solved."));
 
     for (std::size_t i = 0; i < model.size(); ++i) {

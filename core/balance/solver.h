@@ -24,8 +24,9 @@ namespace tl {
 // EE, detritus EE and R are allowed kBoundTolerance of rounding past their bound.
 inline constexpr double kResidualTolerance = 1e-6;
 inline constexpr double kBoundTolerance = 1e-9;
-// Pivot ratio under which a solved system is flagged ill-conditioned (warning).
-inline constexpr double kIllConditionedPivotRatio = 1e-8;
+// Conditioning (BalanceSheet::conditioning) under which a solved system is flagged
+// ill-conditioned (warning): relative errors of the solved values may reach 1e-8.
+inline constexpr double kIllConditioned = 1e-8;
 
 BalanceSheet solveBalance(const Model& model);
 
