@@ -1,4 +1,5 @@
-// Diet overlap between predators (Pianka 1973, Annu Rev Ecol Syst 4:53):
+// Diet overlap between predators (Pianka 1973, Annu Rev Ecol Syst 4:53; volume and page
+// from memory):
 //   O_jk = sum_i p_ij p_ik / sqrt( sum_i p_ij^2  sum_i p_ik^2 )
 // p_ij = fraction of food item i in predator j's diet (the import column counts as one
 // item). Symmetric, 0 (no shared prey) .. 1 (identical diets).

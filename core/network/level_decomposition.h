@@ -1,5 +1,6 @@
 // Decomposition of a food web into integer trophic levels ("trophic aggregation",
-// Ulanowicz 1995, in Patten & Jorgensen (eds) Complex Ecology; after Lindeman 1942,
+// Ulanowicz 1995, in Patten & Jorgensen (eds) Complex Ecology, book details from memory;
+// after Lindeman 1942,
 // Ecology 23:399). DESIGN.md 3.3.
 //
 // Producers and detritus pools are at level I. A consumer j with feeding fractions
