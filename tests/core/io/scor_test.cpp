@@ -89,7 +89,8 @@ TEST(ScorReader, AcceptsCrlfAndTrailingBlanks)
 
 TEST(ScorReader, OldStyleOysterReefExampleParses)
 {
-    // Oyster reef, Dame & Patten 1981 (Mar Ecol Prog Ser 5:115): values checked against the file.
+    // Oyster reef, Dame & Patten, Mar Ecol Prog Ser 5:115 (as the file's title cites it; the
+    // year, 1981, from memory): values checked against the file.
     const ScorReadResult r = readScorFile(kExamples + "/oyster.dat");
     ASSERT_TRUE(r.network) << firstError(r).describe();
     const ScorNetwork& n = *r.network;
@@ -108,7 +109,8 @@ TEST(ScorReader, OldStyleOysterReefExampleParses)
 
 TEST(ScorReader, OldStyleChesapeakeExampleWithFortranNumbersParses)
 {
-    // Chesapeake Bay mesohaline carbon network (Baird & Ulanowicz 1989, Ecol Monogr 59:329):
+    // Chesapeake Bay mesohaline carbon network (Baird & Ulanowicz 1989 as the title cites it;
+    // Ecol Monogr 59:329 from memory):
     // CRLF, numbers such as ".3480000+04" (0.348e4), dummy values after terminators.
     const ScorReadResult r = readScorFile(kExamples + "/chesapeake_mesohaline_C_annual.dat");
     ASSERT_TRUE(r.network) << firstError(r).describe();
