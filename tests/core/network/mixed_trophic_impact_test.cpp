@@ -4,8 +4,10 @@
 
 #include <gtest/gtest.h>
 
+#include "core/balance/solver.h"
 #include "core/network/keystone.h"
 #include "core/network/mixed_trophic_impact.h"
+#include "tests/core/network/test_models.h"
 
 namespace tl {
 namespace {
@@ -98,6 +100,38 @@ TEST(Keystone, ChainByHand)
     EXPECT_EQ(ks[2].rank, 1);
     EXPECT_EQ(ks[1].rank, 2);
     EXPECT_EQ(ks[0].rank, 3);
+}
+
+}  // namespace
+}  // namespace tl
+
+namespace tl {
+namespace {
+
+// From a solved scenario: d is the diet fraction as entered (imported food counts in the
+// denominator, so it is DC exactly); f uses predation and catch (landings + dead discards).
+TEST(MixedTrophicImpact, ScenarioUsesDietFractionsAndCatch)
+{
+    const Model model = testing::richWeb();
+    const BalanceSheet sheet = solveBalance(model);
+    ASSERT_NE(sheet.status, BalanceStatus::Invalid);
+    const FlowNetwork net = buildFlowNetwork(model, sheet);
+    const MixedTrophicImpact mti = mixedTrophicImpact(net);
+    ASSERT_EQ(mti.names.size(), 9u);  // 8 compartments + 1 fleet
+    // Zooplankton (2) on planktivores (4): d = DC = 0.7, f = 0 (zooplankton does not eat
+    // planktivores).
+    EXPECT_NEAR(mti.direct(2, 4), 0.7, 1e-12);
+    // Planktivores (4) on zooplankton (2): zooplankton's losses to predators are
+    // benthos 180 x 0.1 = 18 and planktivores 18 x 0.7 = 12.6: f = 12.6 / 30.6, d = 0.
+    EXPECT_NEAR(mti.direct(4, 2), -12.6 / 30.6, 1e-12);
+    // The fleet (8) on planktivores: their losses are piscivores 2 x 0.6 = 1.2 and catch
+    // 0.3 + 0.05 dead discards: f = 0.35 / 1.55. Planktivores in the fleet's "diet":
+    // 0.35 of its 0.45 catch.
+    EXPECT_NEAR(mti.direct(8, 4), -0.35 / 1.55, 1e-12);
+    EXPECT_NEAR(mti.direct(4, 8), 0.35 / 0.45, 1e-12);
+    // Detritus (6) takes the composition of its inflow; phytoplankton's share of it:
+    const double inflow = net.throughflow(6);
+    EXPECT_NEAR(mti.direct(0, 6), net.flows(0, 6) / inflow, 1e-12);
 }
 
 }  // namespace
