@@ -347,17 +347,20 @@ bool writeScenario(sqlite3* db, int version, const Scenario& s, std::optional<st
     return true;
 }
 
-// Inserts the runs not yet in the file (id 0) inside the caller's transaction.
-bool insertNewRuns(sqlite3* db, int version, const std::vector<StoredRun>& runs)
+// Inserts runs inside the caller's transaction: those not yet in the file (id 0), or,
+// for a new file, all of them with the ids they carry.
+bool insertRuns(sqlite3* db, int version, const std::vector<StoredRun>& runs, bool keepIds)
 {
     if (version < 2) return true;
-    Statement ins(db, "INSERT INTO stored_run (scenario_id, kind, settings_json, summary_json, created) VALUES "
-                      "((SELECT id FROM scenario WHERE name = ?1), ?2, ?3, ?4, ?5)");
+    Statement ins(db, "INSERT INTO stored_run (id, scenario_id, kind, settings_json, summary_json, created) VALUES "
+                      "(?6, (SELECT id FROM scenario WHERE name = ?1), ?2, ?3, ?4, ?5)");
     for (const StoredRun& run : runs) {
-        if (run.id != 0) continue;
+        if (run.id != 0 && !keepIds) continue;
         ins.reset();
         ins.bind(1, run.scenario).bind(2, run.kind).bind(3, run.settingsJson).bind(4, run.summaryJson);
         ins.bind(5, run.created.empty() ? utcNowIso8601() : run.created);
+        if (run.id != 0) ins.bind(6, run.id);
+        else ins.bindNull(6);
         if (!ins.run()) return false;
     }
     return true;
@@ -699,7 +702,7 @@ ProjectOpenResult ProjectFile::create(const fs::path& path, const Project& proje
              !execute(db, "PRAGMA user_version = " + std::to_string(store::kSchemaVersion)) && writeInfo(db, project.info);
         for (std::size_t i = 0; ok && i < project.scenarios.size(); ++i)
             ok = writeScenario(db, store::kSchemaVersion, project.scenarios[i], static_cast<std::int64_t>(i));
-        ok = ok && insertNewRuns(db, store::kSchemaVersion, project.runs) && tx.commit();
+        ok = ok && insertRuns(db, store::kSchemaVersion, project.runs, true) && tx.commit();
     }
     if (!ok) {
         result.problems.push_back(fileProblem(path, "store-create-failed", "cannot be created: " + sqliteError(db)));
@@ -829,7 +832,7 @@ Problems ProjectFile::save(const Project& project)
         }
         for (std::size_t i = 0; i < project.scenarios.size(); ++i)
             if (!writeScenario(db_, schemaVersion_, project.scenarios[i], static_cast<std::int64_t>(i))) return false;
-        if (!insertNewRuns(db_, schemaVersion_, project.runs)) return false;
+        if (!insertRuns(db_, schemaVersion_, project.runs, false)) return false;
         return true;
     });
 }

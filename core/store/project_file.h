@@ -49,7 +49,9 @@ struct ScenarioSummary {
 class ProjectFile {
 public:
     // Creates a new project file (refuses to overwrite an existing path) holding
-    // `project` (may have no scenarios), and returns it open read-write.
+    // `project` (may have no scenarios; its stored runs keep their ids), and returns it
+    // open read-write. To save into an existing project, open it and call save():
+    // one transaction in place, safe while other windows or programs read the file.
     static ProjectOpenResult create(const std::filesystem::path& path, const Project& project);
     static ProjectOpenResult open(const std::filesystem::path& path, OpenMode mode = OpenMode::ReadWrite);
 

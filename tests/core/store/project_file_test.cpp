@@ -200,6 +200,26 @@ TEST(ProjectFile, SchemaConstraintsHoldEvenAgainstDirectSql)
     sqlite3_close(db);
 }
 
+TEST(ProjectFile, TriggersPlantedInAFileDoNotRun)
+{
+    // A project file from elsewhere may carry SQL of its own; the store runs none of it
+    // (triggers disabled, trusted_schema off, defensive mode).
+    TempDir dir;
+    const auto path = dir / "planted.tledger";
+    ASSERT_TRUE(ProjectFile::create(path, inventedProject()).file);
+    rawExec(path, "CREATE TRIGGER wipe AFTER INSERT ON compartment BEGIN DELETE FROM diet; "
+                  "UPDATE project_info SET title = 'owned'; END;");
+    auto file = ProjectFile::open(path).file;
+    ASSERT_TRUE(file);
+    Scenario s = *file->loadScenario("baseline").value;
+    s.name = "new one";
+    ASSERT_TRUE(file->createScenario(s).empty());
+    auto back = file->load();
+    ASSERT_TRUE(back.value);
+    EXPECT_EQ(back.value->info.title, "invented test project");
+    EXPECT_EQ(back.value->findScenario("new one")->model, s.model) << "its diet rows were kept";
+}
+
 TEST(ProjectFile, ScenarioOperations)
 {
     TempDir dir;
@@ -262,6 +282,14 @@ TEST(ProjectFile, StoredRunsAreKeptAndGoWithTheirScenario)
     EXPECT_EQ((*runs.value)[0].summaryJson, run.summaryJson);
     EXPECT_EQ((*runs.value)[0].scenario, "more nets");
     EXPECT_EQ((*runs.value)[1].created, "2026-01-01T00:00:00Z");
+
+    // A project written anew (create) keeps the runs it was loaded with.
+    {
+        const auto copyPath = dir / "copy.tledger";
+        auto copy = ProjectFile::create(copyPath, *file->load().value);
+        ASSERT_TRUE(copy.file);
+        EXPECT_EQ(*copy.file->listRuns().value, *file->listRuns().value);
+    }
 
     ASSERT_TRUE(file->deleteScenario("more nets").empty());
     runs = file->listRuns();
