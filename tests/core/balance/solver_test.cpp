@@ -305,6 +305,21 @@ TEST(SolverProblems, SingularSystemNamesTheCompartmentsInvolved)
     EXPECT_EQ(findProblem(sheet, code::kSingularSystem, "Carnivore"), nullptr);
 }
 
+TEST(SolverProblems, SquareSingularSystemWithAnEquationWithoutUnknowns)
+{
+    // Four rows, four unknowns, but Grazer's row holds none (its Q/B sits in Alga's
+    // row): the LU path must see it singular and name both.
+    Model m = tenPercentChain();
+    m.compartment(1).value(Param::QB).reset();
+    m.compartment(1).value(Param::EE) = 0.5;
+    m.compartment(3).value(Param::EE).reset();
+    const BalanceSheet sheet = solveBalance(m);
+    EXPECT_EQ(sheet.status, BalanceStatus::Invalid) << listProblems(sheet);
+    EXPECT_NE(findProblem(sheet, code::kSingularSystem, "Alga"), nullptr) << listProblems(sheet);
+    EXPECT_NE(findProblem(sheet, code::kSingularSystem, "Grazer"), nullptr) << listProblems(sheet);
+    EXPECT_EQ(findProblem(sheet, code::kSingularSystem, "Top"), nullptr) << listProblems(sheet);
+}
+
 TEST(SolverProblems, CannibalEatenOnlyByItselfHasUndeterminedBiomass)
 {
     // B (P/B EE - Q/B DC_ii) = 0 with P/B EE = Q/B DC_ii: any B satisfies it.
