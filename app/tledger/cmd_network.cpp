@@ -16,6 +16,7 @@
 #include "core/io/json_writer.h"
 #include "core/io/scor.h"
 #include "core/io/text_table.h"
+#include "core/network/diet_overlap.h"
 #include "core/network/flow_network.h"
 #include "core/network/flow_trophic_level.h"
 #include "core/network/indicators.h"
@@ -37,6 +38,7 @@ struct NetworkReport {
     LevelDecomposition levels;
     MixedTrophicImpact mti;
     std::vector<KeystoneEntry> keystone;
+    std::optional<DietOverlap> overlap;  // scenarios only (needs the diet matrix)
     bool hasCatch = false;
 };
 
@@ -162,6 +164,21 @@ std::string reportJson(const NetworkReport& r)
         w.endObject();
     }
     w.endArray();
+
+    if (r.overlap) {
+        w.key("diet_overlap").beginObject();
+        w.key("predators").beginArray();
+        for (std::size_t j : r.overlap->predators) w.value(net.names[j]);
+        w.endArray();
+        w.key("values").beginArray();
+        for (Eigen::Index a = 0; a < r.overlap->overlap.rows(); ++a) {
+            w.beginArray();
+            for (Eigen::Index b = 0; b < r.overlap->overlap.cols(); ++b) w.value(r.overlap->overlap(a, b));
+            w.endArray();
+        }
+        w.endArray();
+        w.endObject();
+    }
     w.endObject();
     return w.str() + "\n";
 }
@@ -294,6 +311,7 @@ int fromModel(const ParsedOptions& opts)
     r.network = buildFlowNetwork(*model, sheet);
     for (const Problem& p : r.network.adjustments) std::cerr << "warning: " << p.describe() << '\n';
     r.indicators = systemIndicators(*model, sheet, r.network);
+    r.overlap = dietOverlap(*model);
     for (const CompartmentBalance& row : sheet.rows) {
         r.tl.push_back(row.tl);
         r.oi.push_back(row.oi);
