@@ -71,6 +71,9 @@ FlowNetwork buildFlowNetwork(const Model& model, const BalanceSheet& sheet);
 // with no intake from other nodes become producers, the other living nodes consumers.
 // All imports count as food imports.
 FlowNetwork flowNetworkFromScor(const ScorNetwork& scor);
+// SCOR lists living compartments first: the network's order is kept within living and
+// within non-living nodes. SCOR has no fleets: landings stay in the exports and dead
+// discards in the flows to detritus, but which share was catch is lost.
 ScorNetwork scorFromFlowNetwork(const FlowNetwork& network, std::string title);
 
 }  // namespace tl
