@@ -17,6 +17,7 @@
 #include <QSaveFile>
 #include <QTableView>
 #include <QVBoxLayout>
+#include <algorithm>
 #include <cmath>
 #include <set>
 
@@ -98,6 +99,7 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     table_->setSelectionMode(QAbstractItemView::ExtendedSelection);
     table_->setAlternatingRowColors(true);
     table_->setWordWrap(false);
+    table_->setTextElideMode(Qt::ElideRight);
     table_->horizontalHeader()->setDefaultAlignment(Qt::AlignCenter);
     table_->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
     table_->verticalHeader()->setVisible(false);
@@ -187,7 +189,9 @@ void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceShee
     case BalanceStatus::Unbalanced: text = tr("<b>Not balanced.</b>"); break;
     case BalanceStatus::Invalid: text = tr("<b>Could not be solved.</b>"); break;
     }
-    text += " " + tr("%n compartment(s) with problems.", nullptr, withProblems);
+    if (withProblems == 0) text += " " + tr("No compartment has a problem.");
+    else if (withProblems == 1) text += " " + tr("1 compartment has problems; see its Status cell.");
+    else text += " " + tr("%1 compartments have problems; see their Status cells.").arg(withProblems);
     if (!general.isEmpty()) text += "<br>" + general.join("<br>");
     statusLabel_->setText(text);
     statusIcon_->setPixmap(statusIcon(sheet.status == BalanceStatus::Invalid ? std::optional(Severity::Error)
@@ -195,6 +199,8 @@ void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceShee
                                                                                     : worst)
                                .pixmap(20, 20));
     table_->resizeColumnsToContents();
+    const int statusColumn = BalanceSheetModel::column(BalanceSheetModel::Column::Status);
+    table_->setColumnWidth(statusColumn, std::min(table_->columnWidth(statusColumn), 280));  // full text in the tooltip
 }
 
 std::vector<int> BalanceSheetPage::chosenSourceRows(bool selectionOnly) const

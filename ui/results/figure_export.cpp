@@ -74,10 +74,15 @@ std::optional<QString> exportFigure(FigureSource& source, FigureFormat format, c
             return QObject::tr("%1 x %2 pixels is too large; lower the resolution.").arg(pixels.width()).arg(pixels.height());
         QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
         image.fill(Qt::white);
+        // Paint at the logical 96 dpi (fonts in points would otherwise grow twice: once by
+        // the device resolution, once by the painter's scale), then record the real dpi.
+        const int logicalDotsPerMeter = qRound(kLogicalDpi / 0.0254);
+        image.setDotsPerMeterX(logicalDotsPerMeter);
+        image.setDotsPerMeterY(logicalDotsPerMeter);
+        source.renderFigure(image, size, scale);
         const int dotsPerMeter = qRound(options.dpi / 0.0254);
         image.setDotsPerMeterX(dotsPerMeter);
         image.setDotsPerMeterY(dotsPerMeter);
-        source.renderFigure(image, size, scale);
         QByteArray bytes;
         {
             QBuffer buffer(&bytes);
@@ -107,13 +112,13 @@ std::optional<QString> exportFigure(FigureSource& source, FigureFormat format, c
         QSaveFile file(path);
         if (!file.open(QIODevice::WriteOnly)) return QObject::tr("Cannot write %1: %2").arg(path, file.errorString());
         QPdfWriter pdf(&file);
-        pdf.setResolution(options.dpi);
+        pdf.setResolution(static_cast<int>(kLogicalDpi));  // vector output; fonts keep their layout size
         pdf.setPageSize(QPageSize(QSizeF(size.width() / kLogicalDpi * 72.0, size.height() / kLogicalDpi * 72.0),
                                   QPageSize::Point, QString(), QPageSize::ExactMatch));
         pdf.setPageMargins(QMarginsF(0, 0, 0, 0));
         pdf.setTitle(source.figureTitle());
         pdf.setCreator(QStringLiteral("Trophic Ledger"));
-        source.renderFigure(pdf, size, options.dpi / kLogicalDpi);
+        source.renderFigure(pdf, size, 1.0);
         if (!file.commit()) return QObject::tr("Cannot write %1: %2").arg(path, file.errorString());
         return std::nullopt;
     }

@@ -35,7 +35,7 @@ std::optional<FigureFormat> parseFigureFormat(const QString& text);  // "png", "
 QString figureSuffix(FigureFormat f);
 
 struct FigureOptions {
-    int dpi = 300;           // PNG and PDF resolution; SVG is resolution-free
+    int dpi = 300;           // PNG resolution; SVG and PDF are vector output
     QSize size;              // logical size; empty = the source's figureSize()
 };
 

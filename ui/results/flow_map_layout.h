@@ -43,7 +43,7 @@ struct FlowMapLayoutOptions {
     double maxBoxArea = 110.0 * 80.0;  // the largest biomass gets this area
     double minBoxWidth = 30.0;
     double aspect = 1.4;           // width / height of a box
-    double verticalGap = 22.0;     // between stacked boxes (plus the caption)
+    double verticalGap = 28.0;     // between stacked boxes (plus the caption)
     double horizontalGap = 16.0;   // between layers and between detritus pools
     double laneGap = 70.0;         // between the living region and the detritus lane
     double fleetColumnGap = 140.0; // from the right-most living box to the fleets

@@ -18,7 +18,7 @@
 namespace tl::ui {
 namespace {
 
-constexpr double kMinRibbon = 1.2, kMaxRibbon = 16.0;
+constexpr double kMinRibbon = 1.0, kMaxRibbon = 12.0;
 constexpr double kAxisY = 34.0;
 constexpr double kCornerRadius = 7.0;
 constexpr qreal kDimmedBox = 0.22, kDimmedRibbon = 0.07;
@@ -60,11 +60,20 @@ public:
         setAcceptHoverEvents(true);
         setZValue(2);
         setCursor(Qt::OpenHandCursor);
+        // Caption under the box on a faint white plate, so ribbons passing behind it
+        // do not cut through the letters.
         caption_ = new QGraphicsSimpleTextItem(QString::fromStdString(n.name), this);
         caption_->setFont(captionFont());
         caption_->setBrush(Qt::black);
         const QRectF r = caption_->boundingRect();
-        caption_->setPos((w - r.width()) / 2, h + 4);
+        const QPointF at((w - r.width()) / 2, h + 4);
+        QPainterPath plate;
+        plate.addRoundedRect(QRectF(at, r.size()).adjusted(-2, 0, 2, 0), 3, 3);
+        auto* plateItem = new QGraphicsPathItem(plate, this);
+        plateItem->setPen(Qt::NoPen);
+        plateItem->setBrush(QColor(255, 255, 255, 215));
+        caption_->setPos(at);
+        caption_->setZValue(1);
     }
     QSizeF size() const { return size_; }
     QRectF rect() const { return QRectF(pos(), size_); }
@@ -107,7 +116,7 @@ class FlowMapRibbonItem : public QGraphicsPathItem {
 public:
     FlowMapRibbonItem(const FlowMapEdge& edge, QColor colour, double width) : edge_(edge)
     {
-        colour.setAlphaF(0.55);
+        colour.setAlphaF(0.5);
         setPen(QPen(colour, width, Qt::SolidLine, Qt::FlatCap, Qt::RoundJoin));
         setBrush(Qt::NoBrush);
         setZValue(1);
@@ -278,7 +287,7 @@ void FlowMapScene::rebuild()
     rebuilding_ = false;
     setThreshold(threshold_);
     updateRibbons();
-    addLegend(std::max(layout_.height, figureRect().bottom()) - 20);
+    addLegend(itemsBoundingRect().bottom());
     setSceneRect(itemsBoundingRect().adjusted(-20, -20, 20, 20));
 }
 
@@ -287,10 +296,10 @@ void FlowMapScene::addDecorations()
     const QFont font = captionFont();
     const QColor grey(0x88, 0x88, 0x88);
     // Trophic-level axis along the top, with faint guides at each integer level.
-    const int lastLevel = static_cast<int>(std::ceil(layout_.maxLevel - 1e-9));
-    const double x0 = layout_.levelToX(1.0), x1 = layout_.levelToX(std::max(2, lastLevel));
+    const int lastLevel = std::max(2, static_cast<int>(std::floor(layout_.maxLevel + 0.5)));
+    const double x0 = layout_.levelToX(1.0), x1 = layout_.levelToX(std::max<double>(lastLevel, layout_.maxLevel));
     addLine(x0, kAxisY, x1, kAxisY, QPen(Qt::black, 1.0));
-    for (int level = 1; level <= std::max(2, lastLevel); ++level) {
+    for (int level = 1; level <= lastLevel; ++level) {
         const double x = layout_.levelToX(level);
         addLine(x, kAxisY, x, kAxisY + 6, QPen(Qt::black, 1.0));
         auto* guide = addLine(x, kAxisY + 8, x, layout_.detritusLaneTop - 6, QPen(QColor(0xdd, 0xdd, 0xdd), 1.0, Qt::DashLine));
@@ -300,6 +309,16 @@ void FlowMapScene::addDecorations()
     }
     auto* axisTitle = addSimpleText(tr("Trophic level"), font);
     axisTitle->setPos(x1 + 12, kAxisY - axisTitle->boundingRect().height() / 2);
+    if (nodes_.size() > compartmentCount_) {  // the fleets' column has no trophic level
+        double left = 1e300, right = -1e300;
+        for (std::size_t i = compartmentCount_; i < nodes_.size(); ++i) {
+            left = std::min(left, layout_.boxes[i].x);
+            right = std::max(right, layout_.boxes[i].right());
+        }
+        auto* fleets = addSimpleText(tr("Fleets"), font);
+        fleets->setPos(std::max((left + right) / 2 - fleets->boundingRect().width() / 2, axisTitle->sceneBoundingRect().right() + 16),
+                       kAxisY - fleets->boundingRect().height() / 2);
+    }
 
     bool hasDetritus = false;
     for (const auto& n : nodes_) hasDetritus |= n.role == FlowMapRole::Detritus;
@@ -320,7 +339,7 @@ void FlowMapScene::addLegend(double top)
 {
     const QFont font = captionFont();
     double x = 20;
-    const double y = top + 40;
+    const double y = top + 24;
     auto swatch = [&](const FlowMapNode& shape, QColor colour, const QString& text) {
         auto* item = addPath(boxPath(shape, 26, 17), QPen(colour.darker(150), 1.0), colour);
         item->setPos(x, y);
@@ -432,9 +451,10 @@ void FlowMapScene::updateRibbons()
         const double reach = std::max(40.0, std::abs(t.x() - s.x()) * 0.45);
         switch (sides[k].first) {
         case Side::Top:
-            if (sides[k].second == Side::Top) {  // cannibalism: a loop over the box
-                path.cubicTo(s + QPointF(10, -45), t + QPointF(-10, -45), t + QPointF(0, -1));
-                path.lineTo(t);
+            if (sides[k].second == Side::Top) {  // cannibalism: a small loop off the top-right corner
+                const QPointF from(a.right(), a.top() + a.height() * 0.3), into(a.right() - a.width() * 0.2, a.top());
+                path = QPainterPath(from);
+                path.cubicTo(from + QPointF(30, -4), into + QPointF(4, -30), into);
             } else {
                 path.cubicTo(s + QPointF(0, -std::max(40.0, std::abs(s.y() - t.y()) * 0.5)), t - QPointF(reach, 0), t);
             }

@@ -25,6 +25,13 @@ QString number(double v) { return QString::number(v, 'g', 4); }
 
 QString percent(double v) { return std::isfinite(v) ? QString::number(100.0 * v, 'f', 1) + " %" : QStringLiteral("–"); }
 
+// The lighter of the two alternating shades of a kind's colour: 40 % towards white.
+QColor tint(const QColor& c)
+{
+    return QColor::fromRgbF(c.redF() + (1 - c.redF()) * 0.4f, c.greenF() + (1 - c.greenF()) * 0.4f,
+                            c.blueF() + (1 - c.blueF()) * 0.4f);
+}
+
 bool darkText(const QColor& c) { return 0.299 * c.redF() + 0.587 * c.greenF() + 0.114 * c.blueF() > 0.55; }
 
 // A round length (1, 2 or 5 x 10^k) close to a quarter of `span`, for the scale bar.
@@ -80,7 +87,9 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     auto* heading = new QCPTextElement(plot_, QString(), QFont(font().family(), 12, QFont::Bold));
     plot_->plotLayout()->addElement(0, 0, heading);
     plot_->plotLayout()->insertRow(1);
-    plot_->plotLayout()->addElement(1, 0, new QCPTextElement(plot_, QString(), QFont(font().family(), 9)));
+    auto* subheading = new QCPTextElement(plot_, QString(), QFont(font().family(), 9));
+    subheading->setMargins(QMargins(4, 0, 4, 10));
+    plot_->plotLayout()->addElement(1, 0, subheading);
     plot_->xAxis->setTicks(false);
     plot_->xAxis->setTickLabels(false);
     plot_->xAxis->grid()->setVisible(false);
@@ -89,6 +98,8 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     plot_->yAxis->setSubTicks(false);
     plot_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignRight);
     plot_->legend->setBorderPen(QPen(QColor(0x99, 0x99, 0x99)));
+    plot_->legend->setMargins(QMargins(8, 5, 18, 5));
+    plot_->axisRect()->setMinimumMargins(QMargins(10, 10, 24, 10));
     plot_->setContextMenuPolicy(Qt::CustomContextMenu);
 
     connect(quantityCombo_, &QComboBox::currentIndexChanged, this,
@@ -214,8 +225,10 @@ void LevelBarsPage::rebuild()
     }
 
     QString sub = tr("Mean transfer efficiency, levels II–IV (geometric mean): %1").arg(percent(data_.meanTe));
-    if (data_.droppedLevels > 0)
-        sub += tr("  ·  %n higher level(s) below 0.01 % of the largest not drawn", nullptr, data_.droppedLevels);
+    if (data_.droppedLevels == 1)
+        sub += tr("  ·  1 higher level below 0.01 % of the largest not drawn");
+    else if (data_.droppedLevels > 1)
+        sub += tr("  ·  %1 higher levels below 0.01 % of the largest not drawn").arg(data_.droppedLevels);
     subheading->setText(sub);
 
     // Bar lengths: the total (linear) or log10(total / floor), floor a decade below the smallest.
@@ -235,7 +248,7 @@ void LevelBarsPage::rebuild()
     if (!(maxLength > 0)) maxLength = 1;
 
     const int levels = static_cast<int>(data_.stacks.size());
-    plot_->xAxis->setRange(-maxLength * 0.86, maxLength * 0.86);
+    plot_->xAxis->setRange(-maxLength * 0.95, maxLength * 0.95);  // bars fill the middle, labels the sides
     plot_->yAxis->setRange(-0.05, levels + 0.55);
     auto ticker = QSharedPointer<QCPAxisTickerText>::create();
     for (const auto& s : data_.stacks) ticker->addTick(s.level, romanNumeral(s.level));
@@ -266,7 +279,7 @@ void LevelBarsPage::rebuild()
             const double w = log_ ? length * seg.share : seg.value;
             const CompartmentKind kind = seg.node < kinds_.size() ? kinds_[seg.node] : CompartmentKind::Consumer;
             const bool tinted = index++ % 2 == 1;
-            const QColor fill = tinted ? kindColour(kind).lighter(140) : kindColour(kind);
+            const QColor fill = tinted ? tint(kindColour(kind)) : kindColour(kind);
             auto* rect = new QCPItemRect(plot_);
             rect->topLeft->setCoords(x, s.level + kBarHalfHeight);
             rect->bottomRight->setCoords(x + w, s.level - kBarHalfHeight);
@@ -295,7 +308,7 @@ void LevelBarsPage::rebuild()
     }
     // Scale bar for the bar length.
     const double scale = log_ ? 1.0 : niceLength(maxLength);
-    const double sx = maxLength * 0.80 - scale, sy = 0.18;
+    const double sx = -maxLength * 0.90, sy = 0.18;
     auto* bar = new QCPItemLine(plot_);
     bar->start->setCoords(sx, sy);
     bar->end->setCoords(sx + scale, sy);
@@ -303,13 +316,13 @@ void LevelBarsPage::rebuild()
     bar->setHead(QCPLineEnding::esBar);
     bar->setTail(QCPLineEnding::esBar);
     auto* barText = new QCPItemText(plot_);
-    barText->position->setCoords(sx + scale / 2, sy + 0.08);
-    barText->setPositionAlignment(Qt::AlignHCenter | Qt::AlignBottom);
+    barText->position->setCoords(sx, sy + 0.08);
+    barText->setPositionAlignment(Qt::AlignLeft | Qt::AlignBottom);
     barText->setText(log_ ? tr("one decade (×10)") : number(scale) + " " + unitLabel());
     barText->setFont(QFont(font().family(), 8));
 
     // Names inside segments wide enough to hold them.
-    plot_->replot(QCustomPlot::rpQueuedRefresh);
+    plot_->replot(QCustomPlot::rpImmediateRefresh);  // lays out the axis rect for coordToPixel
     const QFont labelFont(font().family(), 8);
     const QFontMetricsF fm(labelFont);
     for (const auto& d : drawn_) {
@@ -323,7 +336,7 @@ void LevelBarsPage::rebuild()
         label->position->setCoords((d.left + d.right) / 2, d.level);
         label->setText(name);
         label->setFont(labelFont);
-        const QColor fill = d.tinted ? kindColour(kind).lighter(140) : kindColour(kind);
+        const QColor fill = d.tinted ? tint(kindColour(kind)) : kindColour(kind);
         label->setColor(darkText(fill) ? Qt::black : Qt::white);
     }
     plot_->replot();
@@ -354,8 +367,11 @@ void LevelBarsPage::onMouseMove(QMouseEvent* event)
 
 void LevelBarsPage::renderFigure(QPaintDevice& device, QSize size, double scale)
 {
+    // Lay out at the figure size (a hidden widget gets no resize event, so set the
+    // viewport directly), draw, then go back to the on-screen layout.
     const QSize old = plot_->size();
     plot_->resize(size);
+    plot_->setViewport(QRect(QPoint(0, 0), size));
     rebuild();
     {
         QCPPainter painter(&device);
@@ -365,6 +381,7 @@ void LevelBarsPage::renderFigure(QPaintDevice& device, QSize size, double scale)
         plot_->toPainter(&painter, size.width(), size.height());
     }
     plot_->resize(old);
+    plot_->setViewport(QRect(QPoint(0, 0), old));
     rebuild();
 }
 
