@@ -75,7 +75,8 @@ std::string balanceSheetJson(const BalanceSheet& sheet)
             .field("z", r.z)
             .field("net_efficiency", r.netEfficiency)
             .field("rb", r.rb)
-            .field("pr", r.pr);
+            .field("pr", r.pr)
+            .field("residual", r.residual);
         if (r.kind == CompartmentKind::Detritus) {
             w.field("detritus_inflow", r.detritusInflow)
                 .field("detritus_consumption", r.detritusConsumption)
@@ -85,6 +86,7 @@ std::string balanceSheetJson(const BalanceSheet& sheet)
     }
     w.endArray();
     writeProblems(w, sheet.problems);
+    w.field("conditioning", sheet.conditioning);
     w.field("notice", kDecisionSupportNotice);
     w.endObject();
     return w.str();
