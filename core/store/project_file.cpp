@@ -531,11 +531,11 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
     // beside the project. Read-only media fall back to a read-only connection.
     auto openDb = [&](bool readOnly) -> sqlite3* {
         sqlite3* db = nullptr;
-        int rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOFOLLOW, nullptr);
+        int rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE, nullptr);
         if (rc != SQLITE_OK && readOnly) {
             sqlite3_close(db);
             db = nullptr;
-            rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READONLY | SQLITE_OPEN_NOFOLLOW, nullptr);
+            rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READONLY, nullptr);
         }
         if (rc != SQLITE_OK) {
             result.problems.push_back(fileProblem(path, "store-open-failed", "cannot be opened: " + sqliteError(db)));

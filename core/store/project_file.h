@@ -2,13 +2,19 @@
 // schema (see schema.h for the tables, the application id and the schema versions).
 //
 // Safety (SQLite "defensive" use): foreign keys ON, SQLITE_DBCONFIG_DEFENSIVE,
-// trusted_schema OFF, no extension loading, bound parameters only, WAL journal,
-// busy timeout. Every save is ONE transaction, so a crash leaves the previous state or
+// trusted_schema OFF, no extension loading, triggers and views disabled (the schema
+// has none, so SQL planted in a file never runs), bound parameters only, WAL journal
+// with synchronous FULL, busy timeout; read-only opens also set query_only. A file is
+// identified by its header bytes before SQLite touches it, and checked with
+// PRAGMA quick_check before use. Every save is ONE transaction, so a crash leaves the previous state or
 // the new one, never a mix. A file of an older schema is migrated on a read-write
 // open (in one transaction); a newer schema opens read-only with the reason; anything
 // that is not a Trophic Ledger project is refused and left untouched.
 //
-// Nothing here throws: every failure is a Problem whose message names the file.
+// Nothing here throws: every failure is a Problem whose location names the file
+// (Problem::describe() puts it first), with code "store-..." (e.g. store-not-project,
+// store-foreign-database, store-damaged, store-newer-version, store-busy,
+// store-read-only, store-duplicate-name, store-invalid-fraction).
 #pragma once
 
 #include <filesystem>
@@ -32,7 +38,7 @@ struct ProjectOpenResult {
     std::unique_ptr<ProjectFile> file;  // null when the file could not be opened
     Problems problems;                  // why not, or warnings (e.g. opened read-only)
     bool readOnly = false;
-    std::string readOnlyReason;         // e.g. "made by a newer version (schema 3; this program reads up to 2)"
+    std::string readOnlyReason;         // e.g. "made by a newer version of Trophic Ledger (schema 3; ...)"
 };
 
 template <typename T>
