@@ -85,7 +85,7 @@ TEST(CrashSafety, KilledSavesLeaveTheOldOrTheNewStateNeverAMix)
     const Project a = stateA(), b = stateB();
     ASSERT_TRUE(ProjectFile::create(path, a).file);
 
-    // Kill moments spread over about two saves, whatever this disk's fsync costs.
+    // The length of one save on this machine, to spread the kill moments over it.
     double saveUs = 0;
     {
         auto file = ProjectFile::open(path).file;
@@ -97,7 +97,8 @@ TEST(CrashSafety, KilledSavesLeaveTheOldOrTheNewStateNeverAMix)
     }
     constexpr int kKills = 200;
     std::mt19937 rng(424242);
-    std::uniform_int_distribution<int> delayUs(0, static_cast<int>(2.5 * saveUs) + 1000);
+    std::uniform_int_distribution<int> delayUs(0, static_cast<int>(1.5 * saveUs) + 200);
+    std::uniform_int_distribution<int> savesBeforeKill(0, 3);
     int seenA = 0, seenB = 0;
     const auto started = std::chrono::steady_clock::now();
     for (int kill = 0; kill < kKills; ++kill) {
@@ -111,15 +112,21 @@ TEST(CrashSafety, KilledSavesLeaveTheOldOrTheNewStateNeverAMix)
             if (!opened.file) _exit(3);
             const char byte = 1;
             if (write(ready[1], &byte, 1) != 1) _exit(4);
-            for (bool toB = true;; toB = !toB)
+            for (bool toB = true;; toB = !toB) {
                 if (!opened.file->save(toB ? b : a).empty()) _exit(5);
+                if (write(ready[1], &byte, 1) != 1) _exit(6);  // one byte per finished save
+            }
         }
         close(ready[1]);
+        // Wait until the child is ready and has finished 0 to 3 saves, then kill it at a
+        // random moment of the save that follows (or just after it): whatever the load of
+        // the machine, kills land in both kinds of save and at every stage of one.
         char byte = 0;
-        const bool childReady = read(ready[0], &byte, 1) == 1;
-        close(ready[0]);
+        bool childReady = read(ready[0], &byte, 1) == 1;
+        for (int done = savesBeforeKill(rng); childReady && done > 0; --done) childReady = read(ready[0], &byte, 1) == 1;
         std::this_thread::sleep_for(std::chrono::microseconds(delayUs(rng)));
         ::kill(child, SIGKILL);
+        close(ready[0]);
         int status = 0;
         waitpid(child, &status, 0);
         ASSERT_TRUE(childReady) << "child could not open the project (exit " << WEXITSTATUS(status) << ")";
