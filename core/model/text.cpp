@@ -28,8 +28,12 @@ std::string formatNumber(double v)
 {
     // std::to_chars gives the shortest text that reads back exactly, independent of
     // the C locale (the GUI sets one, and "%g" would then write a decimal comma).
+    // Plain decimals for the magnitudes people type (20, not 2e+01); exponent form
+    // only for very small or very large values.
     char buf[64];
-    const auto result = std::to_chars(buf, buf + sizeof buf, v);
+    const double a = std::fabs(v);
+    const auto format = (a == 0.0 || (a >= 1e-5 && a < 1e15)) ? std::chars_format::fixed : std::chars_format::scientific;
+    const auto result = std::to_chars(buf, buf + sizeof buf, v, format);
     return std::string(buf, result.ptr);
 }
 

@@ -31,6 +31,10 @@ TEST(FormatNumber, RoundTripsExactly)
     }
     EXPECT_EQ(formatNumber(0.1), "0.1");
     EXPECT_EQ(formatNumber(2.0), "2");
+    EXPECT_EQ(formatNumber(20.0), "20");
+    EXPECT_EQ(formatNumber(150000.0), "150000");
+    EXPECT_EQ(formatNumber(0.00025), "0.00025");
+    EXPECT_EQ(formatNumber(-1.5e-9), "-1.5e-09");
 }
 
 }  // namespace
