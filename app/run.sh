@@ -7,11 +7,11 @@ source "$(dirname "${BASH_SOURCE[0]}")/bootstrap.sh"
 tl_install_missing_packages
 tl_build
 
-sample="$TL_ROOT/sample_projects/reservoir"
+sample="$TL_ROOT/sample_projects/reservoir.tledger"
 gui="$TL_BUILD_DIR/app/gui/trophic-ledger"
 if [ -x "$gui" ] && [ -n "${DISPLAY:-}${WAYLAND_DISPLAY:-}" ]; then
   exec "$gui" "$@"
 fi
 echo "== No display: the sample reservoir's balance sheet (tledger solve) and checks (tledger check)"
-"$TL_BUILD_DIR/app/tledger" solve "$sample" || true
-"$TL_BUILD_DIR/app/tledger" check "$sample" || true
+"$TL_BUILD_DIR/app/tledger" solve "$sample" --scenario baseline || true
+"$TL_BUILD_DIR/app/tledger" check "$sample" --scenario baseline || true
