@@ -141,6 +141,10 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     layout->addLayout(filterRow);
     layout->addWidget(table_, 1);
     layout->addLayout(legendRow);
+    auto* notice = new QLabel(decisionSupportNotice(), this);
+    notice->setWordWrap(true);
+    notice->setStyleSheet(QStringLiteral("color: #555555;"));
+    layout->addWidget(notice);
 
     auto* copyAction = new QAction(tr("&Copy"), this);
     copyAction->setShortcut(QKeySequence::Copy);

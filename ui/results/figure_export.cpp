@@ -157,7 +157,9 @@ void ensureGuiApplication()
     static int argc = 1;
     static char name[] = "tledger";
     static char* argv[] = {name, nullptr};
-    static QApplication app(argc, argv);
+    // Deliberately never deleted: a static QApplication would be destroyed after other
+    // Qt globals at exit; the process ends right after the export anyway.
+    new QApplication(argc, argv);
 }
 
 std::optional<QString> exportScenarioFigure(const tl::Model& model, const tl::BalanceSheet& sheet,

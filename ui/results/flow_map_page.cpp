@@ -91,6 +91,15 @@ void FlowMapPage::setScenario(const tl::Model& model, const tl::BalanceSheet& sh
     }
 }
 
+void FlowMapPage::showEvent(QShowEvent* event)
+{
+    ResultsPage::showEvent(event);
+    if (!fitted_) {  // the first time the map is seen, show all of it
+        fitToView();
+        fitted_ = true;
+    }
+}
+
 void FlowMapPage::applySlider(int value)
 {
     const double lo = scene_->minFlow(), hi = scene_->maxFlow();

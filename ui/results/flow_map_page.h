@@ -50,6 +50,9 @@ public:
 signals:
     void positionsChanged();
 
+protected:
+    void showEvent(QShowEvent* event) override;
+
 private:
     void applySlider(int value);
 

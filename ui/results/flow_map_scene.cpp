@@ -373,6 +373,9 @@ void FlowMapScene::addLegend(double top)
     auto* area = addSimpleText(tr("Box area ∝ biomass; largest B = %1 %2 (smallest boxes at a legible minimum)")
                                    .arg(number(maxBiomass_), biomassUnit_), font);
     area->setPos(x, y2 - area->boundingRect().height() / 2);
+    auto* notice = addSimpleText(decisionSupportNotice(), font);
+    notice->setBrush(QColor(0x55, 0x55, 0x55));
+    notice->setPos(20, y2 + 18);
 }
 
 QRectF FlowMapScene::boxRect(std::size_t node) const

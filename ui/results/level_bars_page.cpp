@@ -90,6 +90,10 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     auto* subheading = new QCPTextElement(plot_, QString(), QFont(font().family(), 9));
     subheading->setMargins(QMargins(4, 0, 4, 10));
     plot_->plotLayout()->addElement(1, 0, subheading);
+    auto* notice = new QCPTextElement(plot_, decisionSupportNotice(), QFont(font().family(), 8));
+    notice->setTextColor(QColor(0x55, 0x55, 0x55));
+    notice->setMargins(QMargins(4, 6, 4, 4));
+    plot_->plotLayout()->addElement(3, 0, notice);
     plot_->xAxis->setTicks(false);
     plot_->xAxis->setTickLabels(false);
     plot_->xAxis->grid()->setVisible(false);

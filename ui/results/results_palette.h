@@ -31,6 +31,14 @@ QString kindLabel(CompartmentKind kind);  // "Producer", "Consumer", "Detritus p
 QIcon solvedIcon();
 inline QString solvedLegend() { return QStringLiteral("solved by the balance, not entered"); }
 
+// Printed under every exported figure and on the balance sheet (rules of the project:
+// results that could steer harvest or water decisions say so plainly).
+inline QString decisionSupportNotice()
+{
+    return QStringLiteral("Model output supports, and does not replace, stock assessment, local regulation "
+                          "and licensed professional judgement.");
+}
+
 // Status icons: a tick for no problem, and one shape per severity (cross, triangle, "i").
 QIcon statusIcon(std::optional<Severity> worst);
 QString severityLabel(Severity s);  // "Error", "Warning", "Note"
