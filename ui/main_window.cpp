@@ -75,14 +75,18 @@ MainWindow::MainWindow(const MainWindowOptions& options, QWidget* parent) : QMai
     row->setSpacing(0);
     rail_ = new QListWidget(centre);
     rail_->setObjectName(QStringLiteral("pageRail"));
-    rail_->setFixedWidth(156);
+    rail_->setFixedWidth(178);
+    rail_->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     rail_->setIconSize(QSize(18, 18));
     stack_ = new QStackedWidget(centre);
     row->addWidget(rail_);
     row->addWidget(stack_, 1);
     setCentralWidget(centre);
     connect(rail_, &QListWidget::currentRowChanged, this, [this](int i) {
-        if (i >= 0) stack_->setCurrentIndex(i);
+        if (i < 0) return;
+        stack_->setCurrentIndex(i);
+        // Data confidence belongs to the Compartments table; other pages get the room.
+        if (confidenceDock_) confidenceDock_->setVisible(stack_->currentWidget() == compartments_);
     });
 
     checks_ = new ChecksPanel(this);
@@ -209,7 +213,7 @@ void MainWindow::buildDocks()
         return d;
     };
     auto* shelfDock = dock(shelf_, tr("Scenarios"), QStringLiteral("scenarioDock"), Qt::LeftDockWidgetArea);
-    auto* confDock = dock(confidence_, tr("Data confidence"), QStringLiteral("confidenceDock"), Qt::RightDockWidgetArea);
+    auto* confDock = confidenceDock_ = dock(confidence_, tr("Data confidence"), QStringLiteral("confidenceDock"), Qt::RightDockWidgetArea);
     auto* checksDock = dock(checks_, tr("Checks"), QStringLiteral("checksDock"), Qt::BottomDockWidgetArea);
     resizeDocks({shelfDock}, {180}, Qt::Horizontal);
     resizeDocks({confDock}, {220}, Qt::Horizontal);
@@ -595,7 +599,7 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
         return written;
     }
     if (!isVisible()) {
-        resize(1400, 880);
+        resize(1600, 1000);
         show();
     }
     runner_->waitForIdle();

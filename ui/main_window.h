@@ -124,6 +124,7 @@ private:
     ConfidencePanel* confidence_;
     ScenarioShelf* shelf_;
 
+    class QDockWidget* confidenceDock_ = nullptr;
     QLabel* statusIcon_;
     QLabel* statusText_;
     QLabel* templateNote_;

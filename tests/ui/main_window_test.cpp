@@ -1,7 +1,10 @@
 // The workbench window (ui/main_window.*): opens a project, solves live, lists checks
 // that lead to their cell, runs scenario operations through undo, and renders every
 // page to a non-blank image (the --snapshot path).
+#include <QApplication>
+#include <QClipboard>
 #include <QDir>
+#include <QSignalSpy>
 #include <QFileInfo>
 #include <QImage>
 #include <QTemporaryDir>
@@ -125,6 +128,51 @@ private slots:
         doc->undoStack()->undo();
         QCOMPARE(doc->project().scenarios.size(), std::size_t(2));
         QCOMPARE(doc->undoStack()->undoText(), QStringLiteral("Rename scenario %1 to Reference").arg(QString::fromStdString(base)));
+    }
+
+    void slowSolvesRunInTheBackgroundAndOnlyTheNewestResultArrives()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
+        w.runner()->waitForIdle();
+        w.runner()->setInlineLimitMs(-1.0);  // treat every solve as slow
+        QSignalSpy started(w.runner(), &tl::ui::BalanceRunner::started);
+        int solved = 0;
+        connect(w.runner(), &tl::ui::BalanceRunner::solved, this, [&solved] { ++solved; });
+        auto* table = w.compartmentsPage()->compartments();
+        const int b = tl::ui::CompartmentTableModel::columnOf(tl::Param::Biomass);
+        QVERIFY(table->setData(table->index(3, b), QStringLiteral("0.7")));
+        QVERIFY(table->setData(table->index(3, b), QStringLiteral("0.75")));  // while the first may still run
+        QCOMPARE(started.count() >= 1, true);
+        w.runner()->waitForIdle();
+        QCOMPARE(solved, 1);  // the first, stale result was dropped
+        QCOMPARE(w.lastOutcome().sheet.rows[3].biomass, 0.75);  // the newest inputs, not a stale result
+        QVERIFY(w.lastOutcome().inBackground);
+    }
+
+    void keyboardPasteDeleteAndFillDownInATable()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
+        w.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&w));
+        tl::ui::LedgerTableView* view = w.compartmentsPage()->view();
+        const int bcol = tl::ui::CompartmentTableModel::columnOf(tl::Param::Biomass);
+        view->goToCell(1, bcol);
+        QApplication::clipboard()->setText(QStringLiteral("13\n4\n"));
+        QTest::keySequence(view, QKeySequence::Paste);
+        const tl::Model& m = w.document()->model();
+        QCOMPARE(*m.compartment(1).value(tl::Param::Biomass), 13.0);
+        QCOMPARE(*m.compartment(2).value(tl::Param::Biomass), 4.0);
+        view->goToCell(2, bcol);
+        QTest::keyClick(view, Qt::Key_Delete);
+        QVERIFY(!w.document()->model().compartment(2).value(tl::Param::Biomass).has_value());
+        view->goToCell(2, bcol);
+        QTest::keyClick(view, Qt::Key_D, Qt::ControlModifier);  // takes the value above
+        QCOMPARE(*w.document()->model().compartment(2).value(tl::Param::Biomass), 13.0);
+        QCOMPARE(w.document()->undoStack()->count(), 3);
     }
 
     void snapshotOfTheSampleGivesNonBlankImagesForEveryPage()

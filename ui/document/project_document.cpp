@@ -64,9 +64,10 @@ bool readCsvProject(const QString& folder, tl::Project* out, QString* error)
     return true;
 }
 
-bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason)
+bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason, bool readOnly)
 {
-    tl::ProjectOpenResult opened = tl::ProjectFile::open(toPath(path), tl::OpenMode::ReadOnly);
+    tl::ProjectOpenResult opened =
+        tl::ProjectFile::open(toPath(path), readOnly ? tl::OpenMode::ReadOnly : tl::OpenMode::ReadWrite);
     if (!opened.file) {
         if (error) *error = ProjectDocument::describeProblems(opened.problems);
         if (error && error->isEmpty()) *error = QObject::tr("Could not open %1.").arg(path);
@@ -78,7 +79,8 @@ bool readProjectFile(const QString& path, tl::Project* out, QString* error, QStr
         return false;
     }
     if (loaded.value->scenarios.empty()) loaded.value->scenarios.push_back(emptyScenario(QObject::tr("Base")));
-    if (readOnlyReason) *readOnlyReason = QString::fromStdString(opened.readOnlyReason);
+    if (readOnlyReason && !readOnly && opened.readOnly)
+        *readOnlyReason = QString::fromStdString(opened.readOnlyReason.empty() ? "read-only" : opened.readOnlyReason);
     *out = std::move(*loaded.value);
     return true;
 }
@@ -161,7 +163,7 @@ bool ProjectDocument::open(const QString& path, QString* error, bool asTemplate)
             if (error) *error = tr("%1 does not exist.").arg(path);
             return false;
         }
-        if (!readProjectFile(path, &p, error, &readOnlyReason)) return false;
+        if (!readProjectFile(path, &p, error, &readOnlyReason, asTemplate)) return false;
     }
     templateReason_.clear();
     if (asTemplate) {

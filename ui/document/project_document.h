@@ -90,7 +90,10 @@ private:
 // Reads a CSV folder into a one-scenario project named after the folder.
 bool readCsvProject(const QString& folder, tl::Project* out, QString* error);
 // Reads a whole .tledger file; `readOnlyReason` is set when it can only be read.
-bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason);
+// A file that can only be read (newer schema, no write permission) sets the reason;
+// `readOnly` opens it without ever writing (no migration), as for templates.
+bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason,
+                     bool readOnly = false);
 // Writes `project` to `path` atomically (new file beside it, then rename).
 bool writeProjectFile(const tl::Project& project, const QString& path, QString* error);
 

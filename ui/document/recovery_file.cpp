@@ -140,7 +140,7 @@ bool RecoveryKeeper::recover(const RecoveryEntry& entry, ProjectDocument* doc, Q
 {
     tl::Project p;
     QString readOnly;
-    if (!readProjectFile(entry.recoveryFile, &p, error, &readOnly)) return false;
+    if (!readProjectFile(entry.recoveryFile, &p, error, &readOnly, true)) return false;
     auto origin = ProjectDocument::Origin(std::clamp(entry.origin, 0, 3));
     QString path = entry.originalPath;
     // Only a project file can be saved back in place; anything else asks for a name.

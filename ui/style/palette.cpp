@@ -40,7 +40,7 @@ QIcon kindIcon(tl::CompartmentKind kind)
     return QIcon(pm);
 }
 
-QString kindLabel(tl::CompartmentKind kind)
+QString kindName(tl::CompartmentKind kind)
 {
     switch (kind) {
     case tl::CompartmentKind::Producer: return QObject::tr("Producer");
@@ -61,7 +61,7 @@ QIcon severityIcon(tl::Severity s)
     return {};
 }
 
-QString severityLabel(tl::Severity s)
+QString severityName(tl::Severity s)
 {
     switch (s) {
     case tl::Severity::Error: return QObject::tr("Error");

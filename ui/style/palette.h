@@ -25,10 +25,10 @@ inline const QColor reddishPurple{0xCC, 0x79, 0xA7};
 
 QColor kindColor(tl::CompartmentKind kind);   // producer green, consumer blue, detritus orange
 QIcon kindIcon(tl::CompartmentKind kind);     // a small swatch, always shown with the kind's name
-QString kindLabel(tl::CompartmentKind kind);  // "Producer", "Consumer", "Detritus pool"
+QString kindName(tl::CompartmentKind kind);  // "Producer", "Consumer", "Detritus pool"
 
 QIcon severityIcon(tl::Severity s);
-QString severityLabel(tl::Severity s);  // "Error", "Warning", "Note"
+QString severityName(tl::Severity s);  // "Error", "Warning", "Note"
 QIcon statusIcon(tl::BalanceStatus s);
 QString statusLabel(tl::BalanceStatus s);  // "Balanced", "Not balanced", "Cannot be solved"
 QIcon okIcon();

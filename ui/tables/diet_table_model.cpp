@@ -78,7 +78,7 @@ QVariant DietTableModel::headerData(int section, Qt::Orientation orientation, in
     }
     if (role == Qt::DecorationRole && section < int(m.size())) return kindIcon(m.compartment(std::size_t(section)).kind);
     if (role == Qt::ToolTipRole) {
-        if (section < int(m.size())) return tr("Prey: %1 (%2)").arg(qs(m.compartment(std::size_t(section)).name), kindLabel(m.compartment(std::size_t(section)).kind).toLower());
+        if (section < int(m.size())) return tr("Prey: %1 (%2)").arg(qs(m.compartment(std::size_t(section)).name), kindName(m.compartment(std::size_t(section)).kind).toLower());
         if (section == importColumn()) return tr("Food taken outside the modelled area");
         if (section == sumColumn()) return tr("Each predator's diet should sum to 1");
     }

@@ -65,7 +65,7 @@ void ChecksPanel::setProblems(const tl::Problems& problems)
         ++counts[int(p.severity)];
         auto* item = new QTreeWidgetItem(tree_);
         item->setIcon(0, severityIcon(p.severity));
-        item->setText(0, severityLabel(p.severity));
+        item->setText(0, severityName(p.severity));
         item->setText(1, whereText(p));
         QString text = QString::fromStdString(p.message);
         if (!p.hint.empty()) text += QLatin1Char('\n') + QString::fromStdString(p.hint);

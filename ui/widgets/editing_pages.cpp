@@ -45,7 +45,7 @@ void EditingPage::fitColumns()
 {
     view_->resizeColumnsToContents();
     for (int c = 0; c < view_->model()->columnCount(); ++c)
-        view_->setColumnWidth(c, std::clamp(view_->columnWidth(c), 72, 240));
+        view_->setColumnWidth(c, std::clamp(view_->columnWidth(c), minWidth_, maxWidth_));
 }
 
 namespace {
@@ -127,6 +127,7 @@ DietPage::DietPage(ProjectDocument* doc, QWidget* parent)
                   parent)
 {
     model_ = new DietTableModel(doc, this);
+    setColumnBounds(64, 104);  // prey names wrap in the header: more prey fit on screen
     auto* normalise = addButton(actions(), this, tr("Normalise this row"), tr("Scale the current predator's diet so that it sums to 1"));
     hideUnused_ = new QCheckBox(tr("Hide prey no predator eats"), this);
     actions()->addWidget(hideUnused_);
@@ -158,6 +159,7 @@ void DietPage::updateHiddenColumns()
         const bool preyColumn = c < int(used.size());
         view()->setColumnHidden(c, hideUnused_->isChecked() && preyColumn && !used[std::size_t(c)]);
     }
+    view()->setColumnWidth(model_->sumColumn(), 190);
 }
 
 // --- Harvest ---------------------------------------------------------------------------

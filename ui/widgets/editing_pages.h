@@ -34,11 +34,13 @@ protected:
     void setTableModel(ScenarioTableModel* model);
     // Columns as wide as their content, within bounds (after every reset of the table).
     void fitColumns();
+    void setColumnBounds(int minWidth, int maxWidth) { minWidth_ = minWidth, maxWidth_ = maxWidth; }
     QHBoxLayout* actions() const { return actions_; }
     ProjectDocument* doc_;
 
 private:
     QString title_, key_;
+    int minWidth_ = 72, maxWidth_ = 240;
     QHBoxLayout* actions_;
     LedgerTableView* view_;
 };
