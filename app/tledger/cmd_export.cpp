@@ -1,4 +1,6 @@
 // tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH
+// tledger export MODEL [--scenario NAME] --format svg|png|pdf --view level-bars|flow-map
+//                [--dpi N] --out PATH          (figures; only in builds with the GUI)
 // (DESIGN 5.2). MODEL is a CSV model folder or a .tledger project.
 //   csv   the scenario as a CSV model folder (DESIGN 5.1, plus confidence/settings files)
 //   json  the project: information, every scenario (or the one named) with its inputs
@@ -26,6 +28,9 @@
 #include "core/network/flow_network.h"
 #include "core/store/project_file.h"
 #include "core/store/project_json.h"
+#ifdef TL_HAVE_FIGURES
+#include "ui/results/figure_export_cli.h"
+#endif
 
 namespace tl::cli {
 namespace {
@@ -257,20 +262,58 @@ int exportHtml(const Project& project, const fs::path& out)
     return 0;
 }
 
+bool isFigureFormat(const std::string& format) { return format == "svg" || format == "png" || format == "pdf"; }
+
+// Renders one results view of the solved scenario (the chart code lives in ui/results).
+int exportFigure(const Scenario& scenario, const ParsedOptions& opts, const std::string& format, const fs::path& out)
+{
+#ifdef TL_HAVE_FIGURES
+    const auto view = opts.value("--view");
+    if (!view) {
+        std::cerr << "tledger export: --format " << format << " needs --view level-bars|flow-map\n";
+        return 2;
+    }
+    ui::CliFigureRequest request;
+    request.view = *view;
+    request.format = format;
+    request.path = out.string();
+    if (const auto dpi = opts.value("--dpi")) {
+        const auto parsed = parseNumber(*dpi);
+        if (!parsed || *parsed < 30 || *parsed > 2400 || *parsed != std::floor(*parsed)) {
+            std::cerr << "tledger export: --dpi '" << *dpi << "' is not a whole number between 30 and 2400\n";
+            return 2;
+        }
+        request.dpi = static_cast<int>(*parsed);
+    }
+    const BalanceSheet sheet = solveBalance(scenario.model);
+    const std::string error = ui::exportFigureForCli(scenario.model, sheet, request);
+    if (!error.empty()) {
+        std::cerr << "tledger export: " << error << '\n';
+        return 2;
+    }
+    return 0;
+#else
+    (void)scenario, (void)opts, (void)out;
+    std::cerr << "tledger export: --format " << format << " needs a build with the GUI (TL_BUILD_GUI=ON)\n";
+    return 2;
+#endif
+}
+
 }  // namespace
 
 int cmdExport(const Args& args)
 {
-    const auto opts = parseOptions(args, {"--scenario", "--format", "--out"}, {}, "export", std::cerr);
+    const auto opts = parseOptions(args, {"--scenario", "--format", "--out", "--view", "--dpi"}, {}, "export", std::cerr);
     if (!opts) return 2;
     const auto format = opts->value("--format");
     const auto out = opts->value("--out");
     if (opts->positional.size() != 1 || !format || !out || out->empty()) {
-        std::cerr << "tledger export: usage: tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH\n";
+        std::cerr << "tledger export: usage: tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH\n"
+                     "       tledger export MODEL [--scenario NAME] --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH\n";
         return 2;
     }
-    if (*format != "csv" && *format != "json" && *format != "scor" && *format != "html") {
-        std::cerr << "tledger export: unknown --format '" << *format << "' (expected csv, json, scor or html)\n";
+    if (*format != "csv" && *format != "json" && *format != "scor" && *format != "html" && !isFigureFormat(*format)) {
+        std::cerr << "tledger export: unknown --format '" << *format << "' (expected csv, json, scor, html, svg, png or pdf)\n";
         return 2;
     }
     const fs::path model = opts->positional[0];
@@ -285,7 +328,8 @@ int cmdExport(const Args& args)
     } else {
         const Scenario* scenario = singleScenario(*project, model);
         if (!scenario) return 2;
-        code = *format == "csv" ? exportCsv(*scenario, *out) : exportScor(*project, *scenario, *out);
+        if (isFigureFormat(*format)) code = exportFigure(*scenario, *opts, *format, *out);
+        else code = *format == "csv" ? exportCsv(*scenario, *out) : exportScor(*project, *scenario, *out);
     }
     if (code == 0) std::cout << "wrote " << *out << '\n';
     return code;

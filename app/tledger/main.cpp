@@ -17,6 +17,7 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
             --scor FILE [--json]               the same indicators for a SCOR flow network
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
+            MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
 
 MODEL is a CSV model folder (compartments.csv, diet.csv, ...) or a .tledger project.
 Exit codes: 0 success, 1 model problems reported, 2 bad input or usage.
