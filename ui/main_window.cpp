@@ -37,6 +37,9 @@
 #if TL_UI_HAVE_RESULTS
 #include "ui/results/results_pages.h"
 #endif
+#if TL_UI_HAVE_ANALYSIS
+#include "ui/analysis/analysis_pages.h"
+#endif
 
 namespace tl::ui {
 namespace {
@@ -190,6 +193,9 @@ void MainWindow::buildPages()
     });
 #if TL_UI_HAVE_RESULTS
     resultsPages_ = createResultsPages(stack_);
+#if TL_UI_HAVE_ANALYSIS
+    for (ResultsPage* p : createAnalysisPages(stack_)) resultsPages_.push_back(p);
+#endif
     for (ResultsPage* p : resultsPages_) {
         addPage(p, p->title(), p->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
         connect(p, &ResultsPage::compartmentActivated, this, [this](const QString& name) {

@@ -50,6 +50,7 @@ void BalanceRunner::request(const tl::Model& model)
 
 void BalanceRunner::startBackground(const tl::Model& model)
 {
+    awaitingDelivery_ = true;
     emit started();
     watcher_.setFuture(QtConcurrent::run([m = model]() {
         SolveOutcome out = solveAndCheck(m);
@@ -68,14 +69,17 @@ void BalanceRunner::onFinished()
         startBackground(next);  // stale result dropped; the newest inputs are being solved
         return;
     }
+    awaitingDelivery_ = false;
     emit solved(out);
 }
 
 void BalanceRunner::waitForIdle()
 {
-    while (watcher_.isRunning() || pending_) {
+    // The watcher reports "finished" through the event loop: keep it turning until the
+    // newest result has actually been delivered.
+    while (awaitingDelivery_ || pending_) {
         watcher_.waitForFinished();
-        QCoreApplication::processEvents();
+        QCoreApplication::processEvents(QEventLoop::AllEvents, 20);
     }
 }
 

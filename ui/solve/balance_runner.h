@@ -50,6 +50,7 @@ private:
     QFutureWatcher<SolveOutcome> watcher_;
     std::optional<tl::Model> pending_;
     double lastMs_ = 0.0;
+    bool awaitingDelivery_ = false;  // a background solve's result is yet to be emitted
     double inlineLimitMs_ = 5.0;
 };
 
