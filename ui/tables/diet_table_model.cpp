@@ -68,6 +68,11 @@ QVariant DietTableModel::headerData(int section, Qt::Orientation orientation, in
     if (orientation == Qt::Vertical) {
         if (section < 0 || section >= int(predators_.size())) return {};
         if (role == Qt::DisplayRole) return qs(m.compartment(predators_[std::size_t(section)]).name);
+        if (role == Qt::DecorationRole) {
+            // The row's sum status also at its start, so it shows on wide matrices without scrolling.
+            const double sum = m.dietRowSum(predators_[std::size_t(section)]);
+            return std::abs(sum - 1.0) <= m.rules.dietSumTolerance ? okIcon() : severityIcon(tl::Severity::Warning);
+        }
         if (role == Qt::ToolTipRole) return tr("Diet of %1: fractions of its food, summing to 1").arg(qs(m.compartment(predators_[std::size_t(section)]).name));
         return {};
     }
