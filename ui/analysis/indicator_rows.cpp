@@ -1,0 +1,79 @@
+#include "ui/analysis/indicator_rows.h"
+
+#include <QObject>
+#include <cmath>
+
+namespace tl::ui {
+
+std::vector<IndicatorRow> indicatorRows(const ScenarioAnalysis& a)
+{
+    const SystemIndicators& s = a.indicators;
+    const QString flow = QString::fromStdString(a.units.flow());
+    const QString stock = QString::fromStdString(a.units.biomass());
+    const QString rate = QString::fromStdString(a.units.rate());
+    const QString none = QObject::tr("dimensionless");
+    const QString flowBits = flow + QStringLiteral(" · bits");
+    const auto tr = [](const char* text) { return QObject::tr(text); };
+    return {
+        {"tst", tr("Total system throughput (TST)"), s.tst, flow,
+         tr("Sum over compartments of their throughflow (inflows + imports) (Finn 1976, J Theor Biol 56:363)")},
+        {"tstp", tr("Throughput with boundary flows (TSTp)"), s.tstp, flow,
+         tr("Every flow: internal flows, imports, exports and respiration (Ulanowicz 1986, Growth and Development)")},
+        {"boundary_input", tr("Boundary input"), s.boundaryInput, flow,
+         tr("All imports into the system, primary production of producers included (Finn 1976)")},
+        {"total_primary_production", tr("Total primary production (TPP)"), s.totalPrimaryProduction, flow,
+         tr("Net production of the producers, P (DESIGN.md 3.5)")},
+        {"total_respiration", tr("Total respiration (R)"), s.totalRespiration, flow,
+         tr("Respiration of the consumers, Q (1 − U) − P; producers enter with net production (DESIGN.md 3.5)")},
+        {"tpp_over_r", tr("TPP / R"), s.tppOverR, none,
+         tr("Primary production over respiration; tends towards 1 as systems mature (Odum 1969, Science 164:262)")},
+        {"tpp_over_b", tr("TPP / B"), s.tppOverB, rate,
+         tr("Primary production over living biomass; falls as systems mature (Odum 1969)")},
+        {"total_biomass", tr("Total living biomass (B)"), s.totalLivingBiomass, stock,
+         tr("Biomass of producers and consumers; detritus pools left out (DESIGN.md 3.5)")},
+        {"links", tr("Links"), static_cast<double>(s.links), tr("count"),
+         tr("Non-zero flows between compartments, cannibal loops counted (DESIGN.md 3.5)")},
+        {"connectance", tr("Connectance"), s.connectance, none,
+         tr("Links / n², n compartments (DESIGN.md 3.5; common practice, no source)")},
+        {"system_omnivory", tr("System omnivory index"), s.systemOmnivory, none,
+         tr("Intake-weighted mean of the consumers' omnivory index (Pauly et al. 1993; weighting: this project's)")},
+        {"fci", tr("Finn cycling index (FCI)"), s.fci, none,
+         tr("Share of the throughput that is recycled (Finn 1976)")},
+        {"apl", tr("Average path length (APL)"), s.apl, none,
+         tr("TST / boundary input: compartments an inflowing unit passes on average (Finn 1976)")},
+        {"ami", tr("Average mutual information (AMI)"), s.ami, tr("bits"),
+         tr("How constrained the flows are, log base 2 over the flows with boundary terms (Ulanowicz 1986, 2004)")},
+        {"ascendency", tr("Ascendency"), s.ascendency, flowBits,
+         tr("TSTp × AMI: size and organisation of the network together (Ulanowicz 1986)")},
+        {"capacity", tr("Development capacity"), s.capacity, flowBits,
+         tr("TSTp × flow diversity: the upper bound of ascendency (Ulanowicz 1986)")},
+        {"overhead", tr("Overhead"), s.overhead, flowBits,
+         tr("Development capacity − ascendency: the reserve of flexibility (Ulanowicz 1986)")},
+        {"mean_te", tr("Mean transfer efficiency, levels II–IV"), a.levels.combined.meanTe, none,
+         tr("Geometric mean of the transfer efficiency of levels II, III and IV, all food chains "
+            "(Lindeman 1942, Ecology 23:399; the mean: common practice, no source)")},
+        {"total_catch", tr("Total catch"), s.totalCatch, flow,
+         tr("Landings plus dead discards of every fleet (DESIGN.md 3.5; Model::totalCatch)"), true},
+        {"catch_ppr", tr("Primary production required by the catch (PPR)"), s.catchPpr, flow,
+         tr("Primary production (and detritus) needed to produce the catch (Pauly & Christensen 1995, Nature 374:255)"),
+         true},
+        {"catch_ppr_share_of_tpp", tr("PPR of the catch / TPP"), s.catchPprShareOfTpp, none,
+         tr("Share of the primary production that the catch requires (Pauly & Christensen 1995)"), true},
+        {"catch_mean_tl", tr("Mean trophic level of the catch"), s.catchMeanTl, tr("trophic level"),
+         tr("Catch-weighted mean trophic level of the harvested compartments (Pauly & Christensen 1995)"), true},
+    };
+}
+
+QString displayIndicatorValue(const IndicatorRow& row)
+{
+    const double v = row.value;
+    if (!std::isfinite(v)) return QStringLiteral("–");
+    if (row.key == QLatin1String("links")) return QString::number(static_cast<qlonglong>(std::llround(v)));
+    const double magnitude = std::abs(v);
+    if (magnitude == 0) return QStringLiteral("0");
+    if (magnitude >= 1e7 || magnitude < 1e-4) return QString::number(v, 'g', 4);
+    const int digits = std::max(0, 3 - static_cast<int>(std::floor(std::log10(magnitude))));
+    return QString::number(v, 'f', digits);
+}
+
+}  // namespace tl::ui
