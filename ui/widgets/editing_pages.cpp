@@ -172,6 +172,7 @@ HarvestPage::HarvestPage(ProjectDocument* doc, QWidget* parent)
                   parent)
 {
     model_ = new HarvestTableModel(doc, this);
+    setColumnBounds(72, 150);  // long "fleet / landings (unit)" headers wrap
     auto* add = addButton(actions(), this, tr("Add fleet"), tr("Add a fleet (three columns: landings, discards, surviving share)"));
     auto* rename = addButton(actions(), this, tr("Rename fleet"), tr("Rename the fleet of the current column"));
     auto* remove = addButton(actions(), this, tr("Remove fleet"), tr("Remove the fleet of the current column"));
