@@ -210,7 +210,7 @@ QSize ImpactMatrixPage::figureSize() const
     int nameWidth = 60;
     for (int r = 0; r < model_->rowCount(); ++r) nameWidth = std::max(nameWidth, fm.horizontalAdvance(model_->name(model_->matrixRow(r))) + 30);
     const int n = model_->rowCount();
-    return {std::max(640, nameWidth + n * kCell + 40), 90 + nameWidth + n * 24 + 110};
+    return {std::max(640, nameWidth + n * kCell + 40), 40 + nameWidth + n * 24 + 100};
 }
 
 void ImpactMatrixPage::renderFigure(QPaintDevice& device, QSize size, double scale)

@@ -8,6 +8,7 @@
 #include <QLabel>
 #include <QMenu>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSplitter>
 #include <QStandardItemModel>
 #include <QTableView>
@@ -34,6 +35,7 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
     view_->verticalHeader()->setVisible(false);
     view_->horizontalHeader()->setStretchLastSection(true);
     view_->setWordWrap(false);
+    view_->verticalHeader()->setDefaultSectionSize(view_->fontMetrics().height() + 8);
 
     auto* copy = new QAction(tr("Copy as text"), this);
     copy->setShortcut(QKeySequence::Copy);
@@ -55,8 +57,9 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
     bar->addWidget(status_, 1);
     bar->addWidget(copyButton);
     topLayout->addLayout(bar);
-    topLayout->addWidget(view_, 1);
+    topLayout->addWidget(view_);
     topLayout->addWidget(notice_);
+    topLayout->addStretch(1);
 
     plot_->setBackground(Qt::white);
     plot_->setContextMenuPolicy(Qt::CustomContextMenu);
@@ -67,7 +70,13 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
     plot_->yAxis->setSubTicks(false);
     plot_->yAxis->setTickLength(0, 0);
     plot_->legend->setVisible(true);
-    plot_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignBottom | Qt::AlignLeft);
+    // Legend in a row of its own under the axis: bars of any length stay uncovered.
+    plot_->axisRect()->insetLayout()->take(plot_->legend);
+    plot_->plotLayout()->addElement(2, 0, plot_->legend);
+    plot_->plotLayout()->setRowStretchFactor(2, 0.001);
+    plot_->legend->setFillOrder(QCPLegend::foColumnsFirst);
+    plot_->legend->setBorderPen(Qt::NoPen);
+    plot_->legend->setMargins(QMargins(4, 0, 4, 4));
     connect(plot_, &QWidget::customContextMenuRequested, this, [this](QPoint at) {
         QMenu menu(this);
         addFigureExportActions(menu, *this, this);
@@ -76,9 +85,14 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
 
     auto* splitter = new QSplitter(Qt::Vertical, this);
     splitter->addWidget(top);
-    splitter->addWidget(plot_);
-    splitter->setStretchFactor(0, 3);
-    splitter->setStretchFactor(1, 2);
+    // One readable row per bar: the chart grows with the web and scrolls inside its pane.
+    auto* chartScroll = new QScrollArea(this);
+    chartScroll->setWidgetResizable(true);
+    chartScroll->setFrameShape(QFrame::NoFrame);
+    chartScroll->setWidget(plot_);
+    splitter->addWidget(chartScroll);
+    splitter->setStretchFactor(0, 0);
+    splitter->setStretchFactor(1, 1);
     auto* layout = new QVBoxLayout(this);
     layout->addWidget(splitter);
 
@@ -113,6 +127,8 @@ void IndicatorsPage::display(std::shared_ptr<const ScenarioAnalysis> analysis)
         table_->appendRow({name, value, unit, definition});
     }
     view_->resizeColumnsToContents();
+    view_->setMaximumHeight(view_->horizontalHeader()->height() + 2 * view_->frameWidth() + 4 +
+                            view_->verticalHeader()->defaultSectionSize() * std::max(1, table_->rowCount()));
     view_->horizontalHeader()->setStretchLastSection(true);
     notice_->setVisible(analysis_ != nullptr);
     status_->setText(!analysis ? tr("No scenario yet.")
@@ -167,6 +183,7 @@ void IndicatorsPage::rebuildPlot()
         hi = std::max(hi, b.keystoneIndex);
     }
     plot_->yAxis->setTicker(ticker);
+    plot_->setMinimumHeight(130 + 20 * static_cast<int>(bars_.size()));
     plot_->yAxis->setRange(0.3, bars_.size() + 0.7);
     const double pad = std::max(0.1, 0.06 * (hi - lo));
     plot_->xAxis->setRange(lo - pad, hi + pad);
@@ -195,7 +212,7 @@ QString IndicatorsPage::tabSeparatedText() const
 
 void IndicatorsPage::copyToClipboard() const { QApplication::clipboard()->setText(tabSeparatedText()); }
 
-QSize IndicatorsPage::figureSize() const { return {820, std::max(320, 120 + 26 * static_cast<int>(bars_.size()))}; }
+QSize IndicatorsPage::figureSize() const { return {820, std::max(320, 130 + 22 * static_cast<int>(bars_.size()))}; }
 
 void IndicatorsPage::renderFigure(QPaintDevice& device, QSize size, double scale)
 {

@@ -249,12 +249,20 @@ void ImpactMatrixTest::pngExportIsNotBlank()
     QVERIFY(!exportFigure(page, FigureFormat::Svg, dir.filePath("impact.svg")));
     QVERIFY(QFileInfo(dir.filePath("impact.svg")).size() > 1000);
 
+    // For a look (not a check): TL_ANALYSIS_SNAPSHOT_DIR=dir, optionally
+    // TL_ANALYSIS_SNAPSHOT_MODEL=<CSV model folder> to show another scenario.
     if (const QByteArray out = qgetenv("TL_ANALYSIS_SNAPSHOT_DIR"); !out.isEmpty()) {
-        exportFigure(page, FigureFormat::Png, QString(out) + "/impact_figure.png", FigureOptions{96, {}});
-        page.resize(1300, 800);
-        page.show();
+        const QByteArray folder = qgetenv("TL_ANALYSIS_SNAPSHOT_MODEL");
+        const auto other = folder.isEmpty() ? std::nullopt : tl::readCsvModel(folder.toStdString()).model;
+        const tl::Model& shown = other ? *other : model;
+        ImpactMatrixPage snapshot;
+        snapshot.setScenario(shown, tl::solveBalance(shown));
+        const QString prefix = QString(out) + "/" + (other ? QFileInfo(QString(folder)).fileName() + "_" : QString());
+        exportFigure(snapshot, FigureFormat::Png, prefix + "impact_figure.png", FigureOptions{96, {}});
+        snapshot.resize(1300, 800);
+        snapshot.show();
         QTest::qWait(50);
-        page.grab().save(QString(out) + "/impact_page.png");
+        snapshot.grab().save(prefix + "impact_page.png");
     }
 }
 

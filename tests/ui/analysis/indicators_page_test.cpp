@@ -205,12 +205,20 @@ void IndicatorsTest::pngExportIsNotBlank()
         }
     QVERIFY2(bar > 200 && dark > 100, qPrintable(QString("%1 %2").arg(bar).arg(dark)));
 
+    // For a look (not a check): TL_ANALYSIS_SNAPSHOT_DIR=dir, optionally
+    // TL_ANALYSIS_SNAPSHOT_MODEL=<CSV model folder> to show another scenario.
     if (const QByteArray out = qgetenv("TL_ANALYSIS_SNAPSHOT_DIR"); !out.isEmpty()) {
-        exportFigure(page, FigureFormat::Png, QString(out) + "/keystone_figure.png", FigureOptions{96, {}});
-        page.resize(1300, 900);
-        page.show();
+        const QByteArray folder = qgetenv("TL_ANALYSIS_SNAPSHOT_MODEL");
+        const auto other = folder.isEmpty() ? std::nullopt : tl::readCsvModel(folder.toStdString()).model;
+        const tl::Model& shown = other ? *other : model;
+        IndicatorsPage snapshot;
+        snapshot.setScenario(shown, tl::solveBalance(shown));
+        const QString prefix = QString(out) + "/" + (other ? QFileInfo(QString(folder)).fileName() + "_" : QString());
+        exportFigure(snapshot, FigureFormat::Png, prefix + "keystone_figure.png", FigureOptions{96, {}});
+        snapshot.resize(1300, 900);
+        snapshot.show();
         QTest::qWait(50);
-        page.grab().save(QString(out) + "/indicators_page.png");
+        snapshot.grab().save(prefix + "indicators_page.png");
     }
 }
 
