@@ -127,8 +127,12 @@ void IndicatorsPage::display(std::shared_ptr<const ScenarioAnalysis> analysis)
         table_->appendRow({name, value, unit, definition});
     }
     view_->resizeColumnsToContents();
-    view_->setMaximumHeight(view_->horizontalHeader()->height() + 2 * view_->frameWidth() + 4 +
-                            view_->verticalHeader()->defaultSectionSize() * std::max(1, table_->rowCount()));
+    // The whole table stays in view (the catch figures sit just above the notice); the
+    // keystone chart below takes the rest and scrolls.
+    const int tableHeight = view_->horizontalHeader()->sizeHint().height() + 2 * view_->frameWidth() + 4 +
+                            view_->verticalHeader()->defaultSectionSize() * std::max(1, table_->rowCount());
+    view_->setMinimumHeight(tableHeight);
+    view_->setMaximumHeight(tableHeight);
     view_->horizontalHeader()->setStretchLastSection(true);
     notice_->setVisible(analysis_ != nullptr);
     status_->setText(!analysis ? tr("No scenario yet.")
