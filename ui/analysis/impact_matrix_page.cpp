@@ -193,13 +193,17 @@ void ImpactMatrixPage::display(std::shared_ptr<const ScenarioAnalysis> analysis)
     if (analysis && analysis->available() && analysis->mti.singular)
         message_ = tr("The impact matrix is not defined for this scenario: I − Q is singular (a closed loop of "
                       "impacts), so the cells show “–”.");
+    const bool unbalanced = analysis && analysis->available() && !analysis->balanced;
     model_->setAnalysis(std::move(analysis));
     legend_->setRange(model_->range());
     status_->setText(message_.isEmpty()
                          ? tr("Each cell: effect of a small increase in the row group's biomass on the column group "
                               "(mixed trophic impact, Ulanowicz & Puccia 1990). |m| < %1 left blank; "
                               "fleets in italics below the rule. Hover for exact values.")
-                               .arg(ImpactMatrixModel::kBlankBelow)
+                               .arg(ImpactMatrixModel::kBlankBelow) +
+                               (unbalanced
+                                    ? tr(" The scenario does not balance: impacts describe its flows as they stand.")
+                                    : QString())
                          : message_);
     legend_->setVisible(model_->rowCount() > 0);
 }

@@ -9,7 +9,6 @@
 #include <QMenu>
 #include <QPushButton>
 #include <QScrollArea>
-#include <QSplitter>
 #include <QStandardItemModel>
 #include <QTableView>
 #include <QVBoxLayout>
@@ -50,16 +49,17 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
     notice_->setStyleSheet(QStringLiteral("color: #555555;"));
     status_->setWordWrap(true);
 
-    auto* top = new QWidget(this);
-    auto* topLayout = new QVBoxLayout(top);
-    topLayout->setContentsMargins(0, 0, 0, 0);
+    // One scrolling column: the whole table (catch figures just above the notice), then
+    // the keystone chart at one readable row per bar; nothing gets squeezed.
+    auto* content = new QWidget(this);
+    auto* column = new QVBoxLayout(content);
     auto* bar = new QHBoxLayout;
     bar->addWidget(status_, 1);
     bar->addWidget(copyButton);
-    topLayout->addLayout(bar);
-    topLayout->addWidget(view_);
-    topLayout->addWidget(notice_);
-    topLayout->addStretch(1);
+    column->addLayout(bar);
+    column->addWidget(view_);
+    column->addWidget(notice_);
+    column->addSpacing(8);
 
     plot_->setBackground(Qt::white);
     plot_->setContextMenuPolicy(Qt::CustomContextMenu);
@@ -82,19 +82,15 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
         addFigureExportActions(menu, *this, this);
         menu.exec(plot_->mapToGlobal(at));
     });
+    column->addWidget(plot_, 1);
 
-    auto* splitter = new QSplitter(Qt::Vertical, this);
-    splitter->addWidget(top);
-    // One readable row per bar: the chart grows with the web and scrolls inside its pane.
-    auto* chartScroll = new QScrollArea(this);
-    chartScroll->setWidgetResizable(true);
-    chartScroll->setFrameShape(QFrame::NoFrame);
-    chartScroll->setWidget(plot_);
-    splitter->addWidget(chartScroll);
-    splitter->setStretchFactor(0, 0);
-    splitter->setStretchFactor(1, 1);
+    auto* scroll = new QScrollArea(this);
+    scroll->setWidgetResizable(true);
+    scroll->setFrameShape(QFrame::NoFrame);
+    scroll->setWidget(content);
     auto* layout = new QVBoxLayout(this);
-    layout->addWidget(splitter);
+    layout->setContentsMargins(0, 0, 0, 0);
+    layout->addWidget(scroll);
 
     connect(runner_, &AnalysisRunner::finished, this, &IndicatorsPage::display);
     display(nullptr);
@@ -137,8 +133,11 @@ void IndicatorsPage::display(std::shared_ptr<const ScenarioAnalysis> analysis)
     notice_->setVisible(analysis_ != nullptr);
     status_->setText(!analysis ? tr("No scenario yet.")
                      : !analysis_ ? analysis->unavailable
-                                  : tr("System indicators of the scenario's flow network; shaded rows depend on "
-                                       "the harvest. Hover a value for all its digits."));
+                     : analysis_->balanced
+                         ? tr("System indicators of the scenario's flow network; shaded rows depend on "
+                              "the harvest. Hover a value for all its digits.")
+                         : tr("The scenario does not balance: these figures describe its flows as they stand "
+                              "(see Checks). Shaded rows depend on the harvest."));
 
     bars_.clear();
     leftOut_ = 0;

@@ -20,6 +20,7 @@ ScenarioAnalysis analyseScenario(const Model& model, const BalanceSheet& sheet)
         a.unavailable = QObject::tr("The scenario has no compartments.");
         return a;
     }
+    a.balanced = sheet.status == BalanceStatus::Balanced;
     a.network = buildFlowNetwork(model, sheet);
     a.mti = mixedTrophicImpact(a.network);
     a.keystone = keystoneIndices(a.network, a.mti);

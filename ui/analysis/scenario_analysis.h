@@ -38,6 +38,7 @@ struct ScenarioAnalysis {
     SystemIndicators indicators;
     LevelDecomposition levels;
     bool hasCatch = false;
+    bool balanced = false;  // the sheet's status is Balanced (figures of an unbalanced one are as they stand)
 
     bool available() const { return unavailable.isEmpty(); }
 };

@@ -47,6 +47,7 @@ private slots:
     void keystoneBarsRunFromHighestDown();
     void copiedTextHoldsEveryRowAndTheNotice();
     void factoryGivesBothPagesWithStableKeys();
+    void unsolvableScenarioShowsNoFigures();
     void pngExportIsNotBlank();
 };
 
@@ -181,6 +182,25 @@ void IndicatorsTest::factoryGivesBothPagesWithStableKeys()
     QCOMPARE(pages[0]->key(), QString("impact-matrix"));
     QCOMPARE(pages[1]->key(), QString("indicators"));
     for (auto* p : pages) QCOMPARE(p->parent(), &parent);
+}
+
+void IndicatorsTest::unsolvableScenarioShowsNoFigures()
+{
+    tl::Model model = readModel("invented_lake");
+    for (auto p : {tl::Param::Biomass, tl::Param::PB, tl::Param::QB}) model.compartment(7).value(p).reset();  // Perch
+    const tl::BalanceSheet sheet = tl::solveBalance(model);
+    QCOMPARE(sheet.status, tl::BalanceStatus::Invalid);
+    IndicatorsPage page;
+    page.setScenario(model, sheet);
+    QVERIFY(page.rows().empty());
+    QCOMPARE(page.tableModel()->rowCount(), 0);
+    QVERIFY(page.keystoneBars().empty());
+    QCOMPARE(page.plot()->plottableCount(), 0);
+    // Then a solvable scenario again fills everything.
+    const tl::Model good = readModel("invented_lake");
+    page.setScenario(good, tl::solveBalance(good));
+    QVERIFY(!page.rows().empty());
+    QVERIFY(!page.keystoneBars().empty());
 }
 
 void IndicatorsTest::pngExportIsNotBlank()
