@@ -114,10 +114,13 @@ void ImpactLegend::paintLegend(QPainter& painter, const QRectF& area, double ran
     painter.setPen(Qt::black);
     painter.drawText(QRectF(area.left(), bar.top(), side - 6, bar.height()), Qt::AlignRight | Qt::AlignVCenter, neg);
     painter.drawText(QRectF(bar.right() + 6, bar.top(), side, bar.height()), Qt::AlignLeft | Qt::AlignVCenter, pos);
-    const QRectF ticks(bar.left() - 40, bar.bottom() + 1, bar.width() + 80, area.bottom() - bar.bottom());
-    painter.drawText(ticks, Qt::AlignLeft | Qt::AlignTop, QStringLiteral("          −") + rangeText(range));
-    painter.drawText(ticks, Qt::AlignHCenter | Qt::AlignTop, QStringLiteral("0"));
-    painter.drawText(ticks, Qt::AlignRight | Qt::AlignTop, QStringLiteral("+") + rangeText(range) + "          ");
+    const double tickTop = bar.bottom() + 1, tickHeight = std::max(fm.height(), area.bottom() - bar.bottom());
+    const auto tick = [&](double x, const QString& text) {
+        painter.drawText(QRectF(x - 40, tickTop, 80, tickHeight), Qt::AlignHCenter | Qt::AlignTop, text);
+    };
+    tick(bar.left(), QStringLiteral("−") + rangeText(range));
+    tick(bar.center().x(), QStringLiteral("0"));
+    tick(bar.right(), QStringLiteral("+") + rangeText(range));
     painter.restore();
 }
 
