@@ -4,8 +4,8 @@
 // decomposition (for the mean transfer efficiency). Nothing is computed here that the
 // core does not compute; this file only gathers it and moves it off the GUI thread.
 //
-// Cost: indicators + impact matrix take about 11 ms at 125 compartments (tests/bench,
-// network engineer's figures) and grow roughly with n^3, so scenarios below
+// Cost: indicators + impact matrix take about 11 ms at 125 compartments (figures from
+// tests/bench/network_bench) and grow roughly with n^3, so scenarios below
 // kInlineAnalysisLimit compartments (< ~4 ms) are analysed inline, larger ones with
 // QtConcurrent so that editing never stalls.
 #pragma once
