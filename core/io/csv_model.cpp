@@ -838,8 +838,7 @@ std::string compartmentsText(const Model& model)
 
 bool hasDiet(const Model& model, std::size_t j)
 {
-    const double* row = model.dietGrid().rowData(j);
-    return model.dietImport(j) != 0.0 || std::any_of(row, row + model.size(), [](double v) { return v != 0.0; });
+    return model.dietImport(j) != 0.0 || !model.dietRow(j).empty();
 }
 
 std::string dietText(const Model& model)
@@ -899,9 +898,8 @@ std::string routingText(const Model& model)
 {
     std::string rows;
     for (std::size_t s = 0; s < model.size(); ++s)
-        for (std::size_t d = 0; d < model.size(); ++d)
-            if (model.routing(s, d) != 0.0)
-                rows += csvRecord({model.compartment(s).name, model.compartment(d).name, formatNumber(model.routing(s, d))});
+        for (const GridEntry& e : model.routingRow(s))
+            rows += csvRecord({model.compartment(s).name, model.compartment(e.col).name, formatNumber(e.value)});
     return rows.empty() ? rows : csvRecord({"source", "detritus", "fraction"}) + rows;
 }
 

@@ -1,66 +1,114 @@
 #include "core/model/grid.h"
 
-#include <numeric>
+#include <algorithm>
 
 namespace tl {
+namespace {
 
-void Grid::insertRow(std::size_t at, double fill)
+using Row = std::vector<GridEntry>;
+
+Row::iterator lowerBound(Row& row, std::size_t c)
 {
-    v_.insert(v_.begin() + static_cast<std::ptrdiff_t>(at * cols_), cols_, fill);
-    ++rows_;
+    return std::lower_bound(row.begin(), row.end(), c, [](const GridEntry& e, std::size_t col) { return e.col < col; });
+}
+
+Row::const_iterator lowerBound(const Row& row, std::size_t c)
+{
+    return std::lower_bound(row.begin(), row.end(), c, [](const GridEntry& e, std::size_t col) { return e.col < col; });
+}
+
+}  // namespace
+
+double Grid::operator()(std::size_t r, std::size_t c) const
+{
+    const Row& row = rows_[r];
+    const auto it = lowerBound(row, c);
+    return it != row.end() && it->col == c ? it->value : 0.0;
+}
+
+void Grid::set(std::size_t r, std::size_t c, double v)
+{
+    Row& row = rows_[r];
+    const auto it = lowerBound(row, c);
+    const bool present = it != row.end() && it->col == c;
+    if (v == 0.0) {
+        if (present) {
+            row.erase(it);
+            --nonZeros_;
+        }
+    } else if (present) {
+        it->value = v;
+    } else {
+        row.insert(it, GridEntry{c, v});
+        ++nonZeros_;
+    }
+}
+
+void Grid::insertRow(std::size_t at)
+{
+    rows_.insert(rows_.begin() + static_cast<std::ptrdiff_t>(at), Row{});
 }
 
 void Grid::removeRow(std::size_t at)
 {
-    const auto first = v_.begin() + static_cast<std::ptrdiff_t>(at * cols_);
-    v_.erase(first, first + static_cast<std::ptrdiff_t>(cols_));
-    --rows_;
+    nonZeros_ -= rows_[at].size();
+    rows_.erase(rows_.begin() + static_cast<std::ptrdiff_t>(at));
 }
 
-void Grid::insertColumn(std::size_t at, double fill)
+void Grid::insertColumn(std::size_t at)
 {
-    std::vector<double> out;
-    out.reserve(rows_ * (cols_ + 1));
-    for (std::size_t r = 0; r < rows_; ++r)
-        for (std::size_t c = 0; c <= cols_; ++c)
-            out.push_back(c == at ? fill : (*this)(r, c < at ? c : c - 1));
-    v_ = std::move(out);
+    if (at < cols_)
+        for (Row& row : rows_)
+            for (auto it = lowerBound(row, at); it != row.end(); ++it) ++it->col;
     ++cols_;
 }
 
 void Grid::removeColumn(std::size_t at)
 {
-    std::vector<double> out;
-    out.reserve(rows_ * (cols_ - 1));
-    for (std::size_t r = 0; r < rows_; ++r)
-        for (std::size_t c = 0; c < cols_; ++c)
-            if (c != at) out.push_back((*this)(r, c));
-    v_ = std::move(out);
+    for (Row& row : rows_) {
+        auto it = lowerBound(row, at);
+        if (it != row.end() && it->col == at) {
+            it = row.erase(it);
+            --nonZeros_;
+        }
+        for (; it != row.end(); ++it) --it->col;
+    }
     --cols_;
 }
 
 void Grid::moveRow(std::size_t from, std::size_t to)
 {
     if (from == to) return;
-    std::vector<double> row(rowData(from), rowData(from) + cols_);
-    removeRow(from);
-    insertRow(to);
-    std::copy(row.begin(), row.end(), v_.begin() + static_cast<std::ptrdiff_t>(to * cols_));
+    Row moved = std::move(rows_[from]);
+    rows_.erase(rows_.begin() + static_cast<std::ptrdiff_t>(from));
+    rows_.insert(rows_.begin() + static_cast<std::ptrdiff_t>(to), std::move(moved));
 }
 
 void Grid::moveColumn(std::size_t from, std::size_t to)
 {
     if (from == to) return;
-    std::vector<double> col(rows_);
-    for (std::size_t r = 0; r < rows_; ++r) col[r] = (*this)(r, from);
-    removeColumn(from);
-    insertColumn(to);
-    for (std::size_t r = 0; r < rows_; ++r) (*this)(r, to) = col[r];
+    // Column `from` lands at `to`; the columns between shift by one towards `from`.
+    const std::size_t lo = std::min(from, to), hi = std::max(from, to);
+    for (Row& row : rows_) {
+        const auto first = lowerBound(row, lo);
+        const auto last = lowerBound(row, hi + 1);
+        if (first == last) continue;
+        for (auto it = first; it != last; ++it) {
+            if (it->col == from) it->col = to;
+            else if (from < to) --it->col;
+            else ++it->col;
+        }
+        // Only the moved entry is out of place: rotate it to its end of the range.
+        if (from < to) std::rotate(first, first + (first->col == to ? 1 : 0), last);
+        else std::rotate(first, last - (std::prev(last)->col == to ? 1 : 0), last);
+    }
 }
 
 double Grid::rowSum(std::size_t r) const
 {
-    return std::accumulate(rowData(r), rowData(r) + cols_, 0.0);
+    double sum = 0.0;
+    for (const GridEntry& e : rows_[r]) sum += e.value;
+    return sum;
 }
 
 }  // namespace tl

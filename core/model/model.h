@@ -5,6 +5,7 @@
 
 #include <array>
 #include <optional>
+#include <span>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -62,7 +63,7 @@ public:
     std::optional<std::size_t> indexOf(std::string_view name) const;
 
     // Inserts at `at` (default: the end) and returns the index. Diet, routing and
-    // harvest gain an empty row/column for it.
+    // harvest gain an empty row/column for it; appending is amortised O(1) in the grids.
     std::size_t addCompartment(Compartment c, std::optional<std::size_t> at = std::nullopt);
     void removeCompartment(std::size_t i);
     void moveCompartment(std::size_t from, std::size_t to);
@@ -72,7 +73,9 @@ public:
 
     // --- diet matrix: row = predator, column = prey; DC(prey, predator) in DESIGN 3.2 ---
     double diet(std::size_t predator, std::size_t prey) const { return diet_(predator, prey); }
-    void setDiet(std::size_t predator, std::size_t prey, double fraction) { diet_(predator, prey) = fraction; }
+    void setDiet(std::size_t predator, std::size_t prey, double fraction) { diet_.set(predator, prey, fraction); }
+    // The non-zero prey entries of one predator, sorted by prey index (import not included).
+    std::span<const GridEntry> dietRow(std::size_t predator) const { return diet_.row(predator); }
     double dietImport(std::size_t predator) const { return dietImport_[predator]; }
     void setDietImport(std::size_t predator, double fraction) { dietImport_[predator] = fraction; }
     double dietRowSum(std::size_t predator) const { return diet_.rowSum(predator) + dietImport_[predator]; }
@@ -81,7 +84,9 @@ public:
     // --- detritus routing: fraction of a source's detritus flow going to a pool -------
     // A source with no explicit entries sends everything to the first pool.
     double routing(std::size_t source, std::size_t pool) const { return routing_(source, pool); }
-    void setRouting(std::size_t source, std::size_t pool, double fraction) { routing_(source, pool) = fraction; }
+    void setRouting(std::size_t source, std::size_t pool, double fraction) { routing_.set(source, pool, fraction); }
+    // The explicit non-zero routing entries of one source, sorted by pool index.
+    std::span<const GridEntry> routingRow(std::size_t source) const { return routing_.row(source); }
     bool hasExplicitRouting(std::size_t source) const { return routing_.rowSum(source) > 0.0; }
     double effectiveRouting(std::size_t source, std::size_t pool) const;
     const Grid& routingGrid() const { return routing_; }

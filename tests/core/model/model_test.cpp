@@ -67,6 +67,23 @@ TEST(Model, MoveCompartmentCarriesItsRowsAndColumns)
     EXPECT_EQ(m, threeBoxModel());
 }
 
+TEST(Model, DietRowListsNonZeroPreyInIndexOrder)
+{
+    Model m = threeBoxModel();
+    ASSERT_EQ(m.dietRow(1).size(), 2u);
+    EXPECT_EQ(m.dietRow(1)[0], (GridEntry{0, 0.7}));
+    EXPECT_EQ(m.dietRow(1)[1], (GridEntry{2, 0.3}));
+    EXPECT_TRUE(m.dietRow(0).empty());
+    m.setDiet(1, 2, 0.0);  // clearing a cell removes its entry
+    ASSERT_EQ(m.dietRow(1).size(), 1u);
+    m.moveCompartment(0, 2);  // Algae last: Grazer is now 0, Detritus 1, Algae 2
+    ASSERT_EQ(m.dietRow(0).size(), 1u);
+    EXPECT_EQ(m.dietRow(0)[0], (GridEntry{2, 0.7}));
+    m.setRouting(0, 1, 1.0);
+    ASSERT_EQ(m.routingRow(0).size(), 1u);
+    EXPECT_EQ(m.routingRow(0)[0].col, 1u);
+}
+
 TEST(Model, DefaultRoutingSendsEverythingToFirstPool)
 {
     Model m = threeBoxModel();
