@@ -237,7 +237,6 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
     const CompartmentBalance& row = sheet.rows[i];
     const BalanceRules& rules = model.rules;
     const std::string& name = row.name;
-    const std::string flow = model.units.flow();
 
     for (Param p : row.solved) {
         const double value = p == Param::Biomass ? row.biomass : p == Param::PB ? row.pb : p == Param::QB ? row.qb : row.ee;
@@ -260,7 +259,7 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
     if (std::abs(v.residual[k]) > kResidualTolerance * v.residualScale[k]) {
         const bool fullyGiven = plan.unknownOf(i) == Unknown::None;
         std::string message = "The balance equation of '" + name + "' does not close: B P/B EE minus (predation + "
-                              "catch + E + BA) = " + num(v.residual[k]) + " " + flow + ".";
+                              "catch + E + BA) = " + num(v.residual[k]) + " " + model.units.flow() + ".";
         if (fullyGiven && row.production > 0.0)
             message += " The EE that would close it is " +
                        num((v.predation[k] + row.catchTotal + row.netEmigration + row.biomassAccum) / row.production) +
@@ -273,7 +272,7 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
     if (row.kind != CompartmentKind::Consumer) return;
     if (row.respiration < -kBoundTolerance * std::abs(row.consumption))
         problems.push_back(makeProblem(code::kNegativeRespiration, Severity::Error, name, "qb",
-                                   "Respiration of '" + name + "' is negative (" + num(row.respiration) + " " + flow +
+                                   "Respiration of '" + name + "' is negative (" + num(row.respiration) + " " + model.units.flow() +
                                        "): it produces more than it assimilates.",
                                    "Raise its Q/B or lower its P/B or U."));
     if (row.pq < rules.pqMin || row.pq > rules.pqMax)
