@@ -4,6 +4,7 @@
 #include <cmath>
 #include <map>
 #include <set>
+#include <unordered_map>
 #include <span>
 
 #include "core/io/atomic_file.h"
@@ -63,15 +64,39 @@ std::string lowerAscii(std::string_view s)
     return out;
 }
 
-// Names are matched exactly; this only finds a likely intended name for the hint.
-std::string didYouMean(std::string_view name, const Model& model)
-{
-    const std::string key = lowerAscii(trim(name));
-    for (const Compartment& c : model.compartments())
-        if (lowerAscii(c.name) == key)
-            return "Did you mean '" + c.name + "'? Names must match exactly, including case.";
-    return {};
-}
+// Compartment names -> index, built once compartments.csv is read (no compartment is
+// added after that, so the views into the model's names stay valid). Every name in the
+// other files is then found in O(1) instead of by a scan of the list, which kept
+// reading a large folder quadratic.
+class NameIndex {
+public:
+    explicit NameIndex(const Model& model) : model_(model)
+    {
+        exact_.reserve(model.size());
+        for (std::size_t i = 0; i < model.size(); ++i) exact_.emplace(model.compartment(i).name, i);
+    }
+
+    std::optional<std::size_t> find(std::string_view name) const
+    {
+        const auto it = exact_.find(name);
+        return it == exact_.end() ? std::nullopt : std::optional<std::size_t>(it->second);
+    }
+
+    // Names are matched exactly; this only finds a likely intended name for the hint.
+    std::string didYouMean(std::string_view name) const
+    {
+        if (folded_.empty())  // built on the first miss only
+            for (std::size_t i = 0; i < model_.size(); ++i) folded_.emplace(lowerAscii(model_.compartment(i).name), i);
+        const auto it = folded_.find(lowerAscii(trim(name)));
+        if (it == folded_.end()) return {};
+        return "Did you mean '" + model_.compartment(it->second).name + "'? Names must match exactly, including case.";
+    }
+
+private:
+    const Model& model_;
+    std::unordered_map<std::string_view, std::size_t> exact_;
+    mutable std::unordered_map<std::string, std::size_t> folded_;  // lower-case name -> first index
+};
 
 std::string joinKeys(std::span<const std::string_view> keys)
 {
@@ -95,9 +120,11 @@ struct Locations {
     std::vector<int> compartmentLine;                  // per compartment index
     std::array<int, kParamCount> paramColumn{};        // 0 when the column is absent
     // diet.csv
-    std::map<std::size_t, int> dietLine;               // predator -> line of its row
-    std::map<std::size_t, int> preyColumn;             // prey -> column in the header
-    int importColumn = 0;
+    bool longDiet = false;                             // long form: one row per (predator, prey)
+    std::map<std::size_t, int> dietLine;               // predator -> line of its row (long form: its first row)
+    std::map<std::size_t, int> preyColumn;             // wide form: prey -> column in the header
+    int importColumn = 0;                              // wide form
+    std::unordered_map<std::uint64_t, int> dietEntryLine;  // long form: dietEntryKey -> line of the entry
     // detritus_routing.csv
     struct RoutingRow { int line; int sourceColumn, detritusColumn, fractionColumn; };
     std::map<std::pair<std::size_t, std::size_t>, RoutingRow> routingRow;  // (source, pool)
@@ -285,12 +312,12 @@ std::optional<CsvTable> readSheet(const std::filesystem::path& folder, std::stri
 }
 
 // Looks up a compartment named in a cell; reports an unknown name.
-std::optional<std::size_t> knownCompartment(const Model& model, const CsvField& f, const std::string& file,
+std::optional<std::size_t> knownCompartment(const NameIndex& names, const CsvField& f, const std::string& file,
                                             const std::string& role, Problems& problems)
 {
     const std::string_view name = trim(f.text);
-    if (const auto i = model.indexOf(name)) return i;
-    std::string hint = didYouMean(name, model);
+    if (const auto i = names.find(name)) return i;
+    std::string hint = names.didYouMean(name);
     if (hint.empty()) hint = "Every name must be a compartment of " + std::string(kCompartmentsFile) + ".";
     problems.push_back(errorAt("csv-unknown-compartment", file, f,
                                name.empty() ? role + ": the cell is empty, expected a compartment name"
@@ -414,6 +441,7 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
         problems.push_back(problemAt("csv-no-rows", Severity::Error, table.file, 2, 0,
                                      "the file lists no compartments, only its header"));
     std::map<std::string, int, std::less<>> seen;
+    model.reserve(sheet->rows.size());
     for (const CsvRecord* r : sheet->rows) {
         const std::size_t before = problems.size();
         const auto name = compartmentName(*sheet->field(*r, 0), table.file, seen, problems);
@@ -447,15 +475,79 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
 }
 
 // diet.csv ---------------------------------------------------------------------------
-void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+// Two forms, told apart by the header (DESIGN 5.1). Wide: `predator,<prey 1>,...[,import]`,
+// one row per predator, what people edit in a spreadsheet. Long: `predator,prey,share`, one
+// row per non-zero entry, so a large model costs its entries rather than n x n cells.
+constexpr std::array<std::string_view, 3> kLongDietKeys = {"predator", "prey", "share"};
+constexpr int kLongPredatorColumn = 1, kLongShareColumn = 3;
+
+// Key of a long-form entry; the import column counts as prey index n.
+std::uint64_t dietEntryKey(const Model& model, std::size_t predator, std::size_t prey)
 {
-    if (table.records.empty()) {
-        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
-                                     "the file is empty; expected a header: predator, then one column per prey"));
-        return;
+    return static_cast<std::uint64_t>(predator) * (model.size() + 1) + prey;
+}
+
+bool isLongDietHeader(const CsvRecord& header, const NameIndex& names)
+{
+    if (header.fields.size() != kLongDietKeys.size()) return false;
+    for (std::size_t c = 0; c < kLongDietKeys.size(); ++c)
+        if (trim(header.fields[c].text) != kLongDietKeys[c]) return false;
+    // A wide diet whose only prey are compartments named 'prey' and 'share' reads the same.
+    return !(names.find(kLongDietKeys[1]) && names.find(kLongDietKeys[2]));
+}
+
+void readLongDiet(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
+{
+    const auto sheet = openKeyed(table, kLongDietKeys, kLongDietKeys, problems);
+    if (!sheet) return;
+    loc.longDiet = true;
+    loc.dietEntryLine.reserve(sheet->rows.size());
+    const std::size_t importIndex = model.size();
+    for (const CsvRecord* r : sheet->rows) {
+        const CsvField& predatorField = *sheet->field(*r, 0);
+        const CsvField& preyField = *sheet->field(*r, 1);
+        const CsvField& shareField = *sheet->field(*r, 2);
+        const auto predator = knownCompartment(names, predatorField, table.file, "predator", problems);
+        const bool isImport = trim(preyField.text) == kImportColumn;
+        const auto prey = isImport ? std::optional<std::size_t>(importIndex)
+                                   : knownCompartment(names, preyField, table.file, "prey", problems);
+        if (!predator || !prey) {
+            if (predator) loc.broken.insert({model.compartment(*predator).name, "diet"});
+            continue;
+        }
+        const std::string& predatorName = model.compartment(*predator).name;
+        const std::string_view preyName = isImport ? kImportColumn : std::string_view(model.compartment(*prey).name);
+        loc.dietLine.emplace(*predator, r->line);  // keeps the predator's first line
+        const auto [entry, isNew] = loc.dietEntryLine.emplace(dietEntryKey(model, *predator, *prey), r->line);
+        if (!isNew) {
+            problems.push_back(errorAt("csv-duplicate-row", table.file, preyField,
+                                       "the share of " + shown(preyName) + " in the diet of " + shown(predatorName) +
+                                           " is already given on line " + std::to_string(entry->second),
+                                       "Give one row per predator and prey."));
+            loc.broken.insert({predatorName, "diet"});
+            continue;
+        }
+        if (const auto share = parseNumber(trim(shareField.text))) {  // the common case, without message text
+            if (isImport) model.setDietImport(*predator, *share);
+            else model.setDiet(*predator, *prey, *share);
+            continue;
+        }
+        const std::string what = "share of " + shown(preyName) + " in the diet of " + shown(predatorName);
+        const NumberCell v = numberCell(shareField, table.file, what, problems);
+        if (!v.bad && !v.value)
+            problems.push_back(errorAt("csv-missing-value", table.file, shareField, what + ": the cell is empty",
+                                       "Give the share (0 to 1), or delete the row."));
+        Problem& p = problems.back();  // numberCell accepts what parseNumber refused only when empty
+        p.compartment = predatorName;
+        p.parameter = "diet";
+        p.prey = std::string(preyName);
+        loc.broken.insert({predatorName, "diet"});
     }
+}
+
+void readWideDiet(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
+{
     const CsvRecord& header = table.records.front();
-    if (refuseOtherSeparators(header, table.file, problems)) return;
     const std::string_view corner = trim(header.fields[0].text);
     if (!corner.empty() && corner != "predator") {
         problems.push_back(errorAt("csv-header", table.file, header.fields[0],
@@ -485,11 +577,11 @@ void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& pro
         if (name == kImportColumn) {
             prey[col] = kImport;
             loc.importColumn = f.column;
-        } else if (const auto i = model.indexOf(name)) {
+        } else if (const auto i = names.find(name)) {
             prey[col] = static_cast<long>(*i);
             loc.preyColumn[*i] = f.column;
         } else {
-            std::string hint = didYouMean(name, model);
+            std::string hint = names.didYouMean(name);
             if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
             problems.push_back(errorAt("csv-unknown-compartment", table.file, f,
                                        "prey column " + shown(name) + " is not a compartment of compartments.csv",
@@ -500,7 +592,7 @@ void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& pro
     for (std::size_t k = 1; k < table.records.size(); ++k) {
         const CsvRecord& r = table.records[k];
         if (!rowShapeOk(r, header.fields.size(), table.file, problems)) continue;
-        const auto predator = knownCompartment(model, r.fields[0], table.file, "predator", problems);
+        const auto predator = knownCompartment(names, r.fields[0], table.file, "predator", problems);
         if (!predator) continue;
         const std::string& predatorName = model.compartment(*predator).name;
         if (const auto it = loc.dietLine.find(*predator); it != loc.dietLine.end()) {
@@ -521,6 +613,7 @@ void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& pro
                                                "this cell has no prey name above it but holds " + shown(f.text)));
                 continue;
             }
+            if (trim(f.text).empty()) continue;  // 0, and most cells of a wide diet: no message text to build
             const std::string preyName =
                 prey[col] == kImport ? std::string(kImportColumn) : model.compartment(prey[col]).name;
             const NumberCell v = numberCell(
@@ -543,12 +636,25 @@ void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& pro
         for (const Compartment& c : model.compartments()) loc.broken.insert({c.name, "diet"});
 }
 
+void readDiet(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
+{
+    if (table.records.empty()) {
+        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
+                                     "the file is empty; expected a header: predator, then one column per prey"));
+        return;
+    }
+    const CsvRecord& header = table.records.front();
+    if (refuseOtherSeparators(header, table.file, problems)) return;
+    if (isLongDietHeader(header, names)) readLongDiet(table, model, names, loc, problems);
+    else readWideDiet(table, model, names, loc, problems);
+}
+
 // harvest.csv ------------------------------------------------------------------------
 constexpr std::array<std::string_view, 6> kHarvestKeys = {"fleet",    "compartment",      "landings",
                                                           "discards", "discard_survival", "discard_pool"};
 constexpr std::array<std::string_view, 2> kHarvestRequired = {"fleet", "compartment"};
 
-void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
 {
     const auto sheet = openKeyed(table, kHarvestKeys, kHarvestRequired, problems);
     if (!sheet) return;
@@ -569,7 +675,7 @@ void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& 
 
         // Discard pool: one per fleet, named on any of its rows.
         if (const CsvField* poolField = sheet->field(*r, 5); poolField && !trim(poolField->text).empty()) {
-            if (const auto pool = knownCompartment(model, *poolField, table.file, "discard pool", problems)) {
+            if (const auto pool = knownCompartment(names, *poolField, table.file, "discard pool", problems)) {
                 Fleet& f = model.fleet(fleet);
                 if (f.discardPool && *f.discardPool != *pool)
                     problems.push_back(errorAt("csv-discard-pool", table.file, *poolField,
@@ -596,7 +702,7 @@ void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& 
                 }
             continue;
         }
-        const auto i = knownCompartment(model, compartmentField, table.file, "compartment", problems);
+        const auto i = knownCompartment(names, compartmentField, table.file, "compartment", problems);
         if (!i) continue;
         const std::string& name = model.compartment(*i).name;
         if (const auto it = loc.harvestRow.find({fleet, *i}); it != loc.harvestRow.end()) {
@@ -632,15 +738,15 @@ void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& 
 // detritus_routing.csv -----------------------------------------------------------------
 constexpr std::array<std::string_view, 3> kRoutingKeys = {"source", "detritus", "fraction"};
 
-void readRouting(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+void readRouting(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
 {
     const auto sheet = openKeyed(table, kRoutingKeys, kRoutingKeys, problems);
     if (!sheet) return;
     for (const CsvRecord* r : sheet->rows) {
         const CsvField& sourceField = *sheet->field(*r, 0);
         const CsvField& poolField = *sheet->field(*r, 1);
-        const auto source = knownCompartment(model, sourceField, table.file, "source", problems);
-        const auto pool = knownCompartment(model, poolField, table.file, "detritus pool", problems);
+        const auto source = knownCompartment(names, sourceField, table.file, "source", problems);
+        const auto pool = knownCompartment(names, poolField, table.file, "detritus pool", problems);
         if (!source || !pool) {
             if (source) loc.broken.insert({model.compartment(*source).name, "routing"});
             continue;
@@ -678,7 +784,7 @@ void readRouting(const CsvTable& table, Model& model, Locations& loc, Problems& 
 constexpr std::array<std::string_view, 5> kConfidenceKeys = {"compartment", "parameter", "grade", "cv", "source"};
 constexpr std::array<std::string_view, 2> kConfidenceRequired = {"compartment", "parameter"};
 
-void readConfidence(const CsvTable& table, Model& model, Problems& problems)
+void readConfidence(const CsvTable& table, Model& model, const NameIndex& names, Problems& problems)
 {
     const auto sheet = openKeyed(table, kConfidenceKeys, kConfidenceRequired, problems);
     if (!sheet) return;
@@ -686,7 +792,7 @@ void readConfidence(const CsvTable& table, Model& model, Problems& problems)
     const std::string paramList = joinKeys(std::span(keys).subspan(2));
     std::map<std::pair<std::size_t, std::size_t>, int> seen;
     for (const CsvRecord* r : sheet->rows) {
-        const auto i = knownCompartment(model, *sheet->field(*r, 0), table.file, "compartment", problems);
+        const auto i = knownCompartment(names, *sheet->field(*r, 0), table.file, "compartment", problems);
         const CsvField& paramField = *sheet->field(*r, 1);
         const auto param = parseParamKey(trim(paramField.text));
         if (!param)
@@ -730,10 +836,10 @@ bool isHidden(const Problem& p, const Locations& loc)
     return loc.broken.contains({p.compartment, "*"}) || loc.broken.contains({p.compartment, p.parameter});
 }
 
-void placeOnCell(Problem& p, const Model& model, const Locations& loc)
+void placeOnCell(Problem& p, const Model& model, const NameIndex& names, const Locations& loc)
 {
     const auto at = [&](const std::string& file, int line, int column) { p.location = FileLocation{file, line, column}; };
-    const auto i = model.indexOf(p.compartment);
+    const auto i = names.find(p.compartment);
     if (const auto param = parseParamKey(p.parameter); param && i) {
         at(loc.compartmentsFile, loc.compartmentLine[*i], loc.paramColumn[static_cast<std::size_t>(*param)]);
     } else if (p.parameter == "diet") {
@@ -741,14 +847,21 @@ void placeOnCell(Problem& p, const Model& model, const Locations& loc)
         if (!i) return;
         const auto row = loc.dietLine.find(*i);
         if (row == loc.dietLine.end()) return;  // no row: the file as a whole
+        if (loc.longDiet) {  // the entry's share cell, or for the row sum the predator's first line
+            const auto prey = p.prey == kImportColumn ? std::optional<std::size_t>(model.size()) : names.find(p.prey);
+            const auto entry = prey ? loc.dietEntryLine.find(dietEntryKey(model, *i, *prey)) : loc.dietEntryLine.end();
+            if (entry != loc.dietEntryLine.end()) at(loc.dietFile, entry->second, kLongShareColumn);
+            else at(loc.dietFile, row->second, kLongPredatorColumn);
+            return;
+        }
         int column = 1;
         if (p.prey == kImportColumn) column = loc.importColumn;
-        else if (const auto prey = model.indexOf(p.prey))
+        else if (const auto prey = names.find(p.prey))
             if (const auto c = loc.preyColumn.find(*prey); c != loc.preyColumn.end()) column = c->second;
         at(loc.dietFile, row->second, column > 0 ? column : 1);
     } else if (p.parameter == "routing" && i) {
         at(loc.routingFile, 0, 0);
-        if (const auto pool = model.indexOf(p.prey)) {
+        if (const auto pool = names.find(p.prey)) {
             if (const auto row = loc.routingRow.find({*i, *pool}); row != loc.routingRow.end()) {
                 const bool aboutPool = p.code == check::kRoutingToLiving;
                 at(loc.routingFile, row->second.line, aboutPool ? row->second.detritusColumn : row->second.fractionColumn);
@@ -783,10 +896,10 @@ void placeOnCell(Problem& p, const Model& model, const Locations& loc)
 }
 
 // Hints that only the reader can give, knowing what was typed.
-void addReaderHints(Problem& p, const Model& model)
+void addReaderHints(Problem& p, const Model& model, const NameIndex& names)
 {
     if (p.code != check::kDietFraction) return;
-    const auto i = model.indexOf(p.compartment);
+    const auto i = names.find(p.compartment);
     if (i && std::abs(model.dietRowSum(*i) - 100.0) < 0.5)
         p.hint = "This row sums to 100: write fractions (0.25), not percentages (25).";
 }
@@ -841,7 +954,32 @@ bool hasDiet(const Model& model, std::size_t j)
     return model.dietImport(j) != 0.0 || !model.dietRow(j).empty();
 }
 
-std::string dietText(const Model& model)
+bool writesLongDiet(const Model& model, const CsvWriteOptions& options)
+{
+    // With compartments named 'prey' and 'share' the reader takes that header for wide form.
+    if (model.indexOf(kLongDietKeys[1]) && model.indexOf(kLongDietKeys[2])) return false;
+    switch (options.dietForm) {
+    case DietForm::Wide: return false;
+    case DietForm::Long: return true;
+    case DietForm::Automatic: break;
+    }
+    return model.size() > kWideDietMaxCompartments;
+}
+
+std::string longDietText(const Model& model)
+{
+    std::string out = csvRecord(std::vector<std::string>(kLongDietKeys.begin(), kLongDietKeys.end()));
+    for (std::size_t j = 0; j < model.size(); ++j) {
+        const std::string& predator = model.compartment(j).name;
+        for (const GridEntry& e : model.dietRow(j))
+            out += csvRecord({predator, model.compartment(e.col).name, formatNumber(e.value)});
+        if (model.dietImport(j) != 0.0)
+            out += csvRecord({predator, std::string(kImportColumn), formatNumber(model.dietImport(j))});
+    }
+    return out;
+}
+
+std::string wideDietText(const Model& model)
 {
     std::vector<std::string> header = {"predator"};
     for (const Compartment& c : model.compartments()) header.push_back(c.name);
@@ -903,6 +1041,11 @@ std::string routingText(const Model& model)
     return rows.empty() ? rows : csvRecord({"source", "detritus", "fraction"}) + rows;
 }
 
+std::string dietText(const Model& model, const CsvWriteOptions& options)
+{
+    return writesLongDiet(model, options) ? longDietText(model) : wideDietText(model);
+}
+
 // Empty when no parameter has a confidence.
 std::string confidenceText(const Model& model)
 {
@@ -960,19 +1103,20 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
     if (compartments) readCompartments(*compartments, model, loc, problems);
     const bool anyConsumer = std::any_of(model.compartments().begin(), model.compartments().end(),
                                          [](const Compartment& c) { return c.kind == CompartmentKind::Consumer; });
+    const NameIndex names(model);  // no compartment is added from here on
     // Without compartments.csv, a missing diet.csv would only add noise.
     if (const auto t = readSheet(folder, kDietFile, compartments && anyConsumer, problems))
-        readDiet(*t, model, loc, problems);
-    if (const auto t = readSheet(folder, kHarvestFile, false, problems)) readHarvest(*t, model, loc, problems);
-    if (const auto t = readSheet(folder, kRoutingFile, false, problems)) readRouting(*t, model, loc, problems);
-    if (const auto t = readSheet(folder, kConfidenceFile, false, problems)) readConfidence(*t, model, problems);
+        readDiet(*t, model, names, loc, problems);
+    if (const auto t = readSheet(folder, kHarvestFile, false, problems)) readHarvest(*t, model, names, loc, problems);
+    if (const auto t = readSheet(folder, kRoutingFile, false, problems)) readRouting(*t, model, names, loc, problems);
+    if (const auto t = readSheet(folder, kConfidenceFile, false, problems)) readConfidence(*t, model, names, problems);
 
     // The semantic checks are validation's (one place for them); the reader adds where.
     if (compartments) {
         for (Problem& p : validateModel(model)) {
             if (isHidden(p, loc)) continue;
-            placeOnCell(p, model, loc);
-            addReaderHints(p, model);
+            placeOnCell(p, model, names, loc);
+            addReaderHints(p, model, names);
             problems.push_back(std::move(p));
         }
     }
@@ -992,7 +1136,7 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
     return result;
 }
 
-Problems writeCsvModel(const Model& model, const std::filesystem::path& folder)
+Problems writeCsvModel(const Model& model, const std::filesystem::path& folder, const CsvWriteOptions& options)
 {
     Problems problems = unwritableNames(model);
     if (hasErrors(problems)) return problems;
@@ -1009,7 +1153,7 @@ Problems writeCsvModel(const Model& model, const std::filesystem::path& folder)
     // An empty text means "this file has nothing to say": it is not written, and one
     // left from an earlier write is removed so that it cannot be read back as current.
     const std::pair<std::string_view, std::string> files[] = {
-        {kCompartmentsFile, compartmentsText(model)}, {kDietFile, dietText(model)},
+        {kCompartmentsFile, compartmentsText(model)}, {kDietFile, dietText(model, options)},
         {kHarvestFile, harvestText(model)},           {kRoutingFile, routingText(model)},
         {kConfidenceFile, confidenceText(model)},     {kSettingsFile, settingsText(model)},
     };

@@ -109,9 +109,11 @@ CsvParseResult parseCsv(std::string_view text, std::string file)
         return true;
     };
     const auto finishRecord = [&]() {
+        const std::size_t width = record.fields.size();
         if (!isBlank(record)) out.table.records.push_back(std::move(record));
         record = CsvRecord{};
         record.line = line;
+        record.fields.reserve(width);  // rows are usually as wide as the one before: no regrowth
     };
 
     while (true) {
@@ -198,8 +200,21 @@ CsvParseResult readCsvFile(const std::filesystem::path& path)
         return out;
     }
     std::ifstream in(path, std::ios::binary);
-    std::ostringstream content;
-    if (in) content << in.rdbuf();
+    std::string content;
+    if (in) {  // read in one piece: a stream buffer would copy the text twice more
+        std::error_code sizeError;
+        const auto size = std::filesystem::file_size(path, sizeError);
+        if (!sizeError) {
+            content.resize(static_cast<std::size_t>(size));
+            in.read(content.data(), static_cast<std::streamsize>(content.size()));
+            content.resize(static_cast<std::size_t>(in.gcount()));
+            if (in.eof()) in.clear();  // a file that shrank meanwhile: keep what was read
+        } else {
+            std::ostringstream buffer;
+            buffer << in.rdbuf();
+            content = std::move(buffer).str();
+        }
+    }
     if (!in || in.bad()) {
         CsvParseResult out;
         out.table.file = file;
@@ -208,7 +223,7 @@ CsvParseResult readCsvFile(const std::filesystem::path& path)
                                            exists ? "the file cannot be read" : "the file does not exist"));
         return out;
     }
-    return parseCsv(content.str(), file);
+    return parseCsv(content, file);
 }
 
 std::string csvField(std::string_view text)
