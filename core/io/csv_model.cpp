@@ -293,19 +293,25 @@ std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::
     return sheet;
 }
 
+// Whether `folder/name` exists; reports it missing when it is required.
+bool sheetPresent(const std::filesystem::path& folder, std::string_view name, bool required, Problems& problems)
+{
+    const std::filesystem::path path = folder / name;
+    std::error_code ec;
+    if (std::filesystem::exists(path, ec)) return true;
+    if (required)
+        problems.push_back(problemAt("csv-missing-file", Severity::Error, path.string(), 0, 0,
+                                     "the model folder has no " + std::string(name)));
+    return false;
+}
+
 // Reads `folder/name`. When the file is absent and not required, returns nullopt
 // without a problem.
 std::optional<CsvTable> readSheet(const std::filesystem::path& folder, std::string_view name, bool required,
                                   Problems& problems)
 {
     const std::filesystem::path path = folder / name;
-    std::error_code ec;
-    if (!std::filesystem::exists(path, ec)) {
-        if (required)
-            problems.push_back(problemAt("csv-missing-file", Severity::Error, path.string(), 0, 0,
-                                         "the model folder has no " + std::string(name)));
-        return std::nullopt;
-    }
+    if (!sheetPresent(folder, name, required, problems)) return std::nullopt;
     CsvParseResult parsed = readCsvFile(path);
     problems.insert(problems.end(), parsed.problems.begin(), parsed.problems.end());
     return std::move(parsed.table);
@@ -496,157 +502,198 @@ bool isLongDietHeader(const CsvRecord& header, const NameIndex& names)
     return !(names.find(kLongDietKeys[1]) && names.find(kLongDietKeys[2]));
 }
 
-void readLongDiet(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
+// One row of the long form, whose header isLongDietHeader has accepted.
+void readLongDietRow(const CsvRecord& r, const std::string& file, Model& model, const NameIndex& names,
+                     Locations& loc, Problems& problems)
 {
-    const auto sheet = openKeyed(table, kLongDietKeys, kLongDietKeys, problems);
-    if (!sheet) return;
-    loc.longDiet = true;
-    loc.dietEntryLine.reserve(sheet->rows.size());
+    if (!rowShapeOk(r, kLongDietKeys.size(), file, problems)) return;
     const std::size_t importIndex = model.size();
-    for (const CsvRecord* r : sheet->rows) {
-        const CsvField& predatorField = *sheet->field(*r, 0);
-        const CsvField& preyField = *sheet->field(*r, 1);
-        const CsvField& shareField = *sheet->field(*r, 2);
-        const auto predator = knownCompartment(names, predatorField, table.file, "predator", problems);
-        const bool isImport = trim(preyField.text) == kImportColumn;
-        const auto prey = isImport ? std::optional<std::size_t>(importIndex)
-                                   : knownCompartment(names, preyField, table.file, "prey", problems);
-        if (!predator || !prey) {
-            if (predator) loc.broken.insert({model.compartment(*predator).name, "diet"});
-            continue;
-        }
-        const std::string& predatorName = model.compartment(*predator).name;
-        const std::string_view preyName = isImport ? kImportColumn : std::string_view(model.compartment(*prey).name);
-        loc.dietLine.emplace(*predator, r->line);  // keeps the predator's first line
-        const auto [entry, isNew] = loc.dietEntryLine.emplace(dietEntryKey(model, *predator, *prey), r->line);
-        if (!isNew) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, preyField,
-                                       "the share of " + shown(preyName) + " in the diet of " + shown(predatorName) +
-                                           " is already given on line " + std::to_string(entry->second),
-                                       "Give one row per predator and prey."));
-            loc.broken.insert({predatorName, "diet"});
-            continue;
-        }
-        if (const auto share = parseNumber(trim(shareField.text))) {  // the common case, without message text
-            if (isImport) model.setDietImport(*predator, *share);
-            else model.setDiet(*predator, *prey, *share);
-            continue;
-        }
-        const std::string what = "share of " + shown(preyName) + " in the diet of " + shown(predatorName);
-        const NumberCell v = numberCell(shareField, table.file, what, problems);
-        if (!v.bad && !v.value)
-            problems.push_back(errorAt("csv-missing-value", table.file, shareField, what + ": the cell is empty",
-                                       "Give the share (0 to 1), or delete the row."));
-        Problem& p = problems.back();  // numberCell accepts what parseNumber refused only when empty
-        p.compartment = predatorName;
-        p.parameter = "diet";
-        p.prey = std::string(preyName);
-        loc.broken.insert({predatorName, "diet"});
-    }
-}
-
-void readWideDiet(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
-{
-    const CsvRecord& header = table.records.front();
-    const std::string_view corner = trim(header.fields[0].text);
-    if (!corner.empty() && corner != "predator") {
-        problems.push_back(errorAt("csv-header", table.file, header.fields[0],
-                                   "the first column must be headed 'predator', found " + shown(corner),
-                                   "Column 1 holds predator names; each further column is a prey (or 'import')."));
+    const CsvField& predatorField = r.fields[0];
+    const CsvField& preyField = r.fields[1];
+    const CsvField& shareField = r.fields[2];
+    const auto predator = knownCompartment(names, predatorField, file, "predator", problems);
+    const bool isImport = trim(preyField.text) == kImportColumn;
+    const auto prey = isImport ? std::optional<std::size_t>(importIndex)
+                               : knownCompartment(names, preyField, file, "prey", problems);
+    if (!predator || !prey) {
+        if (predator) loc.broken.insert({model.compartment(*predator).name, "diet"});
         return;
     }
+    const std::string& predatorName = model.compartment(*predator).name;
+    const std::string_view preyName = isImport ? kImportColumn : std::string_view(model.compartment(*prey).name);
+    loc.dietLine.emplace(*predator, r.line);  // keeps the predator's first line
+    const auto [entry, isNew] = loc.dietEntryLine.emplace(dietEntryKey(model, *predator, *prey), r.line);
+    if (!isNew) {
+        problems.push_back(errorAt("csv-duplicate-row", file, preyField,
+                                   "the share of " + shown(preyName) + " in the diet of " + shown(predatorName) +
+                                       " is already given on line " + std::to_string(entry->second),
+                                   "Give one row per predator and prey."));
+        loc.broken.insert({predatorName, "diet"});
+        return;
+    }
+    if (const auto share = parseNumber(trim(shareField.text))) {  // the common case, without message text
+        if (isImport) model.setDietImport(*predator, *share);
+        else model.setDiet(*predator, *prey, *share);
+        return;
+    }
+    const std::string what = "share of " + shown(preyName) + " in the diet of " + shown(predatorName);
+    const NumberCell v = numberCell(shareField, file, what, problems);
+    if (!v.bad && !v.value)
+        problems.push_back(errorAt("csv-missing-value", file, shareField, what + ": the cell is empty",
+                                   "Give the share (0 to 1), or delete the row."));
+    Problem& p = problems.back();  // numberCell accepts what parseNumber refused only when empty
+    p.compartment = predatorName;
+    p.parameter = "diet";
+    p.prey = std::string(preyName);
+    loc.broken.insert({predatorName, "diet"});
+}
 
-    // What each further column holds: a compartment index, or one of these.
-    constexpr long kImport = -1, kUnnamed = -2, kUnusable = -3;
-    std::vector<long> prey(header.fields.size(), kUnusable);
-    std::map<std::string, int, std::less<>> seenColumn;
-    for (std::size_t col = 1; col < header.fields.size(); ++col) {
-        const CsvField& f = header.fields[col];
-        const std::string name(trim(f.text));
-        if (name.empty()) {
-            prey[col] = kUnnamed;
-            continue;
+// The wide form, read row by row as the file is parsed (see readDiet).
+class WideDietReader {
+public:
+    WideDietReader(Model& model, const NameIndex& names, Locations& loc, Problems& problems, std::string file)
+        : model_(model), names_(names), loc_(loc), problems_(problems), file_(std::move(file))
+    {
+    }
+
+    void header(const CsvRecord& header)
+    {
+        const std::string_view corner = trim(header.fields[0].text);
+        if (!corner.empty() && corner != "predator") {
+            problems_.push_back(errorAt("csv-header", file_, header.fields[0],
+                                        "the first column must be headed 'predator', found " + shown(corner),
+                                        "Column 1 holds predator names; each further column is a prey (or 'import')."));
+            refused_ = true;
+            return;
         }
-        if (const auto it = seenColumn.find(name); it != seenColumn.end()) {
-            problems.push_back(errorAt("csv-duplicate-column", table.file, f,
-                                       "prey column " + shown(name) + " appears twice (first in column " +
-                                           std::to_string(it->second) + ")"));
-            continue;
-        }
-        seenColumn.emplace(name, f.column);
-        if (name == kImportColumn) {
-            prey[col] = kImport;
-            loc.importColumn = f.column;
-        } else if (const auto i = names.find(name)) {
-            prey[col] = static_cast<long>(*i);
-            loc.preyColumn[*i] = f.column;
-        } else {
-            std::string hint = names.didYouMean(name);
-            if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
-            problems.push_back(errorAt("csv-unknown-compartment", table.file, f,
-                                       "prey column " + shown(name) + " is not a compartment of compartments.csv",
-                                       hint));
+        prey_.assign(header.fields.size(), kUnusable);
+        std::map<std::string, int, std::less<>> seenColumn;
+        for (std::size_t col = 1; col < header.fields.size(); ++col) {
+            const CsvField& f = header.fields[col];
+            const std::string name(trim(f.text));
+            if (name.empty()) {
+                prey_[col] = kUnnamed;
+                continue;
+            }
+            if (const auto it = seenColumn.find(name); it != seenColumn.end()) {
+                problems_.push_back(errorAt("csv-duplicate-column", file_, f,
+                                            "prey column " + shown(name) + " appears twice (first in column " +
+                                                std::to_string(it->second) + ")"));
+                continue;
+            }
+            seenColumn.emplace(name, f.column);
+            if (name == kImportColumn) {
+                prey_[col] = kImport;
+                loc_.importColumn = f.column;
+            } else if (const auto i = names_.find(name)) {
+                prey_[col] = static_cast<long>(*i);
+                loc_.preyColumn[*i] = f.column;
+            } else {
+                std::string hint = names_.didYouMean(name);
+                if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
+                problems_.push_back(errorAt("csv-unknown-compartment", file_, f,
+                                            "prey column " + shown(name) + " is not a compartment of compartments.csv",
+                                            hint));
+            }
         }
     }
 
-    for (std::size_t k = 1; k < table.records.size(); ++k) {
-        const CsvRecord& r = table.records[k];
-        if (!rowShapeOk(r, header.fields.size(), table.file, problems)) continue;
-        const auto predator = knownCompartment(names, r.fields[0], table.file, "predator", problems);
-        if (!predator) continue;
-        const std::string& predatorName = model.compartment(*predator).name;
-        if (const auto it = loc.dietLine.find(*predator); it != loc.dietLine.end()) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, r.fields[0],
-                                       "the diet of " + shown(predatorName) + " is already given on line " +
-                                           std::to_string(it->second)));
-            continue;
+    void row(const CsvRecord& r)
+    {
+        if (refused_ || !rowShapeOk(r, prey_.size(), file_, problems_)) return;
+        const auto predator = knownCompartment(names_, r.fields[0], file_, "predator", problems_);
+        if (!predator) return;
+        const std::string& predatorName = model_.compartment(*predator).name;
+        if (const auto it = loc_.dietLine.find(*predator); it != loc_.dietLine.end()) {
+            problems_.push_back(errorAt("csv-duplicate-row", file_, r.fields[0],
+                                        "the diet of " + shown(predatorName) + " is already given on line " +
+                                            std::to_string(it->second)));
+            return;
         }
-        loc.dietLine.emplace(*predator, r.line);
+        loc_.dietLine.emplace(*predator, r.line);
 
-        const std::size_t before = problems.size();
-        for (std::size_t col = 1; col < header.fields.size(); ++col) {
+        const std::size_t before = problems_.size();
+        for (std::size_t col = 1; col < prey_.size(); ++col) {
             const CsvField& f = r.fields[col];
-            if (prey[col] == kUnusable) continue;
-            if (prey[col] == kUnnamed) {
+            if (prey_[col] == kUnusable) continue;
+            if (prey_[col] == kUnnamed) {
                 if (!trim(f.text).empty())
-                    problems.push_back(errorAt("csv-header", table.file, f,
-                                               "this cell has no prey name above it but holds " + shown(f.text)));
+                    problems_.push_back(errorAt("csv-header", file_, f,
+                                                "this cell has no prey name above it but holds " + shown(f.text)));
                 continue;
             }
             if (trim(f.text).empty()) continue;  // 0, and most cells of a wide diet: no message text to build
             const std::string preyName =
-                prey[col] == kImport ? std::string(kImportColumn) : model.compartment(prey[col]).name;
+                prey_[col] == kImport ? std::string(kImportColumn) : model_.compartment(prey_[col]).name;
             const NumberCell v = numberCell(
-                f, table.file, "share of " + shown(preyName) + " in the diet of " + shown(predatorName), problems);
+                f, file_, "share of " + shown(preyName) + " in the diet of " + shown(predatorName), problems_);
             if (v.bad) {
-                Problem& p = problems.back();
+                Problem& p = problems_.back();
                 p.compartment = predatorName;
                 p.parameter = "diet";
                 p.prey = preyName;
                 continue;
             }
             if (!v.value) continue;
-            if (prey[col] == kImport) model.setDietImport(*predator, *v.value);
-            else model.setDiet(*predator, static_cast<std::size_t>(prey[col]), *v.value);
+            if (prey_[col] == kImport) model_.setDietImport(*predator, *v.value);
+            else model_.setDiet(*predator, static_cast<std::size_t>(prey_[col]), *v.value);
         }
-        if (problems.size() != before) loc.broken.insert({predatorName, "diet"});
+        if (problems_.size() != before) loc_.broken.insert({predatorName, "diet"});
     }
-    // A prey column that could not be read leaves every row's sum in doubt.
-    if (std::find(prey.begin() + 1, prey.end(), kUnusable) != prey.end())
-        for (const Compartment& c : model.compartments()) loc.broken.insert({c.name, "diet"});
-}
 
-void readDiet(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
-{
-    if (table.records.empty()) {
-        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
-                                     "the file is empty; expected a header: predator, then one column per prey"));
-        return;
+    void finish()
+    {
+        // A prey column that could not be read leaves every row's sum in doubt.
+        if (!refused_ && std::find(prey_.begin() + 1, prey_.end(), kUnusable) != prey_.end())
+            for (const Compartment& c : model_.compartments()) loc_.broken.insert({c.name, "diet"});
     }
-    const CsvRecord& header = table.records.front();
-    if (refuseOtherSeparators(header, table.file, problems)) return;
-    if (isLongDietHeader(header, names)) readLongDiet(table, model, names, loc, problems);
-    else readWideDiet(table, model, names, loc, problems);
+
+private:
+    // What each column after the first holds: a compartment index, or one of these.
+    static constexpr long kImport = -1, kUnnamed = -2, kUnusable = -3;
+    Model& model_;
+    const NameIndex& names_;
+    Locations& loc_;
+    Problems& problems_;
+    const std::string file_;
+    std::vector<long> prey_;
+    bool refused_ = false;
+};
+
+// Reads diet.csv while it is parsed, row by row: a wide diet is n x n cells, and holding
+// them all as parsed fields cost more (memory, page faults) than reading them. Problems
+// keep the order of the other files: the parser's first, then the reader's.
+void readDiet(const std::filesystem::path& path, Model& model, const NameIndex& names, Locations& loc,
+              Problems& problems)
+{
+    const std::string file = path.string();
+    Problems found;
+    enum class Form { None, Refused, Wide, Long } form = Form::None;
+    WideDietReader wide(model, names, loc, found, file);
+    Problems parsing = readCsvFileRecords(path, [&](CsvRecord& r) {
+        switch (form) {
+        case Form::None:
+            if (refuseOtherSeparators(r, file, found)) {
+                form = Form::Refused;
+            } else if (isLongDietHeader(r, names)) {
+                form = Form::Long;
+                loc.longDiet = true;
+            } else {
+                form = Form::Wide;
+                wide.header(r);
+            }
+            break;
+        case Form::Long: readLongDietRow(r, file, model, names, loc, found); break;
+        case Form::Wide: wide.row(r); break;
+        case Form::Refused: break;
+        }
+    });
+    if (form == Form::None)
+        found.push_back(problemAt("csv-header", Severity::Error, file, 1, 0,
+                                  "the file is empty; expected a header: predator, then one column per prey"));
+    if (form == Form::Wide) wide.finish();
+    problems.insert(problems.end(), std::make_move_iterator(parsing.begin()), std::make_move_iterator(parsing.end()));
+    problems.insert(problems.end(), std::make_move_iterator(found.begin()), std::make_move_iterator(found.end()));
 }
 
 // harvest.csv ------------------------------------------------------------------------
@@ -1105,8 +1152,8 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
                                          [](const Compartment& c) { return c.kind == CompartmentKind::Consumer; });
     const NameIndex names(model);  // no compartment is added from here on
     // Without compartments.csv, a missing diet.csv would only add noise.
-    if (const auto t = readSheet(folder, kDietFile, compartments && anyConsumer, problems))
-        readDiet(*t, model, names, loc, problems);
+    if (sheetPresent(folder, kDietFile, compartments && anyConsumer, problems))
+        readDiet(folder / kDietFile, model, names, loc, problems);
     if (const auto t = readSheet(folder, kHarvestFile, false, problems)) readHarvest(*t, model, names, loc, problems);
     if (const auto t = readSheet(folder, kRoutingFile, false, problems)) readRouting(*t, model, names, loc, problems);
     if (const auto t = readSheet(folder, kConfidenceFile, false, problems)) readConfidence(*t, model, names, problems);
