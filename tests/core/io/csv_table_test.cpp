@@ -53,6 +53,33 @@ TEST(CsvTable, AcceptsCrlfCrAndBomAndDropsBlankLines)
     EXPECT_EQ(r.table.records[2].line, 5);
 }
 
+TEST(CsvTable, RecordByRecordSeesWhatTheTableHolds)
+{
+    // Rows of different widths, quotes, a line break inside quotes, a blank line, a bad quote.
+    const std::string text = "a,b,c\n1,2\n\n\"x\ny\",\"q\"z,3,4,5\n,,\nlast";
+    const CsvParseResult whole = parseCsv(text, "t.csv");
+    std::vector<CsvRecord> seen;
+    int calls = 0;
+    const Problems problems = parseCsvRecords(text, "t.csv", [&](CsvRecord& r) {
+        ++calls;
+        seen.push_back(r);  // a copy: the parser reuses r for the next record
+    });
+    EXPECT_EQ(calls, 4);
+    ASSERT_EQ(seen.size(), whole.table.records.size());
+    for (std::size_t k = 0; k < seen.size(); ++k) {
+        EXPECT_EQ(seen[k].line, whole.table.records[k].line);
+        ASSERT_EQ(seen[k].fields.size(), whole.table.records[k].fields.size()) << "record " << k;
+        for (std::size_t c = 0; c < seen[k].fields.size(); ++c) {
+            EXPECT_EQ(seen[k].fields[c].text, whole.table.records[k].fields[c].text);
+            EXPECT_EQ(seen[k].fields[c].line, whole.table.records[k].fields[c].line);
+            EXPECT_EQ(seen[k].fields[c].column, whole.table.records[k].fields[c].column);
+        }
+    }
+    ASSERT_EQ(problems.size(), whole.problems.size());
+    ASSERT_EQ(problems.size(), 1u);  // text after the closing quote of "q"
+    EXPECT_EQ(problems[0].message, whole.problems[0].message);
+}
+
 TEST(CsvTable, EmptyTextHasNoRecords)
 {
     EXPECT_TRUE(parseCsv("", "t.csv").table.records.empty());

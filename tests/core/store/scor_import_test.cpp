@@ -122,7 +122,8 @@ TEST_F(CharcaImport, FlowOrderInTheNetworkDoesNotChangeTheModel)
     EXPECT_EQ(*again.model, *imported.model);
 }
 
-TEST(ScorImport, RepeatedFlowsBetweenTheSamePairAreSummed)
+// An invented three-node network (algae -> grazer -> detritus), balanced.
+ScorNetwork tinyNetwork()
 {
     ScorNetwork net;
     net.names = {"algae", "grazer", "detritus"};
@@ -132,6 +133,12 @@ TEST(ScorImport, RepeatedFlowsBetweenTheSamePairAreSummed)
     net.exports = {0.0, 0.0, 40.0};
     net.respiration = {40.0, 10.0, 0.0};
     net.flows = {{0, 1, 30.0}, {0, 2, 30.0}, {1, 2, 20.0}};
+    return net;
+}
+
+TEST(ScorImport, RepeatedFlowsBetweenTheSamePairAreSummed)
+{
+    const ScorNetwork net = tinyNetwork();
     ScorNetwork split = net;  // algae -> grazer given as 10 + 20, out of order
     split.flows = {{1, 2, 20.0}, {0, 1, 10.0}, {0, 2, 30.0}, {0, 1, 20.0}};
     const ScorImport a = modelFromScor(net, "tiny.scor"), b = modelFromScor(split, "tiny.scor");
@@ -144,14 +151,8 @@ TEST(ScorImport, RepeatedFlowsBetweenTheSamePairAreSummed)
 
 TEST(ScorImport, LivingNodeWithoutStockIsAnError)
 {
-    ScorNetwork net;
-    net.names = {"algae", "grazer", "detritus"};
-    net.livingCount = 2;
-    net.stocks = {5.0, 0.0, 10.0};
-    net.imports = {100.0, 0.0, 0.0};
-    net.exports = {0.0, 0.0, 40.0};
-    net.respiration = {40.0, 10.0, 0.0};
-    net.flows = {{0, 1, 30.0}, {0, 2, 30.0}, {1, 2, 20.0}};
+    ScorNetwork net = tinyNetwork();
+    net.stocks[1] = 0.0;  // the grazer
     const ScorImport result = modelFromScor(net, "tiny.scor");
     EXPECT_FALSE(result.model);
     ASSERT_EQ(result.problems.size(), 1u);
