@@ -5,115 +5,190 @@
 #include <limits>
 
 namespace tl {
+namespace {
 
-TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal)
+// Strongly connected components of the feeding graph restricted to `member` nodes,
+// edges predator -> prey (share(prey, predator) != 0), by Tarjan's algorithm without
+// recursion. Components come out prey first: each one only depends on those before it.
+std::vector<std::vector<Eigen::Index>> componentsPreyFirst(const SparseColumns& share, const std::vector<bool>& member)
 {
-    const Eigen::Index n = diet.rows();
+    const Eigen::Index n = share.cols();
+    const int* outer = share.outerIndexPtr();
+    const int* inner = share.innerIndexPtr();
+    std::vector<int> index(static_cast<std::size_t>(n), -1), low(static_cast<std::size_t>(n), 0);
+    std::vector<bool> onStack(static_cast<std::size_t>(n), false);
+    std::vector<Eigen::Index> stack;
+    std::vector<std::pair<Eigen::Index, int>> calls;  // node, next entry of its column
+    std::vector<std::vector<Eigen::Index>> components;
+    int counter = 0;
+    for (Eigen::Index root = 0; root < n; ++root) {
+        if (!member[static_cast<std::size_t>(root)] || index[static_cast<std::size_t>(root)] >= 0) continue;
+        calls.emplace_back(root, outer[root]);
+        while (!calls.empty()) {
+            auto& [v, next] = calls.back();
+            const auto sv = static_cast<std::size_t>(v);
+            if (next == outer[v]) {  // first visit
+                index[sv] = low[sv] = counter++;
+                stack.push_back(v);
+                onStack[sv] = true;
+            }
+            bool descended = false;
+            while (next < outer[v + 1]) {
+                const Eigen::Index w = inner[next++];
+                const auto sw = static_cast<std::size_t>(w);
+                if (!member[sw]) continue;
+                if (index[sw] < 0) {
+                    calls.emplace_back(w, outer[w]);
+                    descended = true;
+                    break;
+                }
+                if (onStack[sw]) low[sv] = std::min(low[sv], index[sw]);
+            }
+            if (descended) continue;
+            if (low[sv] == index[sv]) {
+                std::vector<Eigen::Index> component;
+                Eigen::Index w = -1;
+                do {
+                    w = stack.back();
+                    stack.pop_back();
+                    onStack[static_cast<std::size_t>(w)] = false;
+                    component.push_back(w);
+                } while (w != v);
+                components.push_back(std::move(component));
+            }
+            const Eigen::Index finished = v;
+            calls.pop_back();
+            if (!calls.empty()) {
+                const auto parent = static_cast<std::size_t>(calls.back().first);
+                low[parent] = std::min(low[parent], low[static_cast<std::size_t>(finished)]);
+            }
+        }
+    }
+    return components;
+}
+
+// Marks every node reachable from a marked one along prey -> predator edges, skipping
+// nodes for which `skip` holds. byPrey(i, j) != 0 when j eats i (row i lists i's predators).
+void spreadToPredators(const Eigen::SparseMatrix<double, Eigen::RowMajor, int>& byPrey, std::vector<bool>& marked,
+                       const std::vector<bool>& skip)
+{
+    std::vector<Eigen::Index> queue;
+    for (std::size_t i = 0; i < marked.size(); ++i)
+        if (marked[i]) queue.push_back(static_cast<Eigen::Index>(i));
+    while (!queue.empty()) {
+        const Eigen::Index i = queue.back();
+        queue.pop_back();
+        for (Eigen::SparseMatrix<double, Eigen::RowMajor, int>::InnerIterator it(byPrey, i); it; ++it) {
+            const auto j = static_cast<std::size_t>(it.index());
+            if (marked[j] || skip[j]) continue;
+            marked[j] = true;
+            queue.push_back(it.index());
+        }
+    }
+}
+
+}  // namespace
+
+TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal)
+{
+    const Eigen::Index n = diet.cols();
+    const auto sn = static_cast<std::size_t>(n);
     TrophicLevels out;
     out.tl.setConstant(n, std::numeric_limits<double>::quiet_NaN());
     out.oi.setConstant(n, std::numeric_limits<double>::quiet_NaN());
-    out.note.assign(static_cast<std::size_t>(n), TrophicLevelNote::Computed);
+    out.note.assign(sn, TrophicLevelNote::Computed);
 
     // Renormalised diet; "fixed" nodes have a known level (basal 1, no prey 2).
-    Eigen::MatrixXd share = Eigen::MatrixXd::Zero(n, n);
-    std::vector<bool> fixed(static_cast<std::size_t>(n), false);
+    SparseColumns share = diet;
+    share.makeCompressed();
+    std::vector<bool> fixed(sn, false);
     for (Eigen::Index j = 0; j < n; ++j) {
         const auto s = static_cast<std::size_t>(j);
-        if (basal[s]) {
-            out.note[s] = TrophicLevelNote::Basal;
-            out.tl[j] = 1.0;
+        double sum = 0.0;
+        for (SparseColumns::InnerIterator it(share, j); it; ++it) sum += it.value();
+        if (basal[s] || !(sum > 0.0)) {
+            out.note[s] = basal[s] ? TrophicLevelNote::Basal : TrophicLevelNote::NoModelledPrey;
+            out.tl[j] = basal[s] ? 1.0 : 2.0;
             out.oi[j] = 0.0;
             fixed[s] = true;
+            for (SparseColumns::InnerIterator it(share, j); it; ++it) it.valueRef() = 0.0;
             continue;
         }
-        const double sum = diet.col(j).sum();
-        if (!(sum > 0.0)) {
-            out.note[s] = TrophicLevelNote::NoModelledPrey;
-            out.tl[j] = 2.0;
-            out.oi[j] = 0.0;
-            fixed[s] = true;
-            continue;
-        }
-        share.col(j) = diet.col(j) / sum;
+        for (SparseColumns::InnerIterator it(share, j); it; ++it) it.valueRef() /= sum;
     }
+    share.prune(0.0);
+    const Eigen::SparseMatrix<double, Eigen::RowMajor, int> byPrey = share;
 
-    // grounded: some food chain from the node reaches a fixed node.
+    // grounded: some food chain from the node reaches a fixed node; undefined: some
+    // food chain from it reaches an ungrounded node.
     std::vector<bool> grounded = fixed;
-    for (bool changed = true; changed;) {
-        changed = false;
-        for (Eigen::Index j = 0; j < n; ++j) {
-            if (grounded[static_cast<std::size_t>(j)]) continue;
-            for (Eigen::Index i = 0; i < n; ++i)
-                if (share(i, j) != 0.0 && grounded[static_cast<std::size_t>(i)]) {
-                    grounded[static_cast<std::size_t>(j)] = changed = true;
-                    break;
-                }
-        }
-    }
-    // undefined: some food chain from the node reaches an ungrounded node.
-    std::vector<bool> undefined(static_cast<std::size_t>(n));
-    for (Eigen::Index j = 0; j < n; ++j) undefined[static_cast<std::size_t>(j)] = !grounded[static_cast<std::size_t>(j)];
-    for (bool changed = true; changed;) {
-        changed = false;
-        for (Eigen::Index j = 0; j < n; ++j) {
-            if (undefined[static_cast<std::size_t>(j)] || fixed[static_cast<std::size_t>(j)]) continue;
-            for (Eigen::Index i = 0; i < n; ++i)
-                if (share(i, j) != 0.0 && undefined[static_cast<std::size_t>(i)]) {
-                    undefined[static_cast<std::size_t>(j)] = changed = true;
-                    break;
-                }
-        }
+    spreadToPredators(byPrey, grounded, std::vector<bool>(sn, false));
+    std::vector<bool> undefined(sn);
+    for (std::size_t j = 0; j < sn; ++j) undefined[j] = !grounded[j];
+    spreadToPredators(byPrey, undefined, fixed);
+
+    std::vector<bool> member(sn, false);
+    for (std::size_t j = 0; j < sn; ++j) {
+        if (undefined[j]) out.note[j] = TrophicLevelNote::Undefined;
+        else member[j] = !fixed[j];
     }
 
-    // Solve (I - S^T) TL = 1 + sum_fixed DC'_ij TL_i over the remaining consumers.
-    std::vector<Eigen::Index> unknownIndex(static_cast<std::size_t>(n), -1);
-    std::vector<Eigen::Index> members;
-    for (Eigen::Index j = 0; j < n; ++j) {
-        const auto s = static_cast<std::size_t>(j);
-        if (undefined[s]) out.note[s] = TrophicLevelNote::Undefined;
-        else if (!fixed[s]) {
-            unknownIndex[s] = static_cast<Eigen::Index>(members.size());
-            members.push_back(j);
+    // TL_j - sum_{i in block} DC'_ij TL_i = 1 + sum_{i before} DC'_ij TL_i, block by block.
+    std::vector<int> local(sn, -1);
+    for (const std::vector<Eigen::Index>& block : componentsPreyFirst(share, member)) {
+        if (block.size() == 1) {
+            const Eigen::Index j = block.front();
+            double rhs = 1.0, self = 0.0;
+            for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+                if (it.index() == j) self += it.value();  // cannibalism
+                else rhs += it.value() * out.tl[it.index()];
+            }
+            out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
+            continue;
         }
-    }
-    const auto k = static_cast<Eigen::Index>(members.size());
-    if (k > 0) {
+        const auto k = static_cast<Eigen::Index>(block.size());
+        for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(block[static_cast<std::size_t>(r)])] = static_cast<int>(r);
         Eigen::MatrixXd a = Eigen::MatrixXd::Identity(k, k);
         Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
-        for (Eigen::Index r = 0; r < k; ++r) {
-            const Eigen::Index j = members[static_cast<std::size_t>(r)];
-            for (Eigen::Index i = 0; i < n; ++i) {
-                const double w = share(i, j);
-                if (w == 0.0) continue;
-                const Eigen::Index c = unknownIndex[static_cast<std::size_t>(i)];
-                if (c >= 0) a(r, c) -= w;
-                else b[r] += w * out.tl[i];  // a fixed prey (undefined prey excluded above)
+        for (Eigen::Index r = 0; r < k; ++r)
+            for (SparseColumns::InnerIterator it(share, block[static_cast<std::size_t>(r)]); it; ++it) {
+                const int c = local[static_cast<std::size_t>(it.index())];
+                if (c >= 0) a(r, c) -= it.value();
+                else b[r] += it.value() * out.tl[it.index()];  // fixed or an earlier block
             }
-        }
         const Eigen::VectorXd levels = a.partialPivLu().solve(b);  // nonsingular: every chain reaches a fixed node
-        for (Eigen::Index r = 0; r < k; ++r) out.tl[members[static_cast<std::size_t>(r)]] = levels[r];
-        for (Eigen::Index j : members) {
-            double oi = 0.0;
-            for (Eigen::Index i = 0; i < n; ++i) {
-                const double w = share(i, j);
-                if (w != 0.0) oi += w * std::pow(out.tl[i] - (out.tl[j] - 1.0), 2);
-            }
-            out.oi[j] = oi;
+        for (Eigen::Index r = 0; r < k; ++r) {
+            out.tl[block[static_cast<std::size_t>(r)]] = levels[r];
+            local[static_cast<std::size_t>(block[static_cast<std::size_t>(r)])] = -1;
         }
     }
+    for (Eigen::Index j = 0; j < n; ++j) {
+        if (!member[static_cast<std::size_t>(j)]) continue;
+        double oi = 0.0;
+        for (SparseColumns::InnerIterator it(share, j); it; ++it)
+            oi += it.value() * std::pow(out.tl[it.index()] - (out.tl[j] - 1.0), 2);
+        out.oi[j] = oi;
+    }
     return out;
+}
+
+TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal)
+{
+    return computeTrophicLevels(SparseColumns(diet.sparseView(1.0, 0.0)), basal);
 }
 
 TrophicLevels computeTrophicLevels(const Model& model)
 {
     const auto n = static_cast<Eigen::Index>(model.size());
-    Eigen::MatrixXd diet(n, n);
+    std::vector<Eigen::Triplet<double, int>> entries;
     std::vector<bool> basal(model.size());
     for (std::size_t j = 0; j < model.size(); ++j) {
         basal[j] = model.compartment(j).kind != CompartmentKind::Consumer;
-        for (std::size_t i = 0; i < model.size(); ++i)
-            diet(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = model.diet(j, i);
+        for (const auto& [prey, dc] : model.dietRow(j))
+            entries.emplace_back(static_cast<int>(prey), static_cast<int>(j), dc);
     }
+    SparseColumns diet(n, n);
+    diet.setFromTriplets(entries.begin(), entries.end());
     return computeTrophicLevels(diet, basal);
 }
 
