@@ -308,7 +308,9 @@ def main():
         print("GUI: not built (gui_bench missing), edit-to-redraw not measured.")
 
     print()
-    print("Growth exponent from 50 to 5000 compartments (cost ∝ n^k, least squares over the sizes run):")
+    fitted = [n for n in sizes if 50 <= n <= 5000]
+    print(f"Growth exponent k (cost ∝ n^k, least squares on log-log over n = {', '.join(map(str, fitted))};"
+          " a skipped size is left out):")
     costs = {}
     for mix in MIXES:
         costs[f"numeric step, {mix}"] = [(n, rows[(n, mix)]["numeric"]) for n in sizes]
