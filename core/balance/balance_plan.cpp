@@ -102,7 +102,7 @@ BalanceInputs BalanceInputs::fromModel(const Model& model)
         v->setZero(en);
 
     const std::vector<std::size_t> pools = model.detritusPools();
-    std::vector<Eigen::Triplet<double, int>> dietEntries, routingEntries, discardEntries;
+    std::size_t dietEntries = 0;
     for (std::size_t i = 0; i < n; ++i) {
         const Compartment& c = model.compartment(i);
         const auto k = static_cast<Eigen::Index>(i);
@@ -112,38 +112,52 @@ BalanceInputs BalanceInputs::fromModel(const Model& model)
         in.ee[k] = given(c, Param::EE);
         in.pq[k] = given(c, Param::PQ);
         in.unassim[k] = c.isLiving() ? c.unassimilatedOrDefault() : 0.0;
-        in.catchTotal[k] = model.totalCatch(i);
-        in.deadDiscards[k] = model.deadDiscards(i);
         in.netEmigration[k] = c.valueOr(Param::NetEmigration, 0.0);
         in.biomassAccum[k] = c.valueOr(Param::BiomassAccum, 0.0);
         in.detritusImport[k] = c.kind == CompartmentKind::Detritus ? c.valueOr(Param::DetritusImport, 0.0) : 0.0;
-        for (const auto& [prey, dc] : model.dietRow(i))  // i eats prey
-            dietEntries.emplace_back(static_cast<int>(prey), static_cast<int>(i), dc);
-        if (!c.isLiving() || pools.empty()) continue;
-        if (!model.hasExplicitRouting(i)) {  // everything to the first pool
-            routingEntries.emplace_back(static_cast<int>(i), static_cast<int>(pools.front()), 1.0);
-            continue;
-        }
-        for (const auto& [pool, share] : model.routingRow(i))
-            if (model.compartment(pool).kind == CompartmentKind::Detritus)
-                routingEntries.emplace_back(static_cast<int>(i), static_cast<int>(pool), share);
+        dietEntries += model.dietRow(i).size();
     }
-    // Dead discards go to the fleet's discard pool, else to the first pool.
+    // Compressed columns filled in order: column j = predator j, prey ascending.
+    in.diet.resize(en, en);
+    in.diet.reserve(static_cast<Eigen::Index>(dietEntries));
+    for (std::size_t j = 0; j < n; ++j) {
+        in.diet.startVec(static_cast<Eigen::Index>(j));
+        for (const auto& [prey, dc] : model.dietRow(j))
+            in.diet.insertBack(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(j)) = dc;
+    }
+    in.diet.finalize();
+    // Routing: column d = pool d, sources ascending; a source without explicit routing
+    // sends everything to the first pool.
+    in.routing.resize(en, en);
+    in.routing.reserve(static_cast<Eigen::Index>(n));
+    for (std::size_t d = 0; d < n; ++d) {
+        in.routing.startVec(static_cast<Eigen::Index>(d));
+        if (model.compartment(d).kind != CompartmentKind::Detritus) continue;
+        for (std::size_t i = 0; i < n; ++i) {
+            if (!model.compartment(i).isLiving()) continue;
+            const double share = model.hasExplicitRouting(i) ? model.routing(i, d) : (d == pools.front() ? 1.0 : 0.0);
+            if (share != 0.0) in.routing.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = share;
+        }
+    }
+    in.routing.finalize();
+    // Catch and dead discards; dead discards go to the fleet's discard pool, else to
+    // the first pool.
+    std::vector<Eigen::Triplet<double, int>> discardEntries;
     for (const Fleet& fleet : model.fleets()) {
         std::optional<std::size_t> pool = fleet.discardPool;
         if (!pool || *pool >= n || model.compartment(*pool).kind != CompartmentKind::Detritus)
             pool = pools.empty() ? std::nullopt : std::optional<std::size_t>(pools.front());
-        if (!pool) continue;
-        for (std::size_t i = 0; i < n; ++i)
-            if (const double dead = fleet.discards[i] * (1.0 - fleet.discardSurvival[i]); dead != 0.0)
-                discardEntries.emplace_back(static_cast<int>(i), static_cast<int>(*pool), dead);
+        for (std::size_t i = 0; i < n; ++i) {
+            const double dead = fleet.discards[i] * (1.0 - fleet.discardSurvival[i]);
+            in.catchTotal[static_cast<Eigen::Index>(i)] += fleet.landings[i];  // landings, for now
+            in.deadDiscards[static_cast<Eigen::Index>(i)] += dead;
+            if (pool && dead != 0.0) discardEntries.emplace_back(static_cast<int>(i), static_cast<int>(*pool), dead);
+        }
     }
-    for (auto [matrix, entries] : {std::pair{&in.diet, &dietEntries}, std::pair{&in.routing, &routingEntries},
-                                   std::pair{&in.discardsToPool, &discardEntries}}) {
-        matrix->resize(en, en);
-        matrix->setFromTriplets(entries->begin(), entries->end());  // duplicates summed
-        matrix->makeCompressed();
-    }
+    in.catchTotal += in.deadDiscards;  // Y = landings + dead discards, as Model::totalCatch sums them
+    in.discardsToPool.resize(en, en);
+    in.discardsToPool.setFromTriplets(discardEntries.begin(), discardEntries.end());  // duplicates summed
+    in.discardsToPool.makeCompressed();
     return in;
 }
 
@@ -194,11 +208,14 @@ BalancePlan BalancePlan::build(const Model& model)
                                           "P/Q of '" + c.name + "' must be above 0 to stand in for P/B or Q/B.",
                                           "Enter a positive P/Q, or give P/B and Q/B."));
         }
-        std::vector<Param> missing;
-        if (missB) missing.push_back(Param::Biomass);
-        if (missPB) missing.push_back(Param::PB);
-        if (missQB) missing.push_back(Param::QB);
-        if (missEE) missing.push_back(Param::EE);
+        std::vector<Param> missing;  // allocates only when something is missing
+        if (missB || missPB || missQB || missEE) {
+            missing.reserve(4);
+            if (missB) missing.push_back(Param::Biomass);
+            if (missPB) missing.push_back(Param::PB);
+            if (missQB) missing.push_back(Param::QB);
+            if (missEE) missing.push_back(Param::EE);
+        }
         if (missing.size() >= 2) {
             plan.problems_.push_back(code::makeProblem(code::kUnderdetermined, Severity::Error, c.name, std::string(paramKey(missing.front())),
                  "'" + c.name + "' has " + std::to_string(missing.size()) + " unknowns (" + joinSymbols(missing) +

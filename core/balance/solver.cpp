@@ -5,7 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
+#include <charconv>
 #include <set>
 #include <string>
 
@@ -18,11 +18,13 @@
 namespace tl {
 namespace {
 
+// As printf's %.4g (std::to_chars in general format is specified to match it), without
+// printf's cost: the checks of a large model format thousands of numbers.
 std::string num(double v)
 {
     char buf[32];
-    std::snprintf(buf, sizeof buf, "%.4g", v);
-    return buf;
+    const auto end = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::general, 4).ptr;
+    return std::string(buf, end);
 }
 
 using code::makeProblem;

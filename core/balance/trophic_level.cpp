@@ -4,85 +4,134 @@
 #include <cmath>
 #include <limits>
 
+#include <Eigen/SparseLU>
+
 namespace tl {
 namespace {
 
-// Strongly connected components of the feeding graph restricted to `member` nodes,
-// edges predator -> prey (share(prey, predator) != 0), by Tarjan's algorithm without
-// recursion. Components come out prey first: each one only depends on those before it.
-std::vector<std::vector<Eigen::Index>> componentsPreyFirst(const SparseColumns& share, const std::vector<bool>& member)
+// Feeding loops up to this size are solved dense, larger ones with a sparse LU.
+constexpr Eigen::Index kDenseBlock = 48;
+
+// One feeding loop (strongly connected component) of consumers, all of whose outside
+// prey already have their level: TL_j - sum_{i in loop} DC'_ij TL_i = 1 + sum_{i outside} DC'_ij TL_i.
+void solveLoop(const SparseColumns& share, const Eigen::Index* members, Eigen::Index k, std::vector<int>& local,
+               Eigen::VectorXd& tl)
+{
+    for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(members[r])] = static_cast<int>(r);
+    std::vector<Eigen::Triplet<double, int>> entries;
+    Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
+    for (Eigen::Index r = 0; r < k; ++r) {
+        entries.emplace_back(static_cast<int>(r), static_cast<int>(r), 1.0);
+        for (SparseColumns::InnerIterator it(share, members[r]); it; ++it) {
+            const int c = local[static_cast<std::size_t>(it.index())];
+            if (c >= 0) entries.emplace_back(static_cast<int>(r), c, -it.value());
+            else b[r] += it.value() * tl[it.index()];
+        }
+    }
+    // Nonsingular: every chain reaches a fixed node. Small loops dense, large sparse.
+    Eigen::VectorXd levels;
+    if (k <= kDenseBlock) {
+        Eigen::MatrixXd a = Eigen::MatrixXd::Zero(k, k);
+        for (const auto& e : entries) a(e.row(), e.col()) += e.value();
+        levels = a.partialPivLu().solve(b);
+    } else {
+        SparseColumns a(k, k);
+        a.setFromTriplets(entries.begin(), entries.end());
+        Eigen::SparseLU<SparseColumns, Eigen::COLAMDOrdering<int>> lu(a);
+        levels = lu.solve(b);
+    }
+    for (Eigen::Index r = 0; r < k; ++r) {
+        tl[members[r]] = levels[r];
+        local[static_cast<std::size_t>(members[r])] = -1;
+    }
+}
+
+// share: renormalised diet, fixed columns (basal, no modelled prey) empty; out holds
+// TL 1 or 2 for fixed nodes. Tarjan's algorithm (without recursion) over the consumers
+// emits each feeding loop after everything its members eat, so one pass decides,
+// loop by loop:
+//   grounded  = some member eats a fixed or grounded node outside the loop (a food
+//               chain reaches a producer, pool or import-only consumer);
+//   undefined = not grounded, or some member eats an undefined node outside the loop;
+// and solves the levels of grounded, defined loops.
+void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, TrophicLevels& out)
 {
     const Eigen::Index n = share.cols();
+    const auto sn = static_cast<std::size_t>(n);
     const int* outer = share.outerIndexPtr();
     const int* inner = share.innerIndexPtr();
-    std::vector<int> index(static_cast<std::size_t>(n), -1), low(static_cast<std::size_t>(n), 0);
-    std::vector<bool> onStack(static_cast<std::size_t>(n), false);
+    std::vector<int> index(sn, -1), low(sn, 0), local(sn, -1);
+    std::vector<char> onStack(sn, 0), grounded(sn, 0), undefined(sn, 0);
+    for (std::size_t j = 0; j < sn; ++j) grounded[j] = fixed[j];
     std::vector<Eigen::Index> stack;
     std::vector<std::pair<Eigen::Index, int>> calls;  // node, next entry of its column
-    std::vector<std::vector<Eigen::Index>> components;
     int counter = 0;
     for (Eigen::Index root = 0; root < n; ++root) {
-        if (!member[static_cast<std::size_t>(root)] || index[static_cast<std::size_t>(root)] >= 0) continue;
+        if (fixed[static_cast<std::size_t>(root)] || index[static_cast<std::size_t>(root)] >= 0) continue;
         calls.emplace_back(root, outer[root]);
         while (!calls.empty()) {
-            auto& [v, next] = calls.back();
+            const Eigen::Index v = calls.back().first;
+            int& next = calls.back().second;
             const auto sv = static_cast<std::size_t>(v);
-            if (next == outer[v]) {  // first visit
+            if (index[sv] < 0) {  // first visit
                 index[sv] = low[sv] = counter++;
                 stack.push_back(v);
-                onStack[sv] = true;
+                onStack[sv] = 1;
             }
             bool descended = false;
             while (next < outer[v + 1]) {
-                const Eigen::Index w = inner[next++];
-                const auto sw = static_cast<std::size_t>(w);
-                if (!member[sw]) continue;
+                const auto sw = static_cast<std::size_t>(inner[next++]);
+                if (fixed[sw]) continue;
                 if (index[sw] < 0) {
-                    calls.emplace_back(w, outer[w]);
+                    calls.emplace_back(static_cast<Eigen::Index>(sw), outer[sw]);
                     descended = true;
                     break;
                 }
                 if (onStack[sw]) low[sv] = std::min(low[sv], index[sw]);
             }
             if (descended) continue;
-            if (low[sv] == index[sv]) {
-                std::vector<Eigen::Index> component;
-                Eigen::Index w = -1;
-                do {
-                    w = stack.back();
-                    stack.pop_back();
-                    onStack[static_cast<std::size_t>(w)] = false;
-                    component.push_back(w);
-                } while (w != v);
-                components.push_back(std::move(component));
-            }
-            const Eigen::Index finished = v;
             calls.pop_back();
             if (!calls.empty()) {
                 const auto parent = static_cast<std::size_t>(calls.back().first);
-                low[parent] = std::min(low[parent], low[static_cast<std::size_t>(finished)]);
+                low[parent] = std::min(low[parent], low[sv]);
             }
-        }
-    }
-    return components;
-}
-
-// Marks every node reachable from a marked one along prey -> predator edges, skipping
-// nodes for which `skip` holds. byPrey(i, j) != 0 when j eats i (row i lists i's predators).
-void spreadToPredators(const Eigen::SparseMatrix<double, Eigen::RowMajor, int>& byPrey, std::vector<bool>& marked,
-                       const std::vector<bool>& skip)
-{
-    std::vector<Eigen::Index> queue;
-    for (std::size_t i = 0; i < marked.size(); ++i)
-        if (marked[i]) queue.push_back(static_cast<Eigen::Index>(i));
-    while (!queue.empty()) {
-        const Eigen::Index i = queue.back();
-        queue.pop_back();
-        for (Eigen::SparseMatrix<double, Eigen::RowMajor, int>::InnerIterator it(byPrey, i); it; ++it) {
-            const auto j = static_cast<std::size_t>(it.index());
-            if (marked[j] || skip[j]) continue;
-            marked[j] = true;
-            queue.push_back(it.index());
+            if (low[sv] != index[sv]) continue;
+            // v roots a loop: the members are stack[first..end).
+            std::size_t first = stack.size();
+            do --first;
+            while (stack[first] != v);
+            const Eigen::Index* members = stack.data() + first;
+            const auto k = static_cast<Eigen::Index>(stack.size() - first);
+            for (Eigen::Index r = 0; r < k; ++r) onStack[static_cast<std::size_t>(members[r])] = 0;
+            bool isGrounded = false, eatsUndefined = false;
+            for (Eigen::Index r = 0; r < k; ++r)
+                for (int e = outer[members[r]]; e < outer[members[r] + 1]; ++e) {
+                    // Members are neither grounded nor undefined yet; outside prey are final.
+                    const auto prey = static_cast<std::size_t>(inner[e]);
+                    isGrounded = isGrounded || grounded[prey];
+                    eatsUndefined = eatsUndefined || undefined[prey];
+                }
+            const bool isUndefined = !isGrounded || eatsUndefined;
+            for (Eigen::Index r = 0; r < k; ++r) {
+                const auto s = static_cast<std::size_t>(members[r]);
+                grounded[s] = isGrounded;
+                undefined[s] = isUndefined;
+                if (isUndefined) out.note[s] = TrophicLevelNote::Undefined;
+            }
+            if (!isUndefined) {
+                if (k == 1) {  // no loop, or cannibalism only
+                    const Eigen::Index j = members[0];
+                    double rhs = 1.0, self = 0.0;
+                    for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+                        if (it.index() == j) self += it.value();
+                        else rhs += it.value() * out.tl[it.index()];
+                    }
+                    out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
+                } else {
+                    solveLoop(share, members, k, local, out.tl);
+                }
+            }
+            stack.resize(first);
         }
     }
 }
@@ -99,74 +148,35 @@ TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<
     out.note.assign(sn, TrophicLevelNote::Computed);
 
     // Renormalised diet; "fixed" nodes have a known level (basal 1, no prey 2).
-    SparseColumns share = diet;
-    share.makeCompressed();
+    SparseColumns share(n, n);
+    share.reserve(diet.nonZeros());
     std::vector<bool> fixed(sn, false);
     for (Eigen::Index j = 0; j < n; ++j) {
         const auto s = static_cast<std::size_t>(j);
+        share.startVec(j);
         double sum = 0.0;
-        for (SparseColumns::InnerIterator it(share, j); it; ++it) sum += it.value();
+        for (SparseColumns::InnerIterator it(diet, j); it; ++it) sum += it.value();
         if (basal[s] || !(sum > 0.0)) {
             out.note[s] = basal[s] ? TrophicLevelNote::Basal : TrophicLevelNote::NoModelledPrey;
             out.tl[j] = basal[s] ? 1.0 : 2.0;
             out.oi[j] = 0.0;
             fixed[s] = true;
-            for (SparseColumns::InnerIterator it(share, j); it; ++it) it.valueRef() = 0.0;
             continue;
         }
-        for (SparseColumns::InnerIterator it(share, j); it; ++it) it.valueRef() /= sum;
+        for (SparseColumns::InnerIterator it(diet, j); it; ++it)
+            if (it.value() != 0.0) share.insertBack(it.index(), j) = it.value() / sum;
     }
-    share.prune(0.0);
-    const Eigen::SparseMatrix<double, Eigen::RowMajor, int> byPrey = share;
+    share.finalize();
 
-    // grounded: some food chain from the node reaches a fixed node; undefined: some
-    // food chain from it reaches an ungrounded node.
-    std::vector<bool> grounded = fixed;
-    spreadToPredators(byPrey, grounded, std::vector<bool>(sn, false));
-    std::vector<bool> undefined(sn);
-    for (std::size_t j = 0; j < sn; ++j) undefined[j] = !grounded[j];
-    spreadToPredators(byPrey, undefined, fixed);
-
-    std::vector<bool> member(sn, false);
-    for (std::size_t j = 0; j < sn; ++j) {
-        if (undefined[j]) out.note[j] = TrophicLevelNote::Undefined;
-        else member[j] = !fixed[j];
-    }
-
-    // TL_j - sum_{i in block} DC'_ij TL_i = 1 + sum_{i before} DC'_ij TL_i, block by block.
-    std::vector<int> local(sn, -1);
-    for (const std::vector<Eigen::Index>& block : componentsPreyFirst(share, member)) {
-        if (block.size() == 1) {
-            const Eigen::Index j = block.front();
-            double rhs = 1.0, self = 0.0;
-            for (SparseColumns::InnerIterator it(share, j); it; ++it) {
-                if (it.index() == j) self += it.value();  // cannibalism
-                else rhs += it.value() * out.tl[it.index()];
-            }
-            out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
-            continue;
-        }
-        const auto k = static_cast<Eigen::Index>(block.size());
-        for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(block[static_cast<std::size_t>(r)])] = static_cast<int>(r);
-        Eigen::MatrixXd a = Eigen::MatrixXd::Identity(k, k);
-        Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
-        for (Eigen::Index r = 0; r < k; ++r)
-            for (SparseColumns::InnerIterator it(share, block[static_cast<std::size_t>(r)]); it; ++it) {
-                const int c = local[static_cast<std::size_t>(it.index())];
-                if (c >= 0) a(r, c) -= it.value();
-                else b[r] += it.value() * out.tl[it.index()];  // fixed or an earlier block
-            }
-        const Eigen::VectorXd levels = a.partialPivLu().solve(b);  // nonsingular: every chain reaches a fixed node
-        for (Eigen::Index r = 0; r < k; ++r) {
-            out.tl[block[static_cast<std::size_t>(r)]] = levels[r];
-            local[static_cast<std::size_t>(block[static_cast<std::size_t>(r)])] = -1;
-        }
-    }
+    levelsByLoops(share, fixed, out);
     for (Eigen::Index j = 0; j < n; ++j) {
-        if (!member[static_cast<std::size_t>(j)]) continue;
+        const auto s = static_cast<std::size_t>(j);
+        if (fixed[s] || out.note[s] == TrophicLevelNote::Undefined) continue;
         double oi = 0.0;
-        for (SparseColumns::InnerIterator it(share, j); it; ++it)
-            oi += it.value() * std::pow(out.tl[it.index()] - (out.tl[j] - 1.0), 2);
+        for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+            const double d = out.tl[it.index()] - (out.tl[j] - 1.0);
+            oi += it.value() * d * d;
+        }
         out.oi[j] = oi;
     }
     return out;
@@ -179,16 +189,21 @@ TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vecto
 
 TrophicLevels computeTrophicLevels(const Model& model)
 {
-    const auto n = static_cast<Eigen::Index>(model.size());
-    std::vector<Eigen::Triplet<double, int>> entries;
-    std::vector<bool> basal(model.size());
-    for (std::size_t j = 0; j < model.size(); ++j) {
+    const std::size_t n = model.size();
+    std::vector<bool> basal(n);
+    std::size_t entries = 0;
+    for (std::size_t j = 0; j < n; ++j) {
         basal[j] = model.compartment(j).kind != CompartmentKind::Consumer;
-        for (const auto& [prey, dc] : model.dietRow(j))
-            entries.emplace_back(static_cast<int>(prey), static_cast<int>(j), dc);
+        entries += model.dietRow(j).size();
     }
-    SparseColumns diet(n, n);
-    diet.setFromTriplets(entries.begin(), entries.end());
+    SparseColumns diet(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(n));
+    diet.reserve(static_cast<Eigen::Index>(entries));
+    for (std::size_t j = 0; j < n; ++j) {  // column j = predator j, prey in increasing order
+        diet.startVec(static_cast<Eigen::Index>(j));
+        for (const auto& [prey, dc] : model.dietRow(j))
+            diet.insertBack(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(j)) = dc;
+    }
+    diet.finalize();
     return computeTrophicLevels(diet, basal);
 }
 
