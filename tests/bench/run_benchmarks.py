@@ -32,7 +32,7 @@ import time
 from pathlib import Path
 
 SEED = 20261202  # = tl::bench::kSeed (bench_support.h)
-NUMPY_SKIP_ABOVE_S = 60.0  # a NumPy solve predicted slower than this is skipped, saying why
+NUMPY_SKIP_ABOVE_S = 150.0  # default of --numpy-limit
 MIXES = ["ee", "ee-biomass", "ee-qb-pq"]
 HERE = Path(__file__).resolve().parent
 ROOT = HERE.parent.parent
@@ -159,6 +159,8 @@ def main():
     ap.add_argument("--work", default="/tmp/tl_bench_models")
     ap.add_argument("--min-time", default="0.2", help="Google Benchmark minimum time per benchmark (s)")
     ap.add_argument("--json", help="also write every raw figure to this file")
+    ap.add_argument("--numpy-limit", type=float, default=NUMPY_SKIP_ABOVE_S,
+                    help="skip a NumPy solve predicted (cubic growth from the size below) to take longer (s)")
     ap.add_argument("--check", action="store_true",
                     help="only check that NumPy and tledger agree (1e-8) and balance on every model; exit 1 if not")
     args = ap.parse_args()
@@ -217,7 +219,7 @@ def main():
             below = [m for m in sizes if m < n and (m, mix) in rows and rows[(m, mix)]["numpy"]]
             predicted = rows[(below[-1], mix)]["numpy"] * (n / below[-1]) ** 3 if below else 0.0
             npj, diff, where, npw = None, None, "", None
-            if predicted > NUMPY_SKIP_ABOVE_S:
+            if predicted > args.numpy_limit:
                 skipped[(n, mix)] = f"NumPy skipped at n={n} {mix}: one solve predicted {predicted:.0f} s (cubic from n={below[-1]})"
                 log("  " + skipped[(n, mix)])
             else:
