@@ -1,81 +1,102 @@
-// Throughput of the mass balance: the allocation-free numeric step (BalancePlan::solve,
-// what the ensemble calls per draw) and the full solveBalance (plan + step + checks +
-// derived outputs + trophic levels), on invented random models of 20, 50 and 150
-// compartments with every EE unknown (square system, LU) and with half of the living
-// compartments fully given (overdetermined, QR). Prints figures; asserts nothing.
-// Rates are per second of this process's CPU time (std::clock), so that a machine
-// shared with other jobs does not deflate them; wall-clock rates are shown beside.
-#include <chrono>
-#include <cstdio>
-#include <ctime>
-#include <fstream>
-#include <string>
+// Mass-balance throughput (issue 9): the allocation-free numeric step
+// (BalancePlan::solve, what the ensemble calls per draw) and the full solveBalance
+// (plan + step + checks + derived outputs + trophic levels) on the synthetic models
+// (synthetic_model.h) of 10 to 5000 compartments in the three unknown mixes, plus
+// the memory of one full solve of 5000 compartments. Prints figures; asserts nothing.
+//   balance_bench [--benchmark_filter=solve_balance/ee/] [--benchmark_format=json]
+// Counters: equations and unknowns of A x = b; balanced = 1 when the sheet balanced
+// (the synthetic models should); peak_rss_mib = the process's peak resident set.
+// A size whose one call would take over 30 s of CPU is skipped, saying why
+// (bench_support.h).
+#include <benchmark/benchmark.h>
 
 #include "core/balance/balance_plan.h"
 #include "core/balance/solver.h"
-#include "tests/core/balance/random_model.h"
+#include "tests/bench/bench_support.h"
 
 namespace {
 
-using Clock = std::chrono::steady_clock;
+using namespace tl::bench;
 
-struct Rate {
-    double perCpuSecond, perWallSecond;
-};
-
-// Runs f repeatedly for at least `seconds` of CPU time.
-template <typename F>
-Rate rate(F&& f, double seconds = 0.5)
+void numericStep(benchmark::State& state, std::size_t n, UnknownMix mix)
 {
-    long calls = 0;
-    const auto wallStart = Clock::now();
-    const std::clock_t cpuStart = std::clock();
-    double cpu = 0;
-    do {
-        for (int k = 0; k < 16; ++k) f();
-        calls += 16;
-        cpu = static_cast<double>(std::clock() - cpuStart) / CLOCKS_PER_SEC;
-    } while (cpu < seconds);
-    const double wall = std::chrono::duration<double>(Clock::now() - wallStart).count();
-    return {static_cast<double>(calls) / cpu, static_cast<double>(calls) / wall};
+    const auto oneCall = [mix](std::size_t size) {
+        const tl::Model& m = cachedModel(size, mix).model;
+        const tl::BalancePlan plan = tl::BalancePlan::build(m);
+        tl::BalanceWorkspace ws = plan.makeWorkspace();
+        tl::BalanceValues out = plan.makeValues();
+        plan.solve(tl::BalanceInputs::fromModel(m), ws, out);
+    };
+    if (skipIfTooSlow(state, benchName("numeric_step", mix, 0), n, oneCall)) return;
+    const SyntheticModel& s = cachedModel(n, mix);
+    const tl::BalancePlan plan = tl::BalancePlan::build(s.model);
+    if (plan.hasStructuralErrors()) {
+        state.SkipWithError("the plan has structural errors");
+        return;
+    }
+    const tl::BalanceInputs in = tl::BalanceInputs::fromModel(s.model);
+    tl::BalanceWorkspace ws = plan.makeWorkspace();
+    tl::BalanceValues out = plan.makeValues();
+    for (auto _ : state) {
+        plan.solve(in, ws, out);
+        benchmark::DoNotOptimize(out.ee.data());
+        benchmark::ClobberMemory();
+    }
+    state.counters["equations"] = static_cast<double>(plan.equationCount());
+    state.counters["unknowns"] = static_cast<double>(plan.unknownCount());
+    state.counters["solved"] = out.status == tl::NumericStatus::Solved;
 }
 
-tl::Model benchModel(std::size_t n, bool square)
+void fullSolve(benchmark::State& state, std::size_t n, UnknownMix mix)
 {
-    tl::Model m = tl::testing::randomConsistentModel(n, 4242 + n);
-    std::size_t k = 0;
-    for (std::size_t i : m.living())
-        if (square || k++ % 2 == 0) m.compartment(i).value(tl::Param::EE).reset();
-    return m;
+    const auto oneCall = [mix](std::size_t size) { benchmark::DoNotOptimize(tl::solveBalance(cachedModel(size, mix).model).rows.data()); };
+    if (skipIfTooSlow(state, benchName("solve_balance", mix, 0), n, oneCall)) return;
+    const SyntheticModel& s = cachedModel(n, mix);
+    const double before = currentRssMiB();
+    tl::BalanceStatus status = tl::BalanceStatus::Invalid;
+    for (auto _ : state) {
+        const tl::BalanceSheet sheet = tl::solveBalance(s.model);
+        status = sheet.status;
+        benchmark::DoNotOptimize(sheet.rows.data());
+    }
+    state.counters["balanced"] = status == tl::BalanceStatus::Balanced;
+    state.counters["rss_before_mib"] = before;
+    state.counters["peak_rss_mib"] = peakRssMiB();
+}
+
+// One solve of the largest model in a process of its own (run it alone with
+// --benchmark_filter=^solve_memory/): the peak resident set of model + solve. Never
+// skipped: it is the memory figure of issue 9, however long the solve takes.
+void solveMemory(benchmark::State& state, std::size_t n, UnknownMix mix)
+{
+    const SyntheticModel& s = cachedModel(n, mix);
+    const double before = currentRssMiB();
+    for (auto _ : state) {
+        const tl::BalanceSheet sheet = tl::solveBalance(s.model);
+        benchmark::DoNotOptimize(sheet.rows.data());
+    }
+    state.counters["rss_before_mib"] = before;
+    state.counters["peak_rss_mib"] = peakRssMiB();
 }
 
 }  // namespace
 
-int main()
+int main(int argc, char** argv)
 {
-    std::string load;
-    std::getline(std::ifstream("/proc/loadavg"), load);
-    std::printf("load average: %s\n", load.c_str());
-    std::printf("%-6s %-14s %5s %9s %24s %24s\n", "n", "system", "rows", "unknowns", "numeric step /cpu-s (wall)",
-                "solveBalance /cpu-s (wall)");
-    for (std::size_t n : {20, 50, 150}) {
-        for (bool square : {true, false}) {
-            const tl::Model m = benchModel(n, square);
-            const tl::BalancePlan plan = tl::BalancePlan::build(m);
-            const tl::BalanceInputs in = tl::BalanceInputs::fromModel(m);
-            tl::BalanceWorkspace ws = plan.makeWorkspace();
-            tl::BalanceValues out = plan.makeValues();
-            double sink = 0;
-            const Rate numeric = rate([&] {
-                plan.solve(in, ws, out);
-                sink += out.ee[0];
-            });
-            const Rate full = rate([&] { sink += tl::solveBalance(m).rows[0].ee; });
-            std::printf("%-6zu %-14s %5zu %9zu %15.0f (%7.0f) %15.0f (%7.0f)%s\n", n,
-                        square ? "square (LU)" : "overdet. (QR)", plan.equationCount(), plan.unknownCount(),
-                        numeric.perCpuSecond, numeric.perWallSecond, full.perCpuSecond, full.perWallSecond,
-                        sink == 0.12345 ? " " : "");
+    for (std::size_t n : kSizes)
+        for (UnknownMix mix : kMixes) {
+            benchmark::RegisterBenchmark(benchName("numeric_step", mix, n).c_str(), numericStep, n, mix)
+                ->Unit(benchmark::kMicrosecond);
+            benchmark::RegisterBenchmark(benchName("solve_balance", mix, n).c_str(), fullSolve, n, mix)
+                ->Unit(benchmark::kMicrosecond);
         }
-    }
+    for (UnknownMix mix : kMixes)
+        benchmark::RegisterBenchmark(benchName("solve_memory", mix, 5000).c_str(), solveMemory, 5000, mix)
+            ->Unit(benchmark::kMillisecond)
+            ->Iterations(1);
+    benchmark::Initialize(&argc, argv);
+    if (benchmark::ReportUnrecognizedArguments(argc, argv)) return 1;
+    benchmark::RunSpecifiedBenchmarks();
+    benchmark::Shutdown();
     return 0;
 }

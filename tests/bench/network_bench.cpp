@@ -1,13 +1,22 @@
-// Network analysis timings: prints figures, asserts nothing (speed targets stay out of
-// the timed unit tests). Runs every analysis on the largest reference network (Florida
-// Bay, 125 compartments; data of the enaR collection, Borrett & Lau 2014) and on
-// invented random webs of growing size.
-//   ninja network_bench && tests/bench/network_bench [path/to/florida_bay_dry.scor]
-#include <chrono>
-#include <cstdio>
-#include <random>
+// Network analysis timings (issue 9): level decomposition (Ulanowicz 1995) and the
+// system indicators (ENA, DESIGN 3.5) of the balanced synthetic models
+// (synthetic_model.h) of 10 to 5000 compartments, plus the flow network they start
+// from; and, as before, every analysis on the largest reference network (Florida Bay,
+// 125 compartments; data of the enaR collection, Borrett & Lau 2014). Prints figures;
+// asserts nothing.
+//   network_bench [--benchmark_filter=level_decomposition/]
+// One sheet per size: the three mixes solve to the same balanced sheet (the
+// generator's truth, solved here with every value given), so the network and its
+// analyses are the same for all three and are run once, named after mix "ee".
+// An analysis that would take over 30 s of CPU at a size (predicted from the size
+// below with cubic growth, the cost of its dense matrix inverses) is skipped, saying why.
+#include <benchmark/benchmark.h>
+
+#include <map>
+#include <memory>
 #include <string>
 
+#include "core/balance/solver.h"
 #include "core/io/scor.h"
 #include "core/network/flow_network.h"
 #include "core/network/flow_trophic_level.h"
@@ -15,81 +24,122 @@
 #include "core/network/keystone.h"
 #include "core/network/level_decomposition.h"
 #include "core/network/mixed_trophic_impact.h"
+#include "tests/bench/bench_support.h"
 
 namespace {
 
-template <typename F>
-double millisecondsPerCall(F&& f, int repeats)
-{
-    const auto start = std::chrono::steady_clock::now();
-    for (int r = 0; r < repeats; ++r) f();
-    const auto end = std::chrono::steady_clock::now();
-    return std::chrono::duration<double, std::milli>(end - start).count() / repeats;
-}
+using namespace tl::bench;
 
-void benchNetwork(const char* label, const tl::FlowNetwork& net, int repeats)
-{
-    volatile double sink = 0;
-    const double ind = millisecondsPerCall([&] { sink = sink + tl::systemIndicators(net).ascendency; }, repeats);
-    const double tl = millisecondsPerCall([&] { sink = sink + tl::flowTrophicLevels(net).tl[0]; }, repeats);
-    const double lv = millisecondsPerCall([&] { sink = sink + tl::decomposeLevels(net).combined.meanTe; }, repeats);
-    const double mti = millisecondsPerCall(
-        [&] {
-            const tl::MixedTrophicImpact m = tl::mixedTrophicImpact(net);
-            sink = sink + tl::keystoneIndices(net, m).size();
-        },
-        repeats);
-    std::printf("%-28s n=%4zu  indicators %8.3f ms  TL %8.3f ms  levels %8.3f ms  MTI+keystone %8.3f ms\n", label,
-                net.size(), ind, tl, lv, mti);
-}
+struct Solved {
+    tl::BalanceSheet sheet;
+    tl::FlowNetwork network;
+};
 
-// Invented random web: 10 % producers, 5 % detritus, each consumer eats 2-6 random nodes.
-tl::FlowNetwork randomWeb(std::size_t n, unsigned seed)
+const Solved& solved(std::size_t n)
 {
-    std::mt19937 rng(seed);
-    std::uniform_real_distribution<double> u(0.1, 10.0);
-    tl::FlowNetwork net;
-    const std::size_t producers = std::max<std::size_t>(1, n / 10), detritus = std::max<std::size_t>(1, n / 20);
-    for (std::size_t i = 0; i < n; ++i) {
-        std::string name = "n";
-        name += std::to_string(i);
-        net.names.push_back(name);
-        net.roles.push_back(i < producers ? tl::NodeRole::Producer
-                            : i >= n - detritus ? tl::NodeRole::Detritus
-                                                : tl::NodeRole::Consumer);
-        net.stocks.push_back(u(rng));
-        net.imports.push_back(i < producers ? 100 * u(rng) : 0.0);
-        net.foodImport.push_back(0.0);
-        net.exports.push_back(u(rng));
-        net.respiration.push_back(net.roles.back() == tl::NodeRole::Consumer ? u(rng) : 0.0);
-        net.production.push_back(u(rng));
+    static std::map<std::size_t, std::unique_ptr<Solved>> cache;
+    auto& slot = cache[n];
+    if (!slot) {
+        const tl::Model& m = cachedModel(n, UnknownMix::EE).truth;  // every value given: the solve only checks
+        tl::BalanceSheet sheet = tl::solveBalance(m);
+        tl::FlowNetwork network = tl::buildFlowNetwork(m, sheet);
+        slot = std::make_unique<Solved>(Solved{std::move(sheet), std::move(network)});
     }
-    const auto N = static_cast<Eigen::Index>(n);
-    net.flows = Eigen::MatrixXd::Zero(N, N);
-    std::uniform_int_distribution<std::size_t> pick(0, n - 1), count(2, 6);
-    for (std::size_t j = producers; j < n - detritus; ++j)
-        for (std::size_t k = count(rng); k > 0; --k)
-            net.flows(static_cast<Eigen::Index>(pick(rng)), static_cast<Eigen::Index>(j)) += u(rng);
-    for (std::size_t i = 0; i < n - detritus; ++i)
-        net.flows(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(n - 1)) += u(rng);
-    net.fleetLandings = Eigen::MatrixXd::Zero(0, N);
-    net.fleetDeadDiscards = Eigen::MatrixXd::Zero(0, N);
-    return net;
+    return *slot;
+}
+
+template <typename Analysis>
+void runAnalysis(benchmark::State& state, const char* what, std::size_t n, const Analysis& analysis)
+{
+    for (std::size_t s : kSizes)
+        if (s < n) (void)solved(s);  // the probe of skipIfTooSlow times the analysis alone
+    if (skipIfTooSlow(state, what, n, analysis)) return;
+    (void)solved(n);
+    for (auto _ : state) analysis(n);
+}
+
+void levelDecomposition(benchmark::State& state, std::size_t n)
+{
+    runAnalysis(state, "levels", n, [](std::size_t size) {
+        const tl::LevelDecomposition d = tl::decomposeLevels(solved(size).network);
+        benchmark::DoNotOptimize(d.combined.meanTe);
+    });
+}
+
+void indicators(benchmark::State& state, std::size_t n)
+{
+    runAnalysis(state, "indicators", n, [](std::size_t size) {
+        const Solved& s = solved(size);
+        const tl::SystemIndicators ind = tl::systemIndicators(cachedModel(size, UnknownMix::EE).truth, s.sheet, s.network);
+        benchmark::DoNotOptimize(ind.ascendency);
+    });
+}
+
+void flowNetwork(benchmark::State& state, std::size_t n)
+{
+    runAnalysis(state, "flow_network", n, [](std::size_t size) {
+        const tl::FlowNetwork net = tl::buildFlowNetwork(cachedModel(size, UnknownMix::EE).truth, solved(size).sheet);
+        benchmark::DoNotOptimize(net.flows.data());
+    });
+}
+
+// The reference network: every analysis, as the earlier hand-timed bench reported.
+const tl::FlowNetwork* floridaBay(std::string* why)
+{
+    static const std::string path = std::string(TL_FIXTURES_DIR) + "/reference/scor/florida_bay_dry.scor";
+    static const tl::ScorReadResult read = tl::readScorFile(path);
+    static const std::unique_ptr<tl::FlowNetwork> net =
+        read.network ? std::make_unique<tl::FlowNetwork>(tl::flowNetworkFromScor(*read.network)) : nullptr;
+    if (!net && why) *why = read.problems.empty() ? "cannot read " + path : read.problems.front().describe();
+    return net.get();
+}
+
+template <typename F>
+void onFloridaBay(benchmark::State& state, const F& f)
+{
+    std::string why;
+    const tl::FlowNetwork* net = floridaBay(&why);
+    if (!net) {
+        state.SkipWithError(why.c_str());
+        return;
+    }
+    for (auto _ : state) f(*net);
 }
 
 }  // namespace
 
 int main(int argc, char** argv)
 {
-    const std::string path = argc > 1 ? argv[1] : std::string(TL_FIXTURES_DIR) + "/reference/scor/florida_bay_dry.scor";
-    const tl::ScorReadResult read = tl::readScorFile(path);
-    if (read.network) {
-        const double ms = millisecondsPerCall([&] { (void)tl::readScorFile(path); }, 20);
-        std::printf("read %s: %.3f ms\n", path.c_str(), ms);
-        benchNetwork("Florida Bay (dry season)", tl::flowNetworkFromScor(*read.network), 20);
-    } else {
-        for (const tl::Problem& p : read.problems) std::printf("%s\n", p.describe().c_str());
+    for (std::size_t n : kSizes) {
+        benchmark::RegisterBenchmark(benchName("flow_network", UnknownMix::EE, n).c_str(), flowNetwork, n)
+            ->Unit(benchmark::kMicrosecond);
+        benchmark::RegisterBenchmark(benchName("level_decomposition", UnknownMix::EE, n).c_str(), levelDecomposition, n)
+            ->Unit(benchmark::kMicrosecond);
+        benchmark::RegisterBenchmark(benchName("indicators", UnknownMix::EE, n).c_str(), indicators, n)
+            ->Unit(benchmark::kMicrosecond);
     }
-    for (std::size_t n : {50, 100, 200, 400}) benchNetwork("random web (invented)", randomWeb(n, 7), n >= 200 ? 3 : 10);
+    benchmark::RegisterBenchmark("florida_bay/read_scor", [](benchmark::State& state) {
+        const std::string path = std::string(TL_FIXTURES_DIR) + "/reference/scor/florida_bay_dry.scor";
+        for (auto _ : state) benchmark::DoNotOptimize(tl::readScorFile(path).network.has_value());
+    })->Unit(benchmark::kMicrosecond);
+    benchmark::RegisterBenchmark("florida_bay/indicators", [](benchmark::State& state) {
+        onFloridaBay(state, [](const tl::FlowNetwork& net) { benchmark::DoNotOptimize(tl::systemIndicators(net).ascendency); });
+    })->Unit(benchmark::kMicrosecond);
+    benchmark::RegisterBenchmark("florida_bay/flow_trophic_levels", [](benchmark::State& state) {
+        onFloridaBay(state, [](const tl::FlowNetwork& net) { benchmark::DoNotOptimize(tl::flowTrophicLevels(net).tl[0]); });
+    })->Unit(benchmark::kMicrosecond);
+    benchmark::RegisterBenchmark("florida_bay/level_decomposition", [](benchmark::State& state) {
+        onFloridaBay(state, [](const tl::FlowNetwork& net) { benchmark::DoNotOptimize(tl::decomposeLevels(net).combined.meanTe); });
+    })->Unit(benchmark::kMicrosecond);
+    benchmark::RegisterBenchmark("florida_bay/impacts_and_keystone", [](benchmark::State& state) {
+        onFloridaBay(state, [](const tl::FlowNetwork& net) {
+            const tl::MixedTrophicImpact m = tl::mixedTrophicImpact(net);
+            benchmark::DoNotOptimize(tl::keystoneIndices(net, m).size());
+        });
+    })->Unit(benchmark::kMicrosecond);
+    benchmark::Initialize(&argc, argv);
+    if (benchmark::ReportUnrecognizedArguments(argc, argv)) return 1;
+    benchmark::RunSpecifiedBenchmarks();
+    benchmark::Shutdown();
     return 0;
 }

@@ -1,91 +1,124 @@
-// Store timings: create, open, load, save of a project file with invented random food
-// webs (150 compartments, dense-ish diets, 3 fleets; 5 scenarios). Prints milliseconds
-// per operation; nothing here is asserted (speed targets never sit in unit tests).
-//   ninja store_bench && tests/bench/store_bench [folder for the scratch file]
-#include <chrono>
-#include <cstdio>
+// Project file timings (issue 9): open and save a project of 5 scenarios of 200
+// compartments (synthetic models, synthetic_model.h, mix "ee", one seed per scenario),
+// the way the workbench does them: open = ProjectFile::open + load (everything);
+// save = a new file beside the target (ProjectFile::create) renamed over it; also
+// saving into the open file and one scenario alone. Prints figures; asserts nothing.
+//   store_bench [--benchmark_filter=/200$]
+#include <benchmark/benchmark.h>
+
+#include <unistd.h>
+
 #include <filesystem>
-#include <random>
-#include <string>
 
 #include "core/store/project_file.h"
+#include "tests/bench/bench_support.h"
 
 namespace {
 
-tl::Model randomModel(std::size_t n, std::mt19937& rng)
+using namespace tl::bench;
+namespace fs = std::filesystem;
+
+constexpr int kScenarios = 5;
+
+tl::Project benchProject(std::size_t n)
 {
-    std::uniform_real_distribution<double> u(0.0, 1.0);
-    tl::Model m;
-    for (std::size_t i = 0; i < n; ++i) {
-        tl::Compartment c;
-        c.name = "group " + std::to_string(i);
-        c.kind = i < 5 ? tl::CompartmentKind::Producer : i + 3 >= n ? tl::CompartmentKind::Detritus : tl::CompartmentKind::Consumer;
-        c.value(tl::Param::Biomass) = 0.1 + 10 * u(rng);
-        c.value(tl::Param::PB) = 0.2 + 5 * u(rng);
-        if (c.kind == tl::CompartmentKind::Consumer) c.value(tl::Param::QB) = 2 + 20 * u(rng);
-        c.confidenceOf(tl::Param::Biomass) = tl::Confidence{tl::Confidence::Grade::C, std::nullopt, "invented"};
-        m.addCompartment(std::move(c));
+    tl::Project project;
+    project.info.title = "store bench (invented synthetic models)";
+    for (int s = 0; s < kScenarios; ++s) {
+        tl::Scenario sc;
+        sc.name = "scenario " + std::to_string(s + 1);
+        sc.model = syntheticModel(n, UnknownMix::EE, kSeed + static_cast<std::uint64_t>(s)).model;
+        project.scenarios.push_back(std::move(sc));
     }
-    for (std::size_t j = 5; j + 3 < n; ++j) {
-        double sum = 0;
-        std::vector<std::pair<std::size_t, double>> prey;
-        for (int k = 0; k < 12; ++k) {
-            const std::size_t i = static_cast<std::size_t>(u(rng) * static_cast<double>(n));
-            const double w = u(rng);
-            prey.emplace_back(i, w);
-            sum += w;
-        }
-        for (auto [i, w] : prey) m.setDiet(j, i, m.diet(j, i) + w / sum);
-    }
-    for (int f = 0; f < 3; ++f) {
-        const std::size_t k = m.addFleet("fleet " + std::to_string(f));
-        for (std::size_t i = 5; i < n; i += 7) m.fleet(k).landings[i] = u(rng);
-    }
-    return m;
+    return project;
 }
 
-template <typename F>
-double millis(F&& f)
+// A scratch folder that removes itself.
+struct Scratch {
+    fs::path dir = fs::temp_directory_path() / ("tl_store_bench_" + std::to_string(::getpid()));
+    Scratch() { fs::create_directories(dir); }
+    ~Scratch()
+    {
+        std::error_code ec;
+        fs::remove_all(dir, ec);
+    }
+    void removeFile(const fs::path& p) const
+    {
+        std::error_code ec;
+        for (const char* s : {"", "-wal", "-shm", "-journal"}) fs::remove(fs::path(p).concat(s), ec);
+    }
+};
+
+void saveAs(benchmark::State& state, std::size_t n)
 {
-    const auto t0 = std::chrono::steady_clock::now();
-    f();
-    return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
+    const tl::Project project = benchProject(n);
+    Scratch scratch;
+    const fs::path target = scratch.dir / "project.tledger", temp = scratch.dir / "project.tledger.saving";
+    for (auto _ : state) {
+        scratch.removeFile(temp);
+        {
+            tl::ProjectOpenResult created = tl::ProjectFile::create(temp, project);
+            if (!created.file) {
+                state.SkipWithError("cannot create the project file");
+                return;
+            }
+        }
+        fs::rename(temp, target);
+    }
+    state.counters["file_kib"] = static_cast<double>(fs::file_size(target)) / 1024.0;
+}
+
+void open(benchmark::State& state, std::size_t n)
+{
+    Scratch scratch;
+    const fs::path path = scratch.dir / "project.tledger";
+    if (!tl::ProjectFile::create(path, benchProject(n)).file) {
+        state.SkipWithError("cannot create the project file");
+        return;
+    }
+    std::size_t scenarios = 0;
+    for (auto _ : state) {
+        tl::ProjectOpenResult opened = tl::ProjectFile::open(path);
+        if (!opened.file) {
+            state.SkipWithError("cannot open the project file");
+            return;
+        }
+        const tl::StoreResult<tl::Project> loaded = opened.file->load();
+        scenarios = loaded.value ? loaded.value->scenarios.size() : 0;
+    }
+    state.counters["scenarios"] = static_cast<double>(scenarios);
+}
+
+void saveInPlace(benchmark::State& state, std::size_t n, bool oneScenario)
+{
+    const tl::Project project = benchProject(n);
+    Scratch scratch;
+    std::unique_ptr<tl::ProjectFile> file = tl::ProjectFile::create(scratch.dir / "project.tledger", project).file;
+    if (!file) {
+        state.SkipWithError("cannot create the project file");
+        return;
+    }
+    for (auto _ : state) benchmark::DoNotOptimize(oneScenario ? file->saveScenario(project.scenarios[2]).size() : file->save(project).size());
 }
 
 }  // namespace
 
 int main(int argc, char** argv)
 {
-    const std::filesystem::path dir = argc > 1 ? argv[1] : std::filesystem::temp_directory_path();
-    const auto path = dir / "tl_store_bench.tledger";
-    std::error_code ec;
-    for (const char* s : {"", "-wal", "-shm"}) std::filesystem::remove(path.string() + s, ec);
-
-    std::mt19937 rng(17);
-    tl::Project project;
-    project.info.title = "store bench (invented)";
-    for (int s = 0; s < 5; ++s) {
-        tl::Scenario sc;
-        sc.name = "scenario " + std::to_string(s);
-        sc.model = randomModel(150, rng);
-        project.scenarios.push_back(std::move(sc));
+    for (std::size_t n : {std::size_t{10}, std::size_t{200}}) {
+        const std::string size = std::to_string(kScenarios) + "_scenarios";
+        benchmark::RegisterBenchmark(("project_open/" + size + "/" + std::to_string(n)).c_str(), open, n)
+            ->Unit(benchmark::kMillisecond)->UseRealTime();
+        benchmark::RegisterBenchmark(("project_save/" + size + "/" + std::to_string(n)).c_str(), saveAs, n)
+            ->Unit(benchmark::kMillisecond)->UseRealTime();
+        benchmark::RegisterBenchmark(("project_save_in_place/" + size + "/" + std::to_string(n)).c_str(), saveInPlace, n, false)
+            ->Unit(benchmark::kMillisecond)->UseRealTime();
+        benchmark::RegisterBenchmark(("project_save_one_scenario/" + size + "/" + std::to_string(n)).c_str(), saveInPlace, n, true)
+            ->Unit(benchmark::kMillisecond)->UseRealTime();
     }
-    std::unique_ptr<tl::ProjectFile> file;
-    const double create = millis([&] { file = tl::ProjectFile::create(path, project).file; });
-    if (!file) {
-        std::fprintf(stderr, "cannot create %s\n", path.c_str());
-        return 1;
-    }
-    const double saveAll = millis([&] { file->save(project); });
-    const double saveOne = millis([&] { file->saveScenario(project.scenarios[2]); });
-    const double load = millis([&] { (void)file->load(); });
-    file.reset();
-    const double open = millis([&] { file = tl::ProjectFile::open(path).file; });
-    std::printf("project of 5 scenarios x 150 compartments, %s\n", path.c_str());
-    std::printf("  create      %8.1f ms\n  save all    %8.1f ms\n  save one    %8.1f ms\n  load all    %8.1f ms\n"
-                "  open        %8.1f ms (header check + quick_check)\n  file size   %8.1f KiB\n",
-                create, saveAll, saveOne, load, open, static_cast<double>(std::filesystem::file_size(path)) / 1024.0);
-    file.reset();
-    for (const char* s : {"", "-wal", "-shm"}) std::filesystem::remove(path.string() + s, ec);
+    benchmark::Initialize(&argc, argv);
+    if (benchmark::ReportUnrecognizedArguments(argc, argv)) return 1;
+    benchmark::RunSpecifiedBenchmarks();
+    benchmark::Shutdown();
     return 0;
 }
