@@ -42,8 +42,11 @@ ScenarioTableModel::ScenarioTableModel(ProjectDocument* doc, QObject* parent) : 
 
 const tl::Model& ScenarioTableModel::model() const { return doc_->model(); }
 
+void ScenarioTableModel::indexModel(const tl::Model&) {}
+
 void ScenarioTableModel::refreshFromDocument()
 {
+    indexModel(model());
     const QStringList rows = rowKeys(model());
     const QStringList cols = columnKeys(model());
     if (rows != rowKeys_ || cols != columnKeys_) {

@@ -71,6 +71,9 @@ signals:
     void inputRefused(const QString& message);
 
 protected:
+    // Caches what the other hooks need from `m` (e.g. which compartment each row shows);
+    // called first on every refresh.
+    virtual void indexModel(const tl::Model& m);
     // Identity of the rows and columns (e.g. compartment names): when it changes the
     // view is reset; otherwise only the values are refreshed, keeping the selection.
     virtual QStringList rowKeys(const tl::Model& m) const = 0;
