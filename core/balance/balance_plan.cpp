@@ -1,11 +1,14 @@
 // Structural and numeric steps of the mass balance (Polovina 1984; Christensen &
-// Pauly 1992). See balance_plan.h for the equation and the layout of A x = b.
+// Pauly 1992). See balance_plan.h for the equation and the reduced system.
 #include "core/balance/balance_plan.h"
 
 #include <algorithm>
 #include <cmath>
 #include <limits>
 #include <string>
+
+#include <Eigen/SparseLU>
+#include <Eigen/SparseQR>
 
 #include "core/balance/balance_codes.h"
 
@@ -15,6 +18,9 @@ namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 double given(const Compartment& c, Param p) { return c.value(p).value_or(kNaN); }
+
+bool isPrivate(Unknown u) { return u == Unknown::EE || u == Unknown::PB; }
+bool isCoupled(Unknown u) { return u == Unknown::Biomass || u == Unknown::QB || u == Unknown::QBTiedPB; }
 
 std::string joinSymbols(const std::vector<Param>& params)
 {
@@ -30,36 +36,32 @@ std::string joinSymbols(const std::vector<Param>& params)
 template <typename Vec>
 double unitScale(const Vec& v)
 {
+    if (v.size() == 0) return 1.0;
     const double m = v.cwiseAbs().maxCoeff();
     return m > 0.0 ? 1.0 / m : 1.0;
 }
 
-// Hager-Higham estimate of 1 / (||A||_1 ||A^-1||_1) from the LU factors of A (the
-// LAPACK xLACON iteration, at most five steps), in the workspace's vectors.
-double reciprocalConditionEstimate(BalanceWorkspace& ws)
+// Hager-Higham estimate of 1 / (||A||_1 ||A^-1||_1) (the LAPACK xLACON iteration, at
+// most five steps). solveA(src, dst) writes A^-1 src into dst; solveAT(src, dst) writes
+// A^-T src into dst and may overwrite src. The four iterates live in the workspace.
+template <typename SolveA, typename SolveAT>
+double reciprocalConditionEstimate(double normA, BalanceWorkspace& ws, SolveA solveA, SolveAT solveAT)
 {
-    const Eigen::MatrixXd& lu = ws.lu.matrixLU();
-    const Eigen::Index n = lu.rows();
-    if (!(lu.diagonal().cwiseAbs().minCoeff() > 0.0)) return 0.0;  // a zero (or NaN) pivot
-    double normA = 0.0;
-    for (Eigen::Index c = 0; c < n; ++c) normA = std::max(normA, ws.a.col(c).cwiseAbs().sum());
+    const Eigen::Index n = ws.estimateX.size();
     Eigen::VectorXd& x = ws.estimateX;
     Eigen::VectorXd& y = ws.estimateY;
+    Eigen::VectorXd& xi = ws.estimateW;
+    Eigen::VectorXd& z = ws.estimateZ;
     x.setConstant(1.0 / static_cast<double>(n));
     double estimate = 0.0;
     for (int step = 0; step < 5; ++step) {
-        y = ws.lu.permutationP() * x;  // y = A^-1 x
-        lu.triangularView<Eigen::UnitLower>().solveInPlace(y);
-        lu.triangularView<Eigen::Upper>().solveInPlace(y);
+        solveA(x, y);
         const double norm = y.cwiseAbs().sum();
         if (!std::isfinite(norm)) return 0.0;
         if (step > 0 && norm <= estimate) break;
         estimate = norm;
-        for (Eigen::Index i = 0; i < n; ++i) y[i] = y[i] >= 0.0 ? 1.0 : -1.0;  // xi = sign(y)
-        lu.transpose().triangularView<Eigen::Lower>().solveInPlace(y);      // z = A^-T xi
-        lu.transpose().triangularView<Eigen::UnitUpper>().solveInPlace(y);
-        Eigen::VectorXd& z = ws.estimateZ;
-        z = ws.lu.permutationP().transpose() * y;
+        for (Eigen::Index i = 0; i < n; ++i) xi[i] = y[i] >= 0.0 ? 1.0 : -1.0;
+        solveAT(xi, z);
         Eigen::Index j = 0;
         const double zmax = z.cwiseAbs().maxCoeff(&j);
         if (step > 0 && zmax <= z.dot(x)) break;  // |z|_inf <= z^T x: a local maximum
@@ -69,23 +71,39 @@ double reciprocalConditionEstimate(BalanceWorkspace& ws)
     return estimate > 0.0 ? 1.0 / (normA * estimate) : 0.0;
 }
 
+// The prey-side coefficient of a coupled predator j's unknown in its prey's rows:
+// consumption B_j Q/B_j is linear in B_j (times Q/B_j) or in Q/B_j (times B_j).
+double consumptionCoefficient(Unknown u, const BalanceValues& out, Eigen::Index j)
+{
+    return u == Unknown::Biomass ? out.qb[j] : out.biomass[j];
+}
+
+// Own-row coefficient of a coupled unknown (production B P/B EE); 0 for Q/B alone.
+double productionCoefficient(Unknown u, const BalanceInputs& in, const BalanceValues& out, Eigen::Index i)
+{
+    switch (u) {
+    case Unknown::Biomass: return out.pb[i] * out.ee[i];
+    case Unknown::QBTiedPB: return out.biomass[i] * out.ee[i] * in.pq[i];
+    default: return 0.0;
+    }
+}
+
 }  // namespace
 
 BalanceInputs BalanceInputs::fromModel(const Model& model)
 {
-    const auto n = static_cast<Eigen::Index>(model.size());
+    const std::size_t n = model.size();
+    const auto en = static_cast<Eigen::Index>(n);
     BalanceInputs in;
     for (Eigen::VectorXd* v : {&in.biomass, &in.pb, &in.qb, &in.ee, &in.pq})
-        v->setConstant(n, kNaN);
+        v->setConstant(en, kNaN);
     for (Eigen::VectorXd* v : {&in.unassim, &in.catchTotal, &in.deadDiscards, &in.netEmigration,
                                &in.biomassAccum, &in.detritusImport})
-        v->setZero(n);
-    in.diet.setZero(n, n);
-    in.routing.setZero(n, n);
-    in.discardsToPool.setZero(n, n);
+        v->setZero(en);
 
     const std::vector<std::size_t> pools = model.detritusPools();
-    for (std::size_t i = 0; i < model.size(); ++i) {
+    std::size_t dietEntries = 0;
+    for (std::size_t i = 0; i < n; ++i) {
         const Compartment& c = model.compartment(i);
         const auto k = static_cast<Eigen::Index>(i);
         in.biomass[k] = given(c, Param::Biomass);
@@ -94,26 +112,52 @@ BalanceInputs BalanceInputs::fromModel(const Model& model)
         in.ee[k] = given(c, Param::EE);
         in.pq[k] = given(c, Param::PQ);
         in.unassim[k] = c.isLiving() ? c.unassimilatedOrDefault() : 0.0;
-        in.catchTotal[k] = model.totalCatch(i);
-        in.deadDiscards[k] = model.deadDiscards(i);
         in.netEmigration[k] = c.valueOr(Param::NetEmigration, 0.0);
         in.biomassAccum[k] = c.valueOr(Param::BiomassAccum, 0.0);
         in.detritusImport[k] = c.kind == CompartmentKind::Detritus ? c.valueOr(Param::DetritusImport, 0.0) : 0.0;
-        for (std::size_t j = 0; j < model.size(); ++j)  // j eats i
-            in.diet(k, static_cast<Eigen::Index>(j)) = model.diet(j, i);
-        if (c.isLiving())
-            for (std::size_t d : pools) in.routing(k, static_cast<Eigen::Index>(d)) = model.effectiveRouting(i, d);
+        dietEntries += model.dietRow(i).size();
     }
-    // Dead discards go to the fleet's discard pool, else to the first pool.
+    // Compressed columns filled in order: column j = predator j, prey ascending.
+    in.diet.resize(en, en);
+    in.diet.reserve(static_cast<Eigen::Index>(dietEntries));
+    for (std::size_t j = 0; j < n; ++j) {
+        in.diet.startVec(static_cast<Eigen::Index>(j));
+        for (const auto& [prey, dc] : model.dietRow(j))
+            in.diet.insertBack(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(j)) = dc;
+    }
+    in.diet.finalize();
+    // Routing: column d = pool d, sources ascending; a source without explicit routing
+    // sends everything to the first pool.
+    in.routing.resize(en, en);
+    in.routing.reserve(static_cast<Eigen::Index>(n));
+    for (std::size_t d = 0; d < n; ++d) {
+        in.routing.startVec(static_cast<Eigen::Index>(d));
+        if (model.compartment(d).kind != CompartmentKind::Detritus) continue;
+        for (std::size_t i = 0; i < n; ++i) {
+            if (!model.compartment(i).isLiving()) continue;
+            const double share = model.hasExplicitRouting(i) ? model.routing(i, d) : (d == pools.front() ? 1.0 : 0.0);
+            if (share != 0.0) in.routing.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = share;
+        }
+    }
+    in.routing.finalize();
+    // Catch and dead discards; dead discards go to the fleet's discard pool, else to
+    // the first pool.
+    std::vector<Eigen::Triplet<double, int>> discardEntries;
     for (const Fleet& fleet : model.fleets()) {
         std::optional<std::size_t> pool = fleet.discardPool;
-        if (!pool || *pool >= model.size() || model.compartment(*pool).kind != CompartmentKind::Detritus)
+        if (!pool || *pool >= n || model.compartment(*pool).kind != CompartmentKind::Detritus)
             pool = pools.empty() ? std::nullopt : std::optional<std::size_t>(pools.front());
-        if (!pool) continue;
-        for (std::size_t i = 0; i < model.size(); ++i)
-            in.discardsToPool(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(*pool)) +=
-                fleet.discards[i] * (1.0 - fleet.discardSurvival[i]);
+        for (std::size_t i = 0; i < n; ++i) {
+            const double dead = fleet.discards[i] * (1.0 - fleet.discardSurvival[i]);
+            in.catchTotal[static_cast<Eigen::Index>(i)] += fleet.landings[i];  // landings, for now
+            in.deadDiscards[static_cast<Eigen::Index>(i)] += dead;
+            if (pool && dead != 0.0) discardEntries.emplace_back(static_cast<int>(i), static_cast<int>(*pool), dead);
+        }
     }
+    in.catchTotal += in.deadDiscards;  // Y = landings + dead discards, as Model::totalCatch sums them
+    in.discardsToPool.resize(en, en);
+    in.discardsToPool.setFromTriplets(discardEntries.begin(), discardEntries.end());  // duplicates summed
+    in.discardsToPool.makeCompressed();
     return in;
 }
 
@@ -140,10 +184,10 @@ BalancePlan BalancePlan::build(const Model& model)
                                           "Remove the routing rows whose source is a detritus pool."));
             continue;
         }
+        plan.living_.push_back(i);
         plan.rowOf_[i] = static_cast<int>(plan.rowCompartment_.size());
         plan.rowCompartment_.push_back(i);
         const bool consumer = c.kind == CompartmentKind::Consumer;
-        if (consumer) plan.consumers_.push_back(i);
 
         bool missB = !c.value(Param::Biomass), missPB = !c.value(Param::PB);
         bool missQB = consumer && !c.value(Param::QB), missEE = !c.value(Param::EE);
@@ -164,11 +208,14 @@ BalancePlan BalancePlan::build(const Model& model)
                                           "P/Q of '" + c.name + "' must be above 0 to stand in for P/B or Q/B.",
                                           "Enter a positive P/Q, or give P/B and Q/B."));
         }
-        std::vector<Param> missing;
-        if (missB) missing.push_back(Param::Biomass);
-        if (missPB) missing.push_back(Param::PB);
-        if (missQB) missing.push_back(Param::QB);
-        if (missEE) missing.push_back(Param::EE);
+        std::vector<Param> missing;  // allocates only when something is missing
+        if (missB || missPB || missQB || missEE) {
+            missing.reserve(4);
+            if (missB) missing.push_back(Param::Biomass);
+            if (missPB) missing.push_back(Param::PB);
+            if (missQB) missing.push_back(Param::QB);
+            if (missEE) missing.push_back(Param::EE);
+        }
         if (missing.size() >= 2) {
             plan.problems_.push_back(code::makeProblem(code::kUnderdetermined, Severity::Error, c.name, std::string(paramKey(missing.front())),
                  "'" + c.name + "' has " + std::to_string(missing.size()) + " unknowns (" + joinSymbols(missing) +
@@ -205,15 +252,56 @@ BalancePlan BalancePlan::build(const Model& model)
         plan.problems_.push_back(code::makeProblem(code::kNoDetritusPool, Severity::Warning, "", "",
                                   "The model has no detritus pool: egestion and other mortality leave the system.",
                                   "Add a detritus compartment."));
+
+    // The reduced system: coupled unknowns as columns; as rows, the equations without
+    // a private unknown that some coupled unknown enters (its own production, or the
+    // consumption of a coupled predator).
+    plan.reducedColOf_.assign(n, -1);
+    plan.reducedRowOf_.assign(n, -1);
+    std::vector<bool> entered(n, false);
+    for (std::size_t i : plan.living_) {
+        const Unknown u = plan.unknown_[i];
+        if (isPrivate(u)) plan.private_.push_back(i);
+        if (!isCoupled(u)) continue;
+        plan.reducedColOf_[i] = static_cast<int>(plan.coupled_.size());
+        plan.coupled_.push_back(i);
+        if (u != Unknown::QB) entered[i] = true;
+        for (const auto& [prey, dc] : model.dietRow(i))
+            if (dc != 0.0 && isLiving(plan.kinds_[prey]) && !isPrivate(plan.unknown_[prey])) entered[prey] = true;
+    }
+    for (std::size_t i : plan.living_) {
+        if (isPrivate(plan.unknown_[i])) continue;
+        if (!entered[i]) {
+            ++plan.uncoupledChecks_;
+            continue;
+        }
+        plan.reducedRowOf_[i] = static_cast<int>(plan.reducedRows_.size());
+        plan.reducedRows_.push_back(i);
+    }
+    const std::size_t m = plan.reducedRows_.size(), k = plan.coupled_.size();
+    if (k == 0) plan.method_ = Method::None;
+    else if (k <= kDenseLimit) plan.method_ = m == k ? Method::DenseLU : Method::DenseQR;
+    else plan.method_ = m == k ? Method::SparseLU : Method::SparseQR;
+    if (plan.method_ == Method::SparseLU || plan.method_ == Method::SparseQR) {
+        std::vector<Eigen::Triplet<double, int>> entries;
+        for (std::size_t j : plan.coupled_) {
+            const int col = plan.reducedColOf_[j];
+            if (plan.unknown_[j] != Unknown::QB) entries.emplace_back(plan.reducedRowOf_[j], col, 1.0);
+            for (const auto& [prey, dc] : model.dietRow(j))
+                if (dc != 0.0 && plan.reducedRowOf_[prey] >= 0) entries.emplace_back(plan.reducedRowOf_[prey], col, 1.0);
+        }
+        plan.pattern_.resize(static_cast<Eigen::Index>(m), static_cast<Eigen::Index>(k));
+        plan.pattern_.setFromTriplets(entries.begin(), entries.end());
+        plan.pattern_.makeCompressed();
+    }
     return plan;
 }
 
 BalanceWorkspace BalancePlan::makeWorkspace() const
 {
-    const auto m = static_cast<Eigen::Index>(equationCount());
-    const auto k = static_cast<Eigen::Index>(unknownCount());
+    const auto m = static_cast<Eigen::Index>(reducedRows_.size());
+    const auto k = static_cast<Eigen::Index>(coupled_.size());
     BalanceWorkspace ws;
-    ws.a.setZero(m, k);
     ws.b.setZero(m);
     ws.x.setZero(k);
     ws.y.setZero(k);
@@ -224,8 +312,28 @@ BalanceWorkspace BalancePlan::makeWorkspace() const
     ws.estimateX.setZero(k);
     ws.estimateY.setZero(k);
     ws.estimateZ.setZero(k);
-    if (m == k) ws.lu = Eigen::PartialPivLU<Eigen::MatrixXd>(m);
-    else ws.qr = Eigen::ColPivHouseholderQR<Eigen::MatrixXd>(m, k);
+    ws.estimateW.setZero(k);
+    switch (method_) {
+    case Method::None: break;
+    case Method::DenseLU:
+        ws.a.setZero(m, k);
+        ws.lu = Eigen::PartialPivLU<Eigen::MatrixXd>(k);
+        break;
+    case Method::DenseQR:
+        ws.a.setZero(m, k);
+        ws.qr = Eigen::ColPivHouseholderQR<Eigen::MatrixXd>(m, k);
+        break;
+    case Method::SparseLU:
+        ws.sparseA = pattern_;
+        ws.sparseLu = std::make_shared<Eigen::SparseLU<SparseColumns, Eigen::COLAMDOrdering<int>>>();
+        ws.sparseLu->analyzePattern(ws.sparseA);
+        break;
+    case Method::SparseQR:
+        ws.sparseA = pattern_;
+        ws.sparseQr = std::make_shared<Eigen::SparseQR<SparseColumns, Eigen::COLAMDOrdering<int>>>();
+        if (m >= k) ws.sparseQr->analyzePattern(ws.sparseA);
+        break;
+    }
     return ws;
 }
 
@@ -240,65 +348,48 @@ BalanceValues BalancePlan::makeValues() const
     return v;
 }
 
-void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceValues& out) const
+// Fills C2 and b2 from the given values; out.consumption holds the consumption of
+// every consumer whose B and Q/B are given (0 for coupled ones), out.predation the
+// predation those exert.
+void BalancePlan::assembleReduced(const BalanceInputs& in, const BalanceValues& out, BalanceWorkspace& ws) const
 {
-    const auto n = static_cast<Eigen::Index>(compartmentCount());
-    const auto m = static_cast<Eigen::Index>(equationCount());
-    const auto k = static_cast<Eigen::Index>(unknownCount());
-
-    // 1. Given values, with P/Q standing in for P/B or Q/B.
-    out.biomass = in.biomass;
-    out.pb = in.pb;
-    out.qb = in.qb;
-    out.ee = in.ee;
-    for (Eigen::Index i = 0; i < n; ++i) {
-        const auto s = static_cast<std::size_t>(i);
-        if (kinds_[s] != CompartmentKind::Consumer) out.qb[i] = 0.0;
-        if (standIn_[s] == PqStandIn::PBFromPQ) out.pb[i] = in.pq[i] * in.qb[i];
-        if (standIn_[s] == PqStandIn::QBFromPQ) out.qb[i] = in.pb[i] / in.pq[i];
-    }
-
-    // 2. Assemble A x = b, row r = living compartment i.
-    // colGross tracks the largest term added into each column, so that entries which
-    // cancel to rounding (e.g. P/B EE - Q/B DC_ii of a group eaten only by itself) are
-    // recognised as zero before equilibration would blow them up.
-    ws.a.setZero();
+    const bool dense = method_ == Method::DenseLU || method_ == Method::DenseQR;
+    if (dense) ws.a.setZero();
+    else std::fill_n(ws.sparseA.valuePtr(), ws.sparseA.nonZeros(), 0.0);
     ws.colGross.setZero();
-    const auto add = [&ws](Eigen::Index r, int col, double term) {
-        ws.a(r, col) += term;
+    const auto add = [&ws, dense](int r, int col, double term) {
+        if (dense) ws.a(r, col) += term;
+        else ws.sparseA.coeffRef(r, col) += term;
         ws.colGross[col] = std::max(ws.colGross[col], std::abs(term));
     };
-    for (Eigen::Index r = 0; r < m; ++r) {
-        const std::size_t i = rowCompartment_[static_cast<std::size_t>(r)];
-        const auto ii = static_cast<Eigen::Index>(i);
-        double rhs = in.catchTotal[ii] + in.netEmigration[ii] + in.biomassAccum[ii];
-        const int col = colOf_[i];
-        switch (unknown_[i]) {
-        case Unknown::None:
-        case Unknown::QB: rhs -= out.biomass[ii] * out.pb[ii] * out.ee[ii]; break;
-        case Unknown::Biomass: add(r, col, out.pb[ii] * out.ee[ii]); break;
-        case Unknown::PB: add(r, col, out.biomass[ii] * out.ee[ii]); break;
-        case Unknown::EE: add(r, col, out.biomass[ii] * out.pb[ii]); break;
-        case Unknown::QBTiedPB: add(r, col, out.biomass[ii] * out.ee[ii] * in.pq[ii]); break;
-        }
-        for (std::size_t j : consumers_) {
-            const auto jj = static_cast<Eigen::Index>(j);
-            const double dc = in.diet(ii, jj);
-            if (dc == 0.0) continue;
-            switch (unknown_[j]) {
-            case Unknown::Biomass: add(r, colOf_[j], -dc * out.qb[jj]); break;
-            case Unknown::QB:
-            case Unknown::QBTiedPB: add(r, colOf_[j], -dc * out.biomass[jj]); break;
-            default: rhs += dc * out.biomass[jj] * out.qb[jj]; break;
-            }
-        }
-        ws.b[r] = rhs;
+    for (std::size_t r = 0; r < reducedRows_.size(); ++r) {
+        const auto i = static_cast<Eigen::Index>(reducedRows_[r]);
+        double rhs = in.catchTotal[i] + in.netEmigration[i] + in.biomassAccum[i] + out.predation[i];
+        if (unknown_[reducedRows_[r]] == Unknown::None || unknown_[reducedRows_[r]] == Unknown::QB)
+            rhs -= out.biomass[i] * out.pb[i] * out.ee[i];
+        ws.b[static_cast<Eigen::Index>(r)] = rhs;
     }
+    for (std::size_t col = 0; col < coupled_.size(); ++col) {
+        const std::size_t j = coupled_[col];
+        const auto jj = static_cast<Eigen::Index>(j);
+        const Unknown u = unknown_[j];
+        if (u != Unknown::QB) add(reducedRowOf_[j], static_cast<int>(col), productionCoefficient(u, in, out, jj));
+        const double perDiet = consumptionCoefficient(u, out, jj);
+        for (SparseColumns::InnerIterator it(in.diet, jj); it; ++it)
+            if (const int r = reducedRowOf_[static_cast<std::size_t>(it.index())]; r >= 0)
+                add(r, static_cast<int>(col), -it.value() * perDiet);
+    }
+}
 
-    // 3. Equilibrate, factorise, solve.
-    out.status = NumericStatus::Solved;
-    out.conditioning = 1.0;
-    if (k > 0) {
+// Equilibrates and solves C2 y = b2 into ws.x; false when (numerically) singular.
+bool BalancePlan::solveReduced(BalanceWorkspace& ws, BalanceValues& out) const
+{
+    const auto m = static_cast<Eigen::Index>(reducedRows_.size());
+    const auto k = static_cast<Eigen::Index>(coupled_.size());
+    const bool dense = method_ == Method::DenseLU || method_ == Method::DenseQR;
+
+    // Cancellation residue to 0, then columns and rows to unit max norm.
+    if (dense) {
         for (Eigen::Index c = 0; c < k; ++c) {
             const double residue = kCancellationResidue * ws.colGross[c];
             for (Eigen::Index r = 0; r < m; ++r)
@@ -310,97 +401,225 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
             ws.rowScale[r] = unitScale(ws.a.row(r));
             ws.a.row(r) *= ws.rowScale[r];
         }
-        ws.rhsWork = ws.b.cwiseProduct(ws.rowScale);
-        if (m == k) {
-            ws.lu.compute(ws.a);
-            out.conditioning = reciprocalConditionEstimate(ws);
-            if (out.conditioning > kSingularConditioning) {
-                ws.y = ws.lu.permutationP() * ws.rhsWork;
-                ws.lu.matrixLU().triangularView<Eigen::UnitLower>().solveInPlace(ws.y);
-                ws.lu.matrixLU().triangularView<Eigen::Upper>().solveInPlace(ws.y);
+    } else {
+        ws.rowScale.setZero();
+        for (Eigen::Index c = 0; c < k; ++c) {
+            const double residue = kCancellationResidue * ws.colGross[c];
+            double largest = 0.0;
+            for (SparseColumns::InnerIterator it(ws.sparseA, c); it; ++it) {
+                if (std::abs(it.value()) <= residue) it.valueRef() = 0.0;
+                largest = std::max(largest, std::abs(it.value()));
             }
-        } else {
-            ws.qr.compute(ws.a);
-            const auto pivots = ws.qr.matrixR().diagonal().cwiseAbs();
-            const double maxPivot = pivots.maxCoeff();
-            out.conditioning = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
-            if (out.conditioning > kSingularConditioning) {
-                // Least squares: R y' = (Q^T b)_top, y = Pi y'. Q = H_0 ... H_{k-1} with
-                // H_h = I - tau_h v v^T, v = (1, essential part below the diagonal); applied
-                // by hand because Eigen's sequence product allocates on a vector block.
-                const Eigen::MatrixXd& qr = ws.qr.matrixQR();
-                for (Eigen::Index h = 0; h < k; ++h) {
-                    const Eigen::Index below = m - h - 1;
-                    const auto essential = qr.col(h).tail(below);
-                    const double w = ws.qr.hCoeffs()[h] * (ws.rhsWork[h] + essential.dot(ws.rhsWork.tail(below)));
-                    ws.rhsWork[h] -= w;
-                    ws.rhsWork.tail(below) -= w * essential;
-                }
-                ws.x = ws.rhsWork.head(k);
-                ws.qr.matrixR().topLeftCorner(k, k).triangularView<Eigen::Upper>().solveInPlace(ws.x);
-                ws.y = ws.qr.colsPermutation() * ws.x;
+            ws.colScale[c] = largest > 0.0 ? 1.0 / largest : 1.0;
+            for (SparseColumns::InnerIterator it(ws.sparseA, c); it; ++it) {
+                it.valueRef() *= ws.colScale[c];
+                ws.rowScale[it.index()] = std::max(ws.rowScale[it.index()], std::abs(it.value()));
             }
         }
-        if (!(out.conditioning > kSingularConditioning)) {
-            out.status = NumericStatus::Singular;
-            return;
-        }
-        ws.x = ws.y.cwiseProduct(ws.colScale);
+        for (Eigen::Index r = 0; r < m; ++r) ws.rowScale[r] = ws.rowScale[r] > 0.0 ? 1.0 / ws.rowScale[r] : 1.0;
+        for (Eigen::Index c = 0; c < k; ++c)
+            for (SparseColumns::InnerIterator it(ws.sparseA, c); it; ++it) it.valueRef() *= ws.rowScale[it.index()];
+    }
+    ws.rhsWork = ws.b.cwiseProduct(ws.rowScale);
+    if (m < k) {  // fewer equations than coupled unknowns: rank deficient by structure
+        out.conditioning = 0.0;
+        return false;
     }
 
-    // 4. Write the unknowns back.
-    for (Eigen::Index c = 0; c < k; ++c) {
-        const std::size_t i = colCompartment_[static_cast<std::size_t>(c)];
+    switch (method_) {
+    case Method::None: return true;
+    case Method::DenseLU: {
+        ws.lu.compute(ws.a);
+        const Eigen::MatrixXd& lu = ws.lu.matrixLU();
+        if (!(lu.diagonal().cwiseAbs().minCoeff() > 0.0)) {  // a zero (or NaN) pivot
+            out.conditioning = 0.0;
+            return false;
+        }
+        double normA = 0.0;
+        for (Eigen::Index c = 0; c < k; ++c) normA = std::max(normA, ws.a.col(c).cwiseAbs().sum());
+        // PA = LU: A^-1 v = U^-1 L^-1 P v and A^-T v = P^T L^-T U^-T v.
+        out.conditioning = reciprocalConditionEstimate(
+            normA, ws,
+            [&](const Eigen::VectorXd& src, Eigen::VectorXd& dst) {
+                dst = ws.lu.permutationP() * src;
+                lu.triangularView<Eigen::UnitLower>().solveInPlace(dst);
+                lu.triangularView<Eigen::Upper>().solveInPlace(dst);
+            },
+            [&](Eigen::VectorXd& src, Eigen::VectorXd& dst) {
+                lu.transpose().triangularView<Eigen::Lower>().solveInPlace(src);
+                lu.transpose().triangularView<Eigen::UnitUpper>().solveInPlace(src);
+                dst = ws.lu.permutationP().transpose() * src;
+            });
+        if (!(out.conditioning > kSingularConditioning)) return false;
+        ws.y = ws.lu.permutationP() * ws.rhsWork;
+        lu.triangularView<Eigen::UnitLower>().solveInPlace(ws.y);
+        lu.triangularView<Eigen::Upper>().solveInPlace(ws.y);
+        break;
+    }
+    case Method::DenseQR: {
+        ws.qr.compute(ws.a);
+        const auto pivots = ws.qr.matrixR().diagonal().cwiseAbs();
+        const double maxPivot = pivots.maxCoeff();
+        out.conditioning = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
+        if (!(out.conditioning > kSingularConditioning)) return false;
+        // Least squares: R y' = (Q^T b)_top, y = Pi y'. Q = H_0 ... H_{k-1} with
+        // H_h = I - tau_h v v^T, v = (1, essential part below the diagonal); applied
+        // by hand because Eigen's sequence product allocates on a vector block.
+        const Eigen::MatrixXd& qr = ws.qr.matrixQR();
+        for (Eigen::Index h = 0; h < k; ++h) {
+            const Eigen::Index below = m - h - 1;
+            const auto essential = qr.col(h).tail(below);
+            const double w = ws.qr.hCoeffs()[h] * (ws.rhsWork[h] + essential.dot(ws.rhsWork.tail(below)));
+            ws.rhsWork[h] -= w;
+            ws.rhsWork.tail(below) -= w * essential;
+        }
+        ws.x = ws.rhsWork.head(k);
+        ws.qr.matrixR().topLeftCorner(k, k).triangularView<Eigen::Upper>().solveInPlace(ws.x);
+        ws.y = ws.qr.colsPermutation() * ws.x;
+        break;
+    }
+    case Method::SparseLU: {
+        ws.sparseLu->factorize(ws.sparseA);
+        if (ws.sparseLu->info() != Eigen::Success) {
+            out.conditioning = 0.0;
+            return false;
+        }
+        double normA = 0.0;
+        for (Eigen::Index c = 0; c < k; ++c) {
+            double sum = 0.0;
+            for (SparseColumns::InnerIterator it(ws.sparseA, c); it; ++it) sum += std::abs(it.value());
+            normA = std::max(normA, sum);
+        }
+        auto& lu = *ws.sparseLu;
+        out.conditioning = reciprocalConditionEstimate(
+            normA, ws, [&](const Eigen::VectorXd& src, Eigen::VectorXd& dst) { dst = lu.solve(src); },
+            [&](Eigen::VectorXd& src, Eigen::VectorXd& dst) { dst = lu.transpose().solve(src); });
+        if (!(out.conditioning > kSingularConditioning)) return false;
+        ws.y = lu.solve(ws.rhsWork);
+        break;
+    }
+    case Method::SparseQR: {
+        auto& qr = *ws.sparseQr;
+        qr.factorize(ws.sparseA);
+        if (qr.info() != Eigen::Success || qr.rank() < k) {
+            out.conditioning = 0.0;
+            return false;
+        }
+        const auto pivots = qr.matrixR().diagonal().cwiseAbs();
+        const double maxPivot = pivots.maxCoeff();
+        out.conditioning = maxPivot > 0.0 ? pivots.minCoeff() / maxPivot : 0.0;
+        if (!(out.conditioning > kSingularConditioning)) return false;
+        ws.y = qr.solve(ws.rhsWork);
+        break;
+    }
+    }
+    ws.x = ws.y.cwiseProduct(ws.colScale);
+    return true;
+}
+
+// EE_i = demand_i / (B_i P/B_i), P/B_i = demand_i / (B_i EE_i), with
+// demand = predation + Y + E + BA (row i of the full system, solved for its own unknown).
+void BalancePlan::backSubstitute(const BalanceInputs& in, BalanceValues& out) const
+{
+    for (std::size_t i : private_) {
         const auto ii = static_cast<Eigen::Index>(i);
-        const double x = ws.x[c];
-        switch (unknown_[i]) {
-        case Unknown::Biomass: out.biomass[ii] = x; break;
-        case Unknown::PB: out.pb[ii] = x; break;
-        case Unknown::QB: out.qb[ii] = x; break;
-        case Unknown::EE: out.ee[ii] = x; break;
-        case Unknown::QBTiedPB:
-            out.qb[ii] = x;
-            out.pb[ii] = in.pq[ii] * x;
-            break;
-        case Unknown::None: break;
-        }
+        const double demand = out.predation[ii] + in.catchTotal[ii] + in.netEmigration[ii] + in.biomassAccum[ii];
+        if (unknown_[i] == Unknown::EE) out.ee[ii] = demand / (out.biomass[ii] * out.pb[ii]);
+        else out.pb[ii] = demand / (out.biomass[ii] * out.ee[ii]);
     }
+}
 
-    // 5. Flows, residuals and detritus pools.
-    for (Eigen::Index i = 0; i < n; ++i) {
-        const bool living = isLiving(kinds_[static_cast<std::size_t>(i)]);
-        out.production[i] = living ? out.biomass[i] * out.pb[i] : 0.0;
-        out.consumption[i] = living ? out.biomass[i] * out.qb[i] : 0.0;
+void BalancePlan::completeFlows(const BalanceInputs& in, BalanceValues& out) const
+{
+    for (std::size_t i : living_) {
+        const auto ii = static_cast<Eigen::Index>(i);
+        out.production[ii] = out.biomass[ii] * out.pb[ii];
+        const double used = out.production[ii] * out.ee[ii];
+        const double demand = out.predation[ii] + in.catchTotal[ii] + in.netEmigration[ii] + in.biomassAccum[ii];
+        out.residual[ii] = used - demand;
+        out.residualScale[ii] = std::max(std::abs(used), std::abs(demand));
+        out.flowToDetritus[ii] =
+            (1.0 - out.ee[ii]) * out.production[ii] + in.unassim[ii] * out.consumption[ii] + in.deadDiscards[ii];
     }
-    out.predation.noalias() = in.diet * out.consumption;
-    for (Eigen::Index i = 0; i < n; ++i) {
-        if (!isLiving(kinds_[static_cast<std::size_t>(i)])) {
-            out.flowToDetritus[i] = out.residual[i] = out.residualScale[i] = 0.0;
-            continue;
-        }
-        const double used = out.production[i] * out.ee[i];
-        const double demand = out.predation[i] + in.catchTotal[i] + in.netEmigration[i] + in.biomassAccum[i];
-        out.residual[i] = used - demand;
-        out.residualScale[i] = std::max(std::abs(used), std::abs(demand));
-        out.flowToDetritus[i] =
-            (1.0 - out.ee[i]) * out.production[i] + in.unassim[i] * out.consumption[i] + in.deadDiscards[i];
-    }
-    out.detritusInflow.setZero();
-    out.detritusEE.setZero();
-    out.detritusExport.setZero();
     for (std::size_t d : pools_) {
         const auto dd = static_cast<Eigen::Index>(d);
         double inflow = in.detritusImport[dd];
-        for (std::size_t s : rowCompartment_) {
-            const auto ss = static_cast<Eigen::Index>(s);
-            inflow += in.routing(ss, dd) * (out.flowToDetritus[ss] - in.deadDiscards[ss]) + in.discardsToPool(ss, dd);
-        }
+        for (SparseColumns::InnerIterator it(in.routing, dd); it; ++it)
+            inflow += it.value() * (out.flowToDetritus[it.index()] - in.deadDiscards[it.index()]);
+        for (SparseColumns::InnerIterator it(in.discardsToPool, dd); it; ++it) inflow += it.value();
         out.detritusInflow[dd] = inflow;
         // EE_d is undefined without inflow unless nothing is eaten either.
         out.detritusEE[dd] = inflow > 0.0 ? out.predation[dd] / inflow : (out.predation[dd] != 0.0 ? kNaN : 0.0);
         out.detritusExport[dd] = inflow - out.predation[dd] - in.biomassAccum[dd];
         out.ee[dd] = out.detritusEE[dd];
     }
+}
+
+void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceValues& out) const
+{
+    const auto n = static_cast<Eigen::Index>(compartmentCount());
+
+    // 1. Given values, with P/Q standing in for P/B or Q/B; zero flows.
+    out.biomass = in.biomass;
+    out.pb = in.pb;
+    out.qb = in.qb;
+    out.ee = in.ee;
+    for (Eigen::VectorXd* v : {&out.production, &out.consumption, &out.flowToDetritus, &out.residual,
+                               &out.residualScale, &out.detritusInflow, &out.detritusEE, &out.detritusExport})
+        v->setZero();
+    for (Eigen::Index i = 0; i < n; ++i) {
+        const auto s = static_cast<std::size_t>(i);
+        if (kinds_[s] != CompartmentKind::Consumer) out.qb[i] = 0.0;
+        if (standIn_[s] == PqStandIn::PBFromPQ) out.pb[i] = in.pq[i] * in.qb[i];
+        if (standIn_[s] == PqStandIn::QBFromPQ) out.qb[i] = in.pb[i] / in.pq[i];
+    }
+    out.status = NumericStatus::Solved;
+    out.conditioning = 1.0;
+
+    // 2. A private unknown with a zero coefficient leaves its column of A empty.
+    for (std::size_t i : private_) {
+        const auto ii = static_cast<Eigen::Index>(i);
+        const double coefficient = out.biomass[ii] * (unknown_[i] == Unknown::EE ? out.pb[ii] : out.ee[ii]);
+        if (!(coefficient != 0.0) || !std::isfinite(coefficient)) {
+            out.status = NumericStatus::Singular;
+            out.conditioning = 0.0;
+        }
+    }
+
+    // 3. Consumption of consumers with B and Q/B known, and the predation it exerts.
+    for (std::size_t i : living_) {
+        const auto ii = static_cast<Eigen::Index>(i);
+        out.consumption[ii] = isCoupled(unknown_[i]) ? 0.0 : out.biomass[ii] * out.qb[ii];
+    }
+
+    // 4. The coupled unknowns from the reduced system.
+    if (!coupled_.empty()) {
+        out.predation.noalias() = in.diet * out.consumption;
+        assembleReduced(in, out, ws);
+        if (!solveReduced(ws, out)) out.status = NumericStatus::Singular;
+        if (out.status == NumericStatus::Singular) return;
+        for (std::size_t c = 0; c < coupled_.size(); ++c) {
+            const std::size_t i = coupled_[c];
+            const auto ii = static_cast<Eigen::Index>(i);
+            const double x = ws.x[static_cast<Eigen::Index>(c)];
+            switch (unknown_[i]) {
+            case Unknown::Biomass: out.biomass[ii] = x; break;
+            case Unknown::QB: out.qb[ii] = x; break;
+            case Unknown::QBTiedPB:
+                out.qb[ii] = x;
+                out.pb[ii] = in.pq[ii] * x;
+                break;
+            default: break;
+            }
+            out.consumption[ii] = out.biomass[ii] * out.qb[ii];
+        }
+    }
+    if (out.status == NumericStatus::Singular) return;
+
+    // 5. Predation from every consumer, the private unknowns, flows and pools.
+    out.predation.noalias() = in.diet * out.consumption;
+    backSubstitute(in, out);
+    completeFlows(in, out);
 }
 
 }  // namespace tl

@@ -3,27 +3,43 @@
 //
 //   B_i (P/B)_i EE_i - sum_j B_j (Q/B)_j DC_ij = Y_i + E_i + BA_i
 //
-// With at most one unknown x_i among B, P/B, Q/B, EE per compartment, both sides are
-// linear in the unknowns: x_i enters row i through the production term (coefficient
-// P/B EE, B EE or B P/B) and the rows of i's prey through its consumption (coefficient
-// -DC_ki Q/B or -DC_ki B). The plan fixes which value is unknown where and the sizes;
-// the numeric step fills A x = b from a flat BalanceInputs, equilibrates it (rows and
-// columns scaled to unit max norm), factorises it and writes every completed value
-// and derived flow into a BalanceValues, without heap allocation.
-//   square system:       partial-pivot LU, its conditioning checked by the Hager-Higham
+// With at most one unknown per compartment, the unknowns enter linearly. Their
+// structure is what makes the solve fast:
+//   - an unknown EE_i or P/B_i ("private") appears in row i only, with coefficient
+//     B_i P/B_i or B_i EE_i; it is filled by back-substitution once the predators'
+//     consumption is known;
+//   - an unknown B_j, Q/B_j, or Q/B_j tied to P/B_j by P/Q ("coupled") appears in row j
+//     (own production) and in the rows of j's prey (its consumption), so only these
+//     couple equations, through the diet links.
+// Permuting private rows and columns first makes A block upper triangular,
+//   [ D  C1 ] [x_private]   [b1]
+//   [ 0  C2 ] [x_coupled] = [b2],   D diagonal,
+// so the plan builds the reduced system C2 y = b2 over the coupled unknowns alone (rows:
+// the equations of compartments without a private unknown that involve a coupled one),
+// solves it, then x_private = (b1 - C1 y) / D. A model whose unknowns are all EE or P/B
+// needs no factorisation. C2 is equilibrated (rows and columns scaled to unit max norm)
+// and, by size and shape:
+//   square, small:        dense partial-pivot LU; conditioning by the Hager-Higham
 //                         estimate of 1 / cond_1 (Hager 1984 SIAM J Sci Stat Comput 5:311;
 //                         Higham 1988 ACM TOMS 14:381), computed without allocation;
-//   more rows than unknowns (some compartments fully given): column-pivoted Householder
-//                         QR least squares (rank-revealing: |r_kk| min / max), then every
-//                         equation's residual is reported.
+//   more rows, small:     dense column-pivoted Householder QR least squares (conditioning
+//                         |r_kk| min / max); every equation's residual is then reported;
+//   large (> kDenseLimit coupled unknowns): Eigen's SparseLU or SparseQR with COLAMD
+//                         ordering; the pattern is analysed once in makeWorkspace.
+// The numeric step allocates nothing on the dense paths once ws and out come from the
+// plan (balance_plan_no_alloc_test); the sparse factorisations allocate internally.
 #pragma once
 
 #include <cstddef>
 #include <cstdint>
+#include <memory>
 #include <vector>
 
 #include <Eigen/Dense>
+#include <Eigen/SparseLU>
+#include <Eigen/SparseQR>
 
+#include "core/balance/sparse_columns.h"
 #include "core/model/model.h"
 #include "core/model/problem.h"
 
@@ -44,7 +60,9 @@ enum class PqStandIn : std::uint8_t { None, PBFromPQ, QBFromPQ };
 
 // Flat numeric inputs, indexed by compartment. NaN where a value is not given; the
 // plan decides which entries are read. Defaults are applied by fromModel (U per
-// Compartment::unassimilatedOrDefault, missing catch/E/BA/import as 0).
+// Compartment::unassimilatedOrDefault, missing catch/E/BA/import as 0). The sparse
+// matrices keep the model's pattern: a caller that perturbs them (the ensemble) changes
+// values in place and never adds an entry the model does not have.
 struct BalanceInputs {
     Eigen::VectorXd biomass, pb, qb, ee, pq;
     Eigen::VectorXd unassim;         // U
@@ -53,9 +71,9 @@ struct BalanceInputs {
     Eigen::VectorXd netEmigration;   // E
     Eigen::VectorXd biomassAccum;    // BA (absolute, per year)
     Eigen::VectorXd detritusImport;  // import into a pool
-    Eigen::MatrixXd diet;            // diet(prey, predator) = DC; import excluded
-    Eigen::MatrixXd routing;         // routing(source, pool) = share of source's detritus flow
-    Eigen::MatrixXd discardsToPool;  // discardsToPool(source, pool) = dead discards of source into pool
+    SparseColumns diet;              // diet(prey, predator) = DC; import excluded
+    SparseColumns routing;           // routing(source, pool) = share of source's detritus flow
+    SparseColumns discardsToPool;    // discardsToPool(source, pool) = dead discards of source into pool
 
     static BalanceInputs fromModel(const Model& model);
     std::size_t size() const { return static_cast<std::size_t>(biomass.size()); }
@@ -66,8 +84,9 @@ enum class NumericStatus : std::uint8_t { Solved, Singular };
 // Everything the numeric step writes. Sized by BalancePlan::makeValues.
 struct BalanceValues {
     NumericStatus status = NumericStatus::Solved;
-    // Conditioning of the equilibrated A: LU, estimate of 1 / cond_1(A); QR, min |r_kk| /
-    // max |r_kk|. 1 when nothing is unknown, 0 when exactly singular.
+    // Conditioning of the equilibrated reduced system: LU, estimate of 1 / cond_1;
+    // QR, min |r_kk| / max |r_kk|. 1 when no unknown couples equations, 0 when exactly
+    // singular (including a private unknown whose coefficient is 0).
     double conditioning = 1.0;
 
     // Completed inputs (given, from P/Q, or solved). Q/B is 0 for producers and pools.
@@ -85,59 +104,97 @@ struct BalanceValues {
 
 // Preallocated matrices and decompositions for the numeric step.
 struct BalanceWorkspace {
-    Eigen::MatrixXd a;               // rows = living equations, cols = unknowns
+    // Reduced system C2 y = b2 over the coupled unknowns (rows: BalancePlan::reducedRows).
+    Eigen::MatrixXd a;               // dense paths; equilibrated after a step
+    SparseColumns sparseA;           // sparse path; pattern fixed by the plan
     Eigen::VectorXd b, x, y;
     Eigen::VectorXd rowScale, colScale;
     Eigen::VectorXd colGross;        // largest term added into each column
     Eigen::VectorXd rhsWork;         // permuted / rotated right-hand side
-    Eigen::VectorXd estimateX, estimateY, estimateZ;  // condition estimate iterates
-    Eigen::PartialPivLU<Eigen::MatrixXd> lu;              // square systems
-    Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr;       // overdetermined systems
+    Eigen::VectorXd estimateX, estimateY, estimateZ, estimateW;  // condition estimate iterates
+    Eigen::PartialPivLU<Eigen::MatrixXd> lu;              // square, dense
+    Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr;       // overdetermined, dense
+    // Sparse factorisations (pattern analysed once); shared_ptr keeps the workspace movable.
+    std::shared_ptr<Eigen::SparseLU<SparseColumns, Eigen::COLAMDOrdering<int>>> sparseLu;
+    std::shared_ptr<Eigen::SparseQR<SparseColumns, Eigen::COLAMDOrdering<int>>> sparseQr;
 };
 
 class BalancePlan {
 public:
-    // Decides the unknown of every living compartment; structural problems (two or
-    // more unknowns, no detritus pool, ignored routing) go to problems().
+    enum class Method : std::uint8_t { None, DenseLU, DenseQR, SparseLU, SparseQR };
+
+    // Decides the unknown of every living compartment and the layout of the reduced
+    // system; structural problems (two or more unknowns, no detritus pool, ignored
+    // routing) go to problems().
     static BalancePlan build(const Model& model);
 
     BalanceWorkspace makeWorkspace() const;
     BalanceValues makeValues() const;
 
-    // Numeric step: no heap allocation once ws and out come from this plan.
-    // Requires !hasStructuralErrors() and inputs of size compartmentCount().
+    // Numeric step. Requires !hasStructuralErrors() and inputs of size
+    // compartmentCount() with the model's diet pattern. No heap allocation on the dense
+    // paths once ws and out come from this plan.
     void solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceValues& out) const;
 
     std::size_t compartmentCount() const { return kinds_.size(); }
+    // The full system (one row per living compartment, one column per unknown), as
+    // the equations are written; the solve works on its reduced form.
     std::size_t equationCount() const { return rowCompartment_.size(); }
     std::size_t unknownCount() const { return colCompartment_.size(); }
     Unknown unknownOf(std::size_t compartment) const { return unknown_[compartment]; }
     PqStandIn pqStandInOf(std::size_t compartment) const { return standIn_[compartment]; }
-    // Equation row / unknown column of a compartment, or -1.
+    // Equation row / unknown column of a compartment in the full system, or -1.
     int rowOf(std::size_t compartment) const { return rowOf_[compartment]; }
     int columnOf(std::size_t compartment) const { return colOf_[compartment]; }
     std::size_t compartmentOfColumn(std::size_t col) const { return colCompartment_[col]; }
     std::size_t compartmentOfRow(std::size_t row) const { return rowCompartment_[row]; }
     const std::vector<std::size_t>& pools() const { return pools_; }
 
+    // The reduced system: its unknowns (compartments with a coupled unknown), its rows
+    // (compartments without a private unknown whose equation involves a coupled one),
+    // and the equations of compartments without a private unknown that involve none
+    // (pure checks; they make the full system non-square).
+    const std::vector<std::size_t>& coupledUnknowns() const { return coupled_; }
+    const std::vector<std::size_t>& reducedRows() const { return reducedRows_; }
+    const std::vector<std::size_t>& privateUnknowns() const { return private_; }
+    std::size_t uncoupledCheckCount() const { return uncoupledChecks_; }
+    int reducedRowOf(std::size_t compartment) const { return reducedRowOf_[compartment]; }
+    int reducedColumnOf(std::size_t compartment) const { return reducedColOf_[compartment]; }
+    bool fullSystemIsSquare() const { return equationCount() == unknownCount(); }
+    Method method() const { return method_; }
+
     const Problems& problems() const { return problems_; }
     bool hasStructuralErrors() const { return hasErrors(problems_); }
 
     // Conditioning at or below this means the equilibrated system is (numerically)
     // singular: solved values would carry relative errors of 1e-4 or worse (this
-    // project's choice). After a Singular step, ws.a holds the equilibrated A.
+    // project's choice). After a Singular step, ws.a / ws.sparseA hold the equilibrated C2.
     static constexpr double kSingularConditioning = 1e-12;
     // An entry of A at or below this share of the largest term summed into its column
     // is cancellation residue and counts as 0 (about 450 machine epsilons).
     static constexpr double kCancellationResidue = 1e-13;
+    // Above this many coupled unknowns the reduced system is factorised sparse (the
+    // crossover measured by tests/bench; this project's choice).
+    static constexpr std::size_t kDenseLimit = 120;
 
 private:
+    void assembleReduced(const BalanceInputs& in, const BalanceValues& out, BalanceWorkspace& ws) const;
+    bool solveReduced(BalanceWorkspace& ws, BalanceValues& out) const;
+    void backSubstitute(const BalanceInputs& in, BalanceValues& out) const;
+    void completeFlows(const BalanceInputs& in, BalanceValues& out) const;
+
     std::vector<CompartmentKind> kinds_;
     std::vector<Unknown> unknown_;
     std::vector<PqStandIn> standIn_;
     std::vector<int> rowOf_, colOf_;
     std::vector<std::size_t> rowCompartment_, colCompartment_;
-    std::vector<std::size_t> consumers_, pools_;
+    std::vector<std::size_t> living_, pools_;
+    // Reduced system.
+    std::vector<std::size_t> coupled_, reducedRows_, private_;
+    std::vector<int> reducedRowOf_, reducedColOf_;  // per compartment, or -1
+    std::size_t uncoupledChecks_ = 0;
+    Method method_ = Method::None;
+    SparseColumns pattern_;  // structure of C2 (values unused), for the sparse path
     Problems problems_;
 };
 

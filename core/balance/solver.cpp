@@ -5,7 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
+#include <charconv>
 #include <set>
 #include <string>
 
@@ -18,11 +18,13 @@
 namespace tl {
 namespace {
 
+// As printf's %.4g (std::to_chars in general format is specified to match it), without
+// printf's cost: the checks of a large model format thousands of numbers.
 std::string num(double v)
 {
     char buf[32];
-    std::snprintf(buf, sizeof buf, "%.4g", v);
-    return buf;
+    const auto end = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::general, 4).ptr;
+    return std::string(buf, end);
 }
 
 using code::makeProblem;
@@ -103,26 +105,61 @@ std::string_view unknownKey(Unknown u)
     return "";
 }
 
-// Names the compartments whose unknowns the singular system cannot determine (the
-// support of A's null space) and those whose equation contains no unknown at all.
-void reportSingular(const Model& model, const BalancePlan& plan, const BalanceWorkspace& ws, BalanceSheet& sheet)
+// Names the compartments whose unknowns a singular system cannot determine:
+//  - a private unknown (EE, P/B) whose coefficient B P/B or B EE is 0;
+//  - the support of the reduced system's null space (coupled unknowns, from the SVD
+//    of the equilibrated C2), and the private unknowns of the prey those enter;
+//  - when the full system is square, the equations with no unknown left to close them.
+void reportSingular(const Model& model, const BalancePlan& plan, const BalanceValues& given,
+                    const BalanceWorkspace& ws, BalanceSheet& sheet)
 {
-    const Eigen::MatrixXd& a = ws.a;  // equilibrated
-    Eigen::JacobiSVD<Eigen::MatrixXd> svd(a, Eigen::ComputeFullV);
-    const Eigen::VectorXd& sigma = svd.singularValues();
-    const double tol = BalancePlan::kSingularConditioning * 1e3 * (sigma.size() ? sigma[0] : 0.0);
     std::set<std::size_t> involved;
-    std::string what;
-    for (Eigen::Index s = 0; s < a.cols(); ++s) {
-        if (s < sigma.size() && sigma[s] > tol) continue;
-        for (Eigen::Index c = 0; c < a.cols(); ++c)
-            if (std::abs(svd.matrixV()(c, s)) > 1e-6) involved.insert(plan.compartmentOfColumn(static_cast<std::size_t>(c)));
+    for (std::size_t i : plan.privateUnknowns()) {
+        const auto ii = static_cast<Eigen::Index>(i);
+        const double other = plan.unknownOf(i) == Unknown::EE ? given.pb[ii] : given.ee[ii];
+        const double coefficient = given.biomass[ii] * other;
+        if (!(coefficient != 0.0) || !std::isfinite(coefficient)) involved.insert(i);
     }
-    if (a.rows() == a.cols())
-        for (Eigen::Index r = 0; r < a.rows(); ++r)
-            if (a.row(r).cwiseAbs().maxCoeff() == 0.0) involved.insert(plan.compartmentOfRow(static_cast<std::size_t>(r)));
+    const std::vector<std::size_t>& coupled = plan.coupledUnknowns();
+    if (!coupled.empty()) {
+        const bool dense = plan.method() == BalancePlan::Method::DenseLU || plan.method() == BalancePlan::Method::DenseQR;
+        const Eigen::MatrixXd a = dense ? ws.a : Eigen::MatrixXd(ws.sparseA);  // equilibrated C2
+        const auto k = static_cast<Eigen::Index>(coupled.size());
+        Eigen::VectorXd sigma;  // empty when C2 has no row: every column is in the null space
+        Eigen::MatrixXd v = Eigen::MatrixXd::Identity(k, k);
+        if (a.rows() > 0 && k <= 200) {
+            Eigen::JacobiSVD<Eigen::MatrixXd> svd(a, Eigen::ComputeFullV);
+            sigma = svd.singularValues();
+            v = svd.matrixV();
+        } else if (a.rows() > 0) {
+            Eigen::BDCSVD<Eigen::MatrixXd> svd(a, Eigen::ComputeFullV);
+            sigma = svd.singularValues();
+            v = svd.matrixV();
+        }
+        const double tol = BalancePlan::kSingularConditioning * 1e3 * (sigma.size() ? sigma[0] : 0.0);
+        std::set<std::size_t> undetermined;
+        for (Eigen::Index s = 0; s < k; ++s) {
+            if (s < sigma.size() && sigma[s] > tol) continue;
+            for (Eigen::Index c = 0; c < k; ++c)
+                if (std::abs(v(c, s)) > 1e-6) undetermined.insert(coupled[static_cast<std::size_t>(c)]);
+        }
+        involved.insert(undetermined.begin(), undetermined.end());
+        for (std::size_t j : undetermined)  // their consumption leaves their prey's EE or P/B open too
+            for (const auto& [prey, dc] : model.dietRow(j))
+                if (dc != 0.0 && (plan.unknownOf(prey) == Unknown::EE || plan.unknownOf(prey) == Unknown::PB))
+                    involved.insert(prey);
+        if (plan.fullSystemIsSquare()) {
+            for (std::size_t r = 0; r < plan.reducedRows().size(); ++r)
+                if (a.row(static_cast<Eigen::Index>(r)).cwiseAbs().maxCoeff() == 0.0) involved.insert(plan.reducedRows()[r]);
+            for (std::size_t i = 0; i < model.size(); ++i)
+                if (plan.rowOf(i) >= 0 && plan.reducedRowOf(i) < 0 && plan.unknownOf(i) != Unknown::EE &&
+                    plan.unknownOf(i) != Unknown::PB)
+                    involved.insert(i);  // an equation no unknown enters
+        }
+    }
     if (involved.empty())  // numerically singular without a clear support: name every unknown
         for (std::size_t c = 0; c < plan.unknownCount(); ++c) involved.insert(plan.compartmentOfColumn(c));
+    std::string what;
     for (std::size_t i : involved) {
         if (!what.empty()) what += ", ";
         const std::string sym = unknownSymbol(plan.unknownOf(i));
@@ -250,28 +287,12 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
 
 }  // namespace
 
-BalanceSheet solveBalance(const Model& model)
-{
-    BalanceSheet sheet;
-    const BalancePlan plan = BalancePlan::build(model);
-    sheet.problems = plan.problems();
-    fillGivenValues(model, sheet);
-    fillTrophicLevels(model, sheet);
-    if (plan.hasStructuralErrors()) {
-        sheet.status = BalanceStatus::Invalid;
-        return sheet;
-    }
+namespace {
 
-    const BalanceInputs inputs = BalanceInputs::fromModel(model);
-    BalanceWorkspace ws = plan.makeWorkspace();
-    BalanceValues values = plan.makeValues();
-    plan.solve(inputs, ws, values);
+// The solved sheet: derived outputs of every row and the checks of DESIGN 3.2.
+void finishSolvedSheet(const Model& model, const BalancePlan& plan, const BalanceValues& values, BalanceSheet& sheet)
+{
     sheet.conditioning = values.conditioning;
-    if (values.status == NumericStatus::Singular) {
-        reportSingular(model, plan, ws, sheet);
-        sheet.status = BalanceStatus::Invalid;
-        return sheet;
-    }
     if (values.conditioning < kIllConditioned)
         sheet.problems.push_back(makeProblem(code::kIllConditioned, Severity::Warning, "", "",
                                          "The balance equations are nearly singular (conditioning " +
@@ -301,6 +322,45 @@ BalanceSheet solveBalance(const Model& model)
         checkLiving(model, plan, i, row, values, sheet.problems);
     }
     sheet.status = hasErrors(sheet.problems) ? BalanceStatus::Unbalanced : BalanceStatus::Balanced;
+}
+
+BalanceSheet startSheet(const Model& model, const BalancePlan& plan)
+{
+    BalanceSheet sheet;
+    sheet.problems = plan.problems();
+    fillGivenValues(model, sheet);
+    fillTrophicLevels(model, sheet);
+    return sheet;
+}
+
+}  // namespace
+
+BalanceSheet balanceSheetFromValues(const Model& model, const BalancePlan& plan, const BalanceValues& values)
+{
+    BalanceSheet sheet = startSheet(model, plan);
+    finishSolvedSheet(model, plan, values, sheet);
+    return sheet;
+}
+
+BalanceSheet solveBalance(const Model& model)
+{
+    const BalancePlan plan = BalancePlan::build(model);
+    BalanceSheet sheet = startSheet(model, plan);
+    if (plan.hasStructuralErrors()) {
+        sheet.status = BalanceStatus::Invalid;
+        return sheet;
+    }
+    const BalanceInputs inputs = BalanceInputs::fromModel(model);
+    BalanceWorkspace ws = plan.makeWorkspace();
+    BalanceValues values = plan.makeValues();
+    plan.solve(inputs, ws, values);
+    if (values.status == NumericStatus::Singular) {
+        sheet.conditioning = values.conditioning;
+        reportSingular(model, plan, values, ws, sheet);
+        sheet.status = BalanceStatus::Invalid;
+        return sheet;
+    }
+    finishSolvedSheet(model, plan, values, sheet);
     return sheet;
 }
 

@@ -30,4 +30,11 @@ inline constexpr double kIllConditioned = 1e-8;
 
 BalanceSheet solveBalance(const Model& model);
 
+class BalancePlan;
+struct BalanceValues;
+// The sheet of a numeric step's solved values (status Solved): derived outputs, trophic
+// levels and every check. solveBalance ends with it; tests use it to hold another
+// numeric step (the dense reference) to the same checks.
+BalanceSheet balanceSheetFromValues(const Model& model, const BalancePlan& plan, const BalanceValues& values);
+
 }  // namespace tl

@@ -4,116 +4,206 @@
 #include <cmath>
 #include <limits>
 
-namespace tl {
+#include <Eigen/SparseLU>
 
-TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal)
+namespace tl {
+namespace {
+
+// Feeding loops up to this size are solved dense, larger ones with a sparse LU.
+constexpr Eigen::Index kDenseBlock = 48;
+
+// One feeding loop (strongly connected component) of consumers, all of whose outside
+// prey already have their level: TL_j - sum_{i in loop} DC'_ij TL_i = 1 + sum_{i outside} DC'_ij TL_i.
+void solveLoop(const SparseColumns& share, const Eigen::Index* members, Eigen::Index k, std::vector<int>& local,
+               Eigen::VectorXd& tl)
 {
-    const Eigen::Index n = diet.rows();
+    for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(members[r])] = static_cast<int>(r);
+    std::vector<Eigen::Triplet<double, int>> entries;
+    Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
+    for (Eigen::Index r = 0; r < k; ++r) {
+        entries.emplace_back(static_cast<int>(r), static_cast<int>(r), 1.0);
+        for (SparseColumns::InnerIterator it(share, members[r]); it; ++it) {
+            const int c = local[static_cast<std::size_t>(it.index())];
+            if (c >= 0) entries.emplace_back(static_cast<int>(r), c, -it.value());
+            else b[r] += it.value() * tl[it.index()];
+        }
+    }
+    // Nonsingular: every chain reaches a fixed node. Small loops dense, large sparse.
+    Eigen::VectorXd levels;
+    if (k <= kDenseBlock) {
+        Eigen::MatrixXd a = Eigen::MatrixXd::Zero(k, k);
+        for (const auto& e : entries) a(e.row(), e.col()) += e.value();
+        levels = a.partialPivLu().solve(b);
+    } else {
+        SparseColumns a(k, k);
+        a.setFromTriplets(entries.begin(), entries.end());
+        Eigen::SparseLU<SparseColumns, Eigen::COLAMDOrdering<int>> lu(a);
+        levels = lu.solve(b);
+    }
+    for (Eigen::Index r = 0; r < k; ++r) {
+        tl[members[r]] = levels[r];
+        local[static_cast<std::size_t>(members[r])] = -1;
+    }
+}
+
+// share: renormalised diet, fixed columns (basal, no modelled prey) empty; out holds
+// TL 1 or 2 for fixed nodes. Tarjan's algorithm (without recursion) over the consumers
+// emits each feeding loop after everything its members eat, so one pass decides,
+// loop by loop:
+//   grounded  = some member eats a fixed or grounded node outside the loop (a food
+//               chain reaches a producer, pool or import-only consumer);
+//   undefined = not grounded, or some member eats an undefined node outside the loop;
+// and solves the levels of grounded, defined loops.
+void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, TrophicLevels& out)
+{
+    const Eigen::Index n = share.cols();
+    const auto sn = static_cast<std::size_t>(n);
+    const int* outer = share.outerIndexPtr();
+    const int* inner = share.innerIndexPtr();
+    std::vector<int> index(sn, -1), low(sn, 0), local(sn, -1);
+    std::vector<char> onStack(sn, 0), grounded(sn, 0), undefined(sn, 0);
+    for (std::size_t j = 0; j < sn; ++j) grounded[j] = fixed[j];
+    std::vector<Eigen::Index> stack;
+    std::vector<std::pair<Eigen::Index, int>> calls;  // node, next entry of its column
+    int counter = 0;
+    for (Eigen::Index root = 0; root < n; ++root) {
+        if (fixed[static_cast<std::size_t>(root)] || index[static_cast<std::size_t>(root)] >= 0) continue;
+        calls.emplace_back(root, outer[root]);
+        while (!calls.empty()) {
+            const Eigen::Index v = calls.back().first;
+            int& next = calls.back().second;
+            const auto sv = static_cast<std::size_t>(v);
+            if (index[sv] < 0) {  // first visit
+                index[sv] = low[sv] = counter++;
+                stack.push_back(v);
+                onStack[sv] = 1;
+            }
+            bool descended = false;
+            while (next < outer[v + 1]) {
+                const auto sw = static_cast<std::size_t>(inner[next++]);
+                if (fixed[sw]) continue;
+                if (index[sw] < 0) {
+                    calls.emplace_back(static_cast<Eigen::Index>(sw), outer[sw]);
+                    descended = true;
+                    break;
+                }
+                if (onStack[sw]) low[sv] = std::min(low[sv], index[sw]);
+            }
+            if (descended) continue;
+            calls.pop_back();
+            if (!calls.empty()) {
+                const auto parent = static_cast<std::size_t>(calls.back().first);
+                low[parent] = std::min(low[parent], low[sv]);
+            }
+            if (low[sv] != index[sv]) continue;
+            // v roots a loop: the members are stack[first..end).
+            std::size_t first = stack.size();
+            do --first;
+            while (stack[first] != v);
+            const Eigen::Index* members = stack.data() + first;
+            const auto k = static_cast<Eigen::Index>(stack.size() - first);
+            for (Eigen::Index r = 0; r < k; ++r) onStack[static_cast<std::size_t>(members[r])] = 0;
+            bool isGrounded = false, eatsUndefined = false;
+            for (Eigen::Index r = 0; r < k; ++r)
+                for (int e = outer[members[r]]; e < outer[members[r] + 1]; ++e) {
+                    // Members are neither grounded nor undefined yet; outside prey are final.
+                    const auto prey = static_cast<std::size_t>(inner[e]);
+                    isGrounded = isGrounded || grounded[prey];
+                    eatsUndefined = eatsUndefined || undefined[prey];
+                }
+            const bool isUndefined = !isGrounded || eatsUndefined;
+            for (Eigen::Index r = 0; r < k; ++r) {
+                const auto s = static_cast<std::size_t>(members[r]);
+                grounded[s] = isGrounded;
+                undefined[s] = isUndefined;
+                if (isUndefined) out.note[s] = TrophicLevelNote::Undefined;
+            }
+            if (!isUndefined) {
+                if (k == 1) {  // no loop, or cannibalism only
+                    const Eigen::Index j = members[0];
+                    double rhs = 1.0, self = 0.0;
+                    for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+                        if (it.index() == j) self += it.value();
+                        else rhs += it.value() * out.tl[it.index()];
+                    }
+                    out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
+                } else {
+                    solveLoop(share, members, k, local, out.tl);
+                }
+            }
+            stack.resize(first);
+        }
+    }
+}
+
+}  // namespace
+
+TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal)
+{
+    const Eigen::Index n = diet.cols();
+    const auto sn = static_cast<std::size_t>(n);
     TrophicLevels out;
     out.tl.setConstant(n, std::numeric_limits<double>::quiet_NaN());
     out.oi.setConstant(n, std::numeric_limits<double>::quiet_NaN());
-    out.note.assign(static_cast<std::size_t>(n), TrophicLevelNote::Computed);
+    out.note.assign(sn, TrophicLevelNote::Computed);
 
     // Renormalised diet; "fixed" nodes have a known level (basal 1, no prey 2).
-    Eigen::MatrixXd share = Eigen::MatrixXd::Zero(n, n);
-    std::vector<bool> fixed(static_cast<std::size_t>(n), false);
+    SparseColumns share(n, n);
+    share.reserve(diet.nonZeros());
+    std::vector<bool> fixed(sn, false);
     for (Eigen::Index j = 0; j < n; ++j) {
         const auto s = static_cast<std::size_t>(j);
-        if (basal[s]) {
-            out.note[s] = TrophicLevelNote::Basal;
-            out.tl[j] = 1.0;
+        share.startVec(j);
+        double sum = 0.0;
+        for (SparseColumns::InnerIterator it(diet, j); it; ++it) sum += it.value();
+        if (basal[s] || !(sum > 0.0)) {
+            out.note[s] = basal[s] ? TrophicLevelNote::Basal : TrophicLevelNote::NoModelledPrey;
+            out.tl[j] = basal[s] ? 1.0 : 2.0;
             out.oi[j] = 0.0;
             fixed[s] = true;
             continue;
         }
-        const double sum = diet.col(j).sum();
-        if (!(sum > 0.0)) {
-            out.note[s] = TrophicLevelNote::NoModelledPrey;
-            out.tl[j] = 2.0;
-            out.oi[j] = 0.0;
-            fixed[s] = true;
-            continue;
-        }
-        share.col(j) = diet.col(j) / sum;
+        for (SparseColumns::InnerIterator it(diet, j); it; ++it)
+            if (it.value() != 0.0) share.insertBack(it.index(), j) = it.value() / sum;
     }
+    share.finalize();
 
-    // grounded: some food chain from the node reaches a fixed node.
-    std::vector<bool> grounded = fixed;
-    for (bool changed = true; changed;) {
-        changed = false;
-        for (Eigen::Index j = 0; j < n; ++j) {
-            if (grounded[static_cast<std::size_t>(j)]) continue;
-            for (Eigen::Index i = 0; i < n; ++i)
-                if (share(i, j) != 0.0 && grounded[static_cast<std::size_t>(i)]) {
-                    grounded[static_cast<std::size_t>(j)] = changed = true;
-                    break;
-                }
-        }
-    }
-    // undefined: some food chain from the node reaches an ungrounded node.
-    std::vector<bool> undefined(static_cast<std::size_t>(n));
-    for (Eigen::Index j = 0; j < n; ++j) undefined[static_cast<std::size_t>(j)] = !grounded[static_cast<std::size_t>(j)];
-    for (bool changed = true; changed;) {
-        changed = false;
-        for (Eigen::Index j = 0; j < n; ++j) {
-            if (undefined[static_cast<std::size_t>(j)] || fixed[static_cast<std::size_t>(j)]) continue;
-            for (Eigen::Index i = 0; i < n; ++i)
-                if (share(i, j) != 0.0 && undefined[static_cast<std::size_t>(i)]) {
-                    undefined[static_cast<std::size_t>(j)] = changed = true;
-                    break;
-                }
-        }
-    }
-
-    // Solve (I - S^T) TL = 1 + sum_fixed DC'_ij TL_i over the remaining consumers.
-    std::vector<Eigen::Index> unknownIndex(static_cast<std::size_t>(n), -1);
-    std::vector<Eigen::Index> members;
+    levelsByLoops(share, fixed, out);
     for (Eigen::Index j = 0; j < n; ++j) {
         const auto s = static_cast<std::size_t>(j);
-        if (undefined[s]) out.note[s] = TrophicLevelNote::Undefined;
-        else if (!fixed[s]) {
-            unknownIndex[s] = static_cast<Eigen::Index>(members.size());
-            members.push_back(j);
+        if (fixed[s] || out.note[s] == TrophicLevelNote::Undefined) continue;
+        double oi = 0.0;
+        for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+            const double d = out.tl[it.index()] - (out.tl[j] - 1.0);
+            oi += it.value() * d * d;
         }
-    }
-    const auto k = static_cast<Eigen::Index>(members.size());
-    if (k > 0) {
-        Eigen::MatrixXd a = Eigen::MatrixXd::Identity(k, k);
-        Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
-        for (Eigen::Index r = 0; r < k; ++r) {
-            const Eigen::Index j = members[static_cast<std::size_t>(r)];
-            for (Eigen::Index i = 0; i < n; ++i) {
-                const double w = share(i, j);
-                if (w == 0.0) continue;
-                const Eigen::Index c = unknownIndex[static_cast<std::size_t>(i)];
-                if (c >= 0) a(r, c) -= w;
-                else b[r] += w * out.tl[i];  // a fixed prey (undefined prey excluded above)
-            }
-        }
-        const Eigen::VectorXd levels = a.partialPivLu().solve(b);  // nonsingular: every chain reaches a fixed node
-        for (Eigen::Index r = 0; r < k; ++r) out.tl[members[static_cast<std::size_t>(r)]] = levels[r];
-        for (Eigen::Index j : members) {
-            double oi = 0.0;
-            for (Eigen::Index i = 0; i < n; ++i) {
-                const double w = share(i, j);
-                if (w != 0.0) oi += w * std::pow(out.tl[i] - (out.tl[j] - 1.0), 2);
-            }
-            out.oi[j] = oi;
-        }
+        out.oi[j] = oi;
     }
     return out;
 }
 
+TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal)
+{
+    return computeTrophicLevels(SparseColumns(diet.sparseView(1.0, 0.0)), basal);
+}
+
 TrophicLevels computeTrophicLevels(const Model& model)
 {
-    const auto n = static_cast<Eigen::Index>(model.size());
-    Eigen::MatrixXd diet(n, n);
-    std::vector<bool> basal(model.size());
-    for (std::size_t j = 0; j < model.size(); ++j) {
+    const std::size_t n = model.size();
+    std::vector<bool> basal(n);
+    std::size_t entries = 0;
+    for (std::size_t j = 0; j < n; ++j) {
         basal[j] = model.compartment(j).kind != CompartmentKind::Consumer;
-        for (std::size_t i = 0; i < model.size(); ++i)
-            diet(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = model.diet(j, i);
+        entries += model.dietRow(j).size();
     }
+    SparseColumns diet(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(n));
+    diet.reserve(static_cast<Eigen::Index>(entries));
+    for (std::size_t j = 0; j < n; ++j) {  // column j = predator j, prey in increasing order
+        diet.startVec(static_cast<Eigen::Index>(j));
+        for (const auto& [prey, dc] : model.dietRow(j))
+            diet.insertBack(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(j)) = dc;
+    }
+    diet.finalize();
     return computeTrophicLevels(diet, basal);
 }
 

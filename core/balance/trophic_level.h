@@ -5,8 +5,11 @@
 //   OI_j = sum_i (TL_i - (TL_j - 1))^2 DC'_ij   (omnivory index, Pauly et al. 1993),
 //
 // with DC'_ij = DC_ij / sum_k DC_kj the diet renormalised without `import`. The
-// consumers' levels solve one linear system (I - DC'^T) TL = 1 + basal terms (Eigen
-// LU), not a fixed-point iteration. This is the same quantity as networkx's
+// consumers' levels solve one linear system (I - DC'^T) TL = 1 + basal terms, not a
+// fixed-point iteration: its blocks are the strongly connected components of the
+// feeding graph (Tarjan 1972 SIAM J Comput 1:146), solved prey before predator, so a
+// web without loops is plain substitution and each feeding loop a small dense LU.
+// The cost is linear in the diet entries plus the cube of the largest loop. This is the same quantity as networkx's
 // trophic_levels on the weighted diet graph (prey -> predator), producers and pools
 // being the nodes without food.
 //
@@ -23,6 +26,7 @@
 
 #include <Eigen/Dense>
 
+#include "core/balance/sparse_columns.h"
 #include "core/model/model.h"
 
 namespace tl {
@@ -38,6 +42,7 @@ struct TrophicLevels {
 // diet(prey, predator) = fraction of prey in predator's diet, import excluded (columns
 // are renormalised here, so flows work as well as fractions). basal[i] marks
 // producers and detritus pools.
+TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal);
 TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal);
 
 // From a model's diet matrix; producers and detritus pools are basal.

@@ -14,11 +14,32 @@ constexpr double kNegligibleShare = 1e-12;
 
 // A consumer takes food from other nodes; a node that takes nothing from others starts
 // chains at level I (as its trophic level is fixed at 1).
-bool isFed(const FlowNetwork& net, std::size_t j)
+bool isFed(const FlowNetwork& net, const Eigen::MatrixXd& flows, std::size_t j)
 {
     if (net.roles[j] != NodeRole::Consumer) return false;
     const auto J = static_cast<Eigen::Index>(j);
-    return net.flows.col(J).sum() - net.flows(J, J) > 0.0;
+    return flows.col(J).sum() - flows(J, J) > 0.0;
+}
+
+// The network's flows with the feeding cycles among living compartments removed.
+Eigen::MatrixXd withoutFeedingCycles(const FlowNetwork& net, FeedingCycleRemoval& removal)
+{
+    std::vector<Eigen::Index> living;
+    for (std::size_t i = 0; i < net.size(); ++i)
+        if (net.isLiving(i)) living.push_back(static_cast<Eigen::Index>(i));
+    const auto L = static_cast<Eigen::Index>(living.size());
+    Eigen::MatrixXd block(L, L);
+    Eigen::VectorXd inputs(L);
+    for (Eigen::Index r = 0; r < L; ++r) {
+        inputs[r] = net.imports[static_cast<std::size_t>(living[static_cast<std::size_t>(r)])];
+        for (Eigen::Index c = 0; c < L; ++c) block(r, c) = net.flows(living[static_cast<std::size_t>(r)], living[static_cast<std::size_t>(c)]);
+    }
+    removal = removeFeedingCycles(block, inputs);
+    Eigen::MatrixXd flows = net.flows;
+    for (Eigen::Index r = 0; r < L; ++r)
+        for (Eigen::Index c = 0; c < L; ++c)
+            flows(living[static_cast<std::size_t>(r)], living[static_cast<std::size_t>(c)]) = removal.residual(r, c);
+    return flows;
 }
 
 // Shares s_jk for chains seeded at level I where `seed` is 1 and at level II where
@@ -98,19 +119,30 @@ ChainDecomposition summarise(const FlowNetwork& net, const std::vector<bool>& fe
 
 }  // namespace
 
-LevelDecomposition decomposeLevels(const FlowNetwork& net, int maxLevels)
+Eigen::VectorXd LevelDecomposition::effectiveTrophicLevels() const
+{
+    const Eigen::MatrixXd& s = combined.share;
+    Eigen::VectorXd etl = Eigen::VectorXd::Zero(s.rows());
+    for (Eigen::Index k = 0; k < s.cols(); ++k) etl += static_cast<double>(k + 1) * s.col(k);
+    return etl;
+}
+
+LevelDecomposition decomposeLevels(const FlowNetwork& net, int maxLevels, FeedingCycles cycles)
 {
     maxLevels = std::max(maxLevels, 2);
     const std::size_t n = net.size();
     const auto N = static_cast<Eigen::Index>(n);
+    LevelDecomposition out;
+    out.cycles = cycles;
+    const Eigen::MatrixXd flows = cycles == FeedingCycles::Removed ? withoutFeedingCycles(net, out.cycleRemoval) : net.flows;
     std::vector<bool> fed(n);
     Eigen::MatrixXd feeding = Eigen::MatrixXd::Zero(N, N);  // a_ij = F_ij / sum_k F_kj for fed j
     Eigen::VectorXd producerSeed = Eigen::VectorXd::Zero(N), detritusSeed = Eigen::VectorXd::Zero(N);
     Eigen::VectorXd importFedSeed = Eigen::VectorXd::Zero(N), none = Eigen::VectorXd::Zero(N);
     for (std::size_t j = 0; j < n; ++j) {
         const auto J = static_cast<Eigen::Index>(j);
-        fed[j] = isFed(net, j);
-        if (fed[j]) feeding.col(J) = net.flows.col(J) / net.flows.col(J).sum();
+        fed[j] = isFed(net, flows, j);
+        if (fed[j]) feeding.col(J) = flows.col(J) / flows.col(J).sum();
         else if (net.roles[j] == NodeRole::Detritus) detritusSeed(J) = 1.0;
         else if (net.roles[j] == NodeRole::Producer) producerSeed(J) = 1.0;
         else importFedSeed(J) = 1.0;  // imported food counts as level-I food, as in core/balance/trophic_level.h
@@ -127,7 +159,6 @@ LevelDecomposition decomposeLevels(const FlowNetwork& net, int maxLevels)
     pad(fromDetritus);
     const Eigen::MatrixXd combined = fromProducers + fromDetritus;
 
-    LevelDecomposition out;
     out.fromProducers = summarise(net, fed, std::move(fromProducers), levelCount);
     out.fromDetritus = summarise(net, fed, std::move(fromDetritus), levelCount);
     out.combined = summarise(net, fed, combined, levelCount);

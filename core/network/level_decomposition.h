@@ -11,8 +11,15 @@
 // A consumer that eats nothing from the modelled nodes (imported food only) sits at
 // level II, its food counted as level-I food (as core/balance/trophic_level.h does);
 // it is counted with the producer-based chains.
-// Chains through feeding cycles are infinite; the series is cut once less than 1e-12 of
-// every node is left and the remainder is put in the last level kept.
+// Feeding cycles among living compartments are removed first (cycle analysis, Ulanowicz
+// 1983; feeding_cycles.h), as the published aggregation does: the shares a_ij come from
+// the residual flows, so every chain is finite and a 5 % cannibalism no longer spreads
+// a compartment over a dozen levels. Keeping the cycles is a labelled option
+// (FeedingCycles::Kept, this project's earlier convention): chains through cycles are
+// then infinite, the series is cut once less than 1e-12 of every node is left and the
+// remainder is put in the last level kept. Flows passed up, catch and exports are the
+// network's own (cycled flow included) in both cases.
+// Effective trophic level of the aggregation: ETL_j = sum_k k s_jk (Ulanowicz 1995).
 // With s, per level k (sums over nodes j):
 //   throughput_k = sum_j s_jk T_j, likewise biomass, production and catch,
 //   passedUp_k   = sum_{i, consumer j} s_ik F_ij       (food reaching level k+1),
@@ -30,9 +37,16 @@
 
 #include <Eigen/Core>
 
+#include "core/network/feeding_cycles.h"
 #include "core/network/flow_network.h"
 
 namespace tl {
+
+// How the aggregation treats feeding cycles among living compartments.
+enum class FeedingCycles {
+    Removed,  // removed first (Ulanowicz 1983, 1995): the published method, the default
+    Kept      // kept: chains through cycles followed to their end (project's own option)
+};
 
 struct TrophicLevelBin {
     int level = 1;  // 1 = I
@@ -49,11 +63,16 @@ struct ChainDecomposition {
 
 struct LevelDecomposition {
     ChainDecomposition fromProducers, fromDetritus, combined;
+    FeedingCycles cycles = FeedingCycles::Removed;
+    FeedingCycleRemoval cycleRemoval;  // what was removed (empty when cycles are kept)
+    // ETL_j = sum_k k s_jk over the combined chains (1 for producers and detritus).
+    Eigen::VectorXd effectiveTrophicLevels() const;
     // Stack a level bar by node: combined.share(j, k-1) * throughput_j (or biomass_j ...).
     int levelCount() const { return static_cast<int>(combined.levels.size()); }
 };
 
 // maxLevels bounds the series (deep or cyclic webs); the remainder lands in the last level.
-LevelDecomposition decomposeLevels(const FlowNetwork& network, int maxLevels = 30);
+LevelDecomposition decomposeLevels(const FlowNetwork& network, int maxLevels = 30,
+                                   FeedingCycles cycles = FeedingCycles::Removed);
 
 }  // namespace tl

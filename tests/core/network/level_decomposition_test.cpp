@@ -89,16 +89,18 @@ TEST(LevelDecomposition, OmnivoreSplitsOverTwoLevels)
     EXPECT_DOUBLE_EQ(tl.tl[2], 2.5);
 }
 
-// Cannibalism makes chains of every length: the series is cut and its remainder kept,
-// so the shares still sum to 1 and their mean is still the trophic level.
-TEST(LevelDecomposition, FeedingCycleKeepsSharesAndMeanLevel)
+// With feeding cycles kept (the labelled option), cannibalism makes chains of every
+// length: the series is cut and its remainder kept, so the shares still sum to 1 and
+// their mean is still the trophic level.
+TEST(LevelDecomposition, KeptFeedingCycleKeepsSharesAndMeanLevel)
 {
     const Model model = testing::richWeb();
     const BalanceSheet sheet = solveBalance(model);
     ASSERT_NE(sheet.status, BalanceStatus::Invalid);
     const FlowNetwork net = buildFlowNetwork(model, sheet);
     const FlowTrophicLevels tl = flowTrophicLevels(net);
-    const LevelDecomposition shallow = decomposeLevels(net, 6), d = decomposeLevels(net);
+    const LevelDecomposition shallow = decomposeLevels(net, 6, FeedingCycles::Kept),
+                             d = decomposeLevels(net, 30, FeedingCycles::Kept);
     ASSERT_EQ(shallow.levelCount(), 6);
     for (std::size_t j = 0; j < net.size(); ++j) {
         const Eigen::Index J = static_cast<Eigen::Index>(j);
@@ -116,6 +118,31 @@ TEST(LevelDecomposition, FeedingCycleKeepsSharesAndMeanLevel)
     // Producer- plus detritus-based shares make the combined ones.
     EXPECT_LT((d.fromProducers.share + d.fromDetritus.share - d.combined.share).cwiseAbs().maxCoeff(), 1e-15);
     // Throughput over levels adds up to the throughflow of all nodes.
+    double total = 0, perLevel = 0;
+    for (std::size_t j = 0; j < net.size(); ++j) total += net.throughflow(j);
+    for (const auto& bin : d.combined.levels) perLevel += bin.throughput;
+    EXPECT_NEAR(perLevel, total, 1e-9 * total);
+}
+
+// With feeding cycles removed first (the default, the published method), chains are
+// finite: every consumer's shares sum to 1 within a few levels, no cut is needed, the
+// mean level is the aggregation's ETL, and throughput over levels still adds up.
+TEST(LevelDecomposition, RemovedFeedingCyclesGiveFiniteChains)
+{
+    const Model model = testing::richWeb();
+    const BalanceSheet sheet = solveBalance(model);
+    ASSERT_NE(sheet.status, BalanceStatus::Invalid);
+    const FlowNetwork net = buildFlowNetwork(model, sheet);
+    const LevelDecomposition d = decomposeLevels(net);
+    ASSERT_EQ(d.cycles, FeedingCycles::Removed);
+    EXPECT_GT(d.cycleRemoval.cycles, 0u) << "the rich web has cannibalism";
+    EXPECT_LT(d.levelCount(), 8);
+    const Eigen::VectorXd etl = d.effectiveTrophicLevels();
+    for (std::size_t j = 0; j < net.size(); ++j) {
+        const Eigen::Index J = static_cast<Eigen::Index>(j);
+        EXPECT_NEAR(d.combined.share.row(J).sum(), 1.0, 1e-12) << net.names[j];
+        EXPECT_GE(etl[J], 1.0) << net.names[j];
+    }
     double total = 0, perLevel = 0;
     for (std::size_t j = 0; j < net.size(); ++j) total += net.throughflow(j);
     for (const auto& bin : d.combined.levels) perLevel += bin.throughput;
