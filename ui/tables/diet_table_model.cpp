@@ -46,12 +46,7 @@ QStringList DietTableModel::columnKeys(const tl::Model& m) const
     return keys;
 }
 
-int DietTableModel::rowOfPredator(std::size_t compartment) const
-{
-    for (std::size_t r = 0; r < predators_.size(); ++r)
-        if (predators_[r] == compartment) return int(r);
-    return -1;
-}
+int DietTableModel::rowOfPredator(std::size_t compartment) const { return rowOf(predators_, compartment); }
 
 std::vector<bool> DietTableModel::usedPrey() const
 {

@@ -43,22 +43,13 @@ QStringList HarvestTableModel::columnKeys(const tl::Model& m) const
     return keys;
 }
 
-int HarvestTableModel::rowOfCompartment(std::size_t compartment) const
-{
-    for (std::size_t r = 0; r < rows_.size(); ++r)
-        if (rows_[r] == compartment) return int(r);
-    return -1;
-}
+int HarvestTableModel::rowOfCompartment(std::size_t compartment) const { return rowOf(rows_, compartment); }
 
 QVariant HarvestTableModel::headerData(int section, Qt::Orientation orientation, int role) const
 {
     const tl::Model& m = model();
-    if (orientation == Qt::Vertical) {
-        if (section < 0 || section >= int(rows_.size())) return {};
-        if (role == Qt::DisplayRole) return qs(m.compartment(rows_[std::size_t(section)]).name);
-        if (role == Qt::DecorationRole) return kindIcon(m.compartment(rows_[std::size_t(section)]).kind);
-        return {};
-    }
+    if (orientation == Qt::Vertical)
+        return section < 0 || section >= int(rows_.size()) ? QVariant() : compartmentHeader(rows_[std::size_t(section)], role);
     const int f = fleetOf(section);
     if (f >= int(m.fleets().size())) return {};
     const QString fleet = qs(m.fleet(std::size_t(f)).name);

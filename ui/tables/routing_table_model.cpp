@@ -44,22 +44,13 @@ QStringList RoutingTableModel::columnKeys(const tl::Model& m) const
     return keys;
 }
 
-int RoutingTableModel::rowOfCompartment(std::size_t compartment) const
-{
-    for (std::size_t r = 0; r < rows_.size(); ++r)
-        if (rows_[r] == compartment) return int(r);
-    return -1;
-}
+int RoutingTableModel::rowOfCompartment(std::size_t compartment) const { return rowOf(rows_, compartment); }
 
 QVariant RoutingTableModel::headerData(int section, Qt::Orientation orientation, int role) const
 {
     const tl::Model& m = model();
-    if (orientation == Qt::Vertical) {
-        if (section < 0 || section >= int(rows_.size())) return {};
-        if (role == Qt::DisplayRole) return qs(m.compartment(rows_[std::size_t(section)]).name);
-        if (role == Qt::DecorationRole) return kindIcon(m.compartment(rows_[std::size_t(section)]).kind);
-        return {};
-    }
+    if (orientation == Qt::Vertical)
+        return section < 0 || section >= int(rows_.size()) ? QVariant() : compartmentHeader(rows_[std::size_t(section)], role);
     if (section == sumColumn()) return role == Qt::DisplayRole ? QVariant(tr("Row sum")) : QVariant();
     if (section < 0 || section >= int(pools_.size())) return {};
     if (role == Qt::DisplayRole) return qs(m.compartment(pools_[std::size_t(section)]).name);

@@ -88,6 +88,10 @@ protected:
 
     const tl::Model& model() const;
     const tl::BalanceSheet& sheet() const { return sheet_; }
+    // For tables whose rows are compartments: the row header of compartment `c` (its
+    // name, with its kind's icon), and the row showing `c` in `rows` (or -1).
+    QVariant compartmentHeader(std::size_t c, int role) const;
+    static int rowOf(const std::vector<std::size_t>& rows, std::size_t c);
     // Re-reads the row and column identity (call after the subclass changes its layout).
     void refreshFromDocument();
 

@@ -7,22 +7,12 @@
 #include "core/balance/scenario_checks.h"
 #include "core/balance/solver.h"
 #include "core/model/problem_codes.h"
+#include "tests/support/small_models.h"
 
 namespace tl {
 namespace {
 
-Compartment make(std::string name, CompartmentKind kind, std::optional<double> b, std::optional<double> pb,
-                 std::optional<double> qb, std::optional<double> ee = std::nullopt)
-{
-    Compartment c;
-    c.name = std::move(name);
-    c.kind = kind;
-    c.value(Param::Biomass) = b;
-    c.value(Param::PB) = pb;
-    c.value(Param::QB) = qb;
-    c.value(Param::EE) = ee;
-    return c;
-}
+using testing::makeCompartment;
 
 std::size_t countCode(const Problems& problems, std::string_view code)
 {
@@ -35,8 +25,8 @@ std::size_t countCode(const Problems& problems, std::string_view code)
 TEST(ScenarioChecks, NoDetritusPoolIsReportedOnce)
 {
     Model m;
-    m.addCompartment(make("Algae", CompartmentKind::Producer, 10.0, 50.0, std::nullopt));
-    m.addCompartment(make("Grazer", CompartmentKind::Consumer, 2.0, 5.0, 20.0));
+    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer, 10.0, 50.0, std::nullopt));
+    m.addCompartment(makeCompartment("Grazer", CompartmentKind::Consumer, 2.0, 5.0, 20.0));
     m.setDiet(1, 0, 1.0);
     const BalanceSheet sheet = solveBalance(m);
     ASSERT_EQ(countCode(sheet.problems, code::kNoDetritusPool), 1u) << "the solver reports it too";
@@ -49,8 +39,8 @@ TEST(ScenarioChecks, NoDetritusPoolIsReportedOnce)
 TEST(ScenarioChecks, SolverProblemsThatValidationDidNotFindAreKept)
 {
     Model m;
-    m.addCompartment(make("Algae", CompartmentKind::Producer, 100.0, 10.0, std::nullopt));
-    m.addCompartment(make("Detritus", CompartmentKind::Detritus, std::nullopt, std::nullopt, std::nullopt));
+    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer, 100.0, 10.0, std::nullopt));
+    m.addCompartment(makeCompartment("Detritus", CompartmentKind::Detritus, std::nullopt, std::nullopt, std::nullopt));
     m.compartment(0).value(Param::NetEmigration) = -1500;  // immigration beyond use: EE < 0
     const BalanceSheet sheet = solveBalance(m);
     const Problems checks = scenarioChecks(m, sheet);

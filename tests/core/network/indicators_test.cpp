@@ -56,19 +56,7 @@ TEST(Indicators, NoCatchNeedsNoPrimaryProduction)
 // convention), here one consumer with OI = 0.25 (TL 2.5, prey at 1 and 2).
 TEST(Indicators, SystemOmnivoryOfAnOmnivore)
 {
-    FlowNetwork net;
-    net.names = {"Plants", "Herbivore", "Omnivore"};
-    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer};
-    net.stocks = {10, 4, 2};
-    net.imports = {100, 0, 0};
-    net.foodImport = {0, 0, 0};
-    net.exports = {0, 0, 0.5};
-    net.respiration = {78, 16, 3.5};
-    net.production = {100, 2, 0.5};
-    net.flows = Eigen::MatrixXd::Zero(3, 3);
-    net.flows(0, 1) = 20;
-    net.flows(0, 2) = 2;
-    net.flows(1, 2) = 2;
+    const FlowNetwork net = testing::omnivoreWeb(78, 16);
     const SystemIndicators s = systemIndicators(net);
     // OI = 0.5 (1 - 1.5)^2 + 0.5 (2 - 1.5)^2 = 0.25 for the omnivore (intake 4), 0 for the
     // herbivore (intake 20): SOI = 4 x 0.25 / 24.
