@@ -130,34 +130,54 @@ BalanceInputs BalanceInputs::fromModel(const Model& model)
     // sends everything to the first pool.
     in.routing.resize(en, en);
     in.routing.reserve(static_cast<Eigen::Index>(n));
+    std::vector<char> explicitRouting(n, 0);
+    for (std::size_t i = 0; i < n; ++i) explicitRouting[i] = model.compartment(i).isLiving() && model.hasExplicitRouting(i);
     for (std::size_t d = 0; d < n; ++d) {
         in.routing.startVec(static_cast<Eigen::Index>(d));
         if (model.compartment(d).kind != CompartmentKind::Detritus) continue;
         for (std::size_t i = 0; i < n; ++i) {
             if (!model.compartment(i).isLiving()) continue;
-            const double share = model.hasExplicitRouting(i) ? model.routing(i, d) : (d == pools.front() ? 1.0 : 0.0);
+            const double share = explicitRouting[i] ? model.routing(i, d) : (d == pools.front() ? 1.0 : 0.0);
             if (share != 0.0) in.routing.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = share;
         }
     }
     in.routing.finalize();
     // Catch and dead discards; dead discards go to the fleet's discard pool, else to
     // the first pool.
-    std::vector<Eigen::Triplet<double, int>> discardEntries;
-    for (const Fleet& fleet : model.fleets()) {
-        std::optional<std::size_t> pool = fleet.discardPool;
-        if (!pool || *pool >= n || model.compartment(*pool).kind != CompartmentKind::Detritus)
-            pool = pools.empty() ? std::nullopt : std::optional<std::size_t>(pools.front());
+    std::vector<std::size_t> discardPool(model.fleets().size(), n);  // n: nowhere
+    for (std::size_t f = 0; f < model.fleets().size(); ++f) {
+        const Fleet& fleet = model.fleet(f);
+        const std::optional<std::size_t> own = fleet.discardPool;
+        if (own && *own < n && model.compartment(*own).kind == CompartmentKind::Detritus) discardPool[f] = *own;
+        else if (!pools.empty()) discardPool[f] = pools.front();
         for (std::size_t i = 0; i < n; ++i) {
             const double dead = fleet.discards[i] * (1.0 - fleet.discardSurvival[i]);
             in.catchTotal[static_cast<Eigen::Index>(i)] += fleet.landings[i];  // landings, for now
             in.deadDiscards[static_cast<Eigen::Index>(i)] += dead;
-            if (pool && dead != 0.0) discardEntries.emplace_back(static_cast<int>(i), static_cast<int>(*pool), dead);
         }
     }
     in.catchTotal += in.deadDiscards;  // Y = landings + dead discards, as Model::totalCatch sums them
+    // Column d = pool d: sources ascending, each fleet's dead discards summed in fleet order.
     in.discardsToPool.resize(en, en);
-    in.discardsToPool.setFromTriplets(discardEntries.begin(), discardEntries.end());  // duplicates summed
-    in.discardsToPool.makeCompressed();
+    std::size_t discardEntries = 0;
+    for (std::size_t f = 0; f < model.fleets().size(); ++f)
+        for (std::size_t i = 0; i < n; ++i) discardEntries += model.fleet(f).discards[i] != 0.0;
+    in.discardsToPool.reserve(static_cast<Eigen::Index>(discardEntries));
+    for (std::size_t d = 0; d < n; ++d) {
+        in.discardsToPool.startVec(static_cast<Eigen::Index>(d));
+        if (model.compartment(d).kind != CompartmentKind::Detritus || discardEntries == 0) continue;
+        for (std::size_t i = 0; i < n; ++i) {
+            double dead = 0.0;
+            bool any = false;
+            for (std::size_t f = 0; f < model.fleets().size(); ++f)
+                if (discardPool[f] == d && model.fleet(f).discards[i] != 0.0) {
+                    dead += model.fleet(f).discards[i] * (1.0 - model.fleet(f).discardSurvival[i]);
+                    any = true;
+                }
+            if (any && dead != 0.0) in.discardsToPool.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = dead;
+        }
+    }
+    in.discardsToPool.finalize();
     return in;
 }
 
@@ -170,6 +190,8 @@ BalancePlan BalancePlan::build(const Model& model)
     plan.standIn_.assign(n, PqStandIn::None);
     plan.rowOf_.assign(n, -1);
     plan.colOf_.assign(n, -1);
+    for (std::vector<std::size_t>* v : {&plan.rowCompartment_, &plan.colCompartment_, &plan.living_})
+        v->reserve(n);  // one allocation each: the balance sheet of a small model is mostly bookkeeping
 
     for (std::size_t i = 0; i < n; ++i) {
         const Compartment& c = model.compartment(i);
@@ -258,6 +280,7 @@ BalancePlan BalancePlan::build(const Model& model)
     // consumption of a coupled predator).
     plan.reducedColOf_.assign(n, -1);
     plan.reducedRowOf_.assign(n, -1);
+    plan.private_.reserve(plan.colCompartment_.size());
     std::vector<bool> entered(n, false);
     for (std::size_t i : plan.living_) {
         const Unknown u = plan.unknown_[i];

@@ -13,6 +13,7 @@
 
 #include "core/balance/balance_codes.h"
 #include "core/balance/balance_plan.h"
+#include "core/balance/production_uses.h"
 #include "core/balance/trophic_level.h"
 
 namespace tl {
@@ -228,14 +229,14 @@ void fillLiving(const BalancePlan& plan, const BalanceValues& v, std::size_t i,
     }
 }
 
-void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, const CompartmentBalance& row,
-                 const BalanceValues& v, Problems& problems)
+void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, const BalanceSheet& sheet,
+                 const BalanceValues& v, const PredatorIndex& predators, Problems& problems)
 {
     const auto k = static_cast<Eigen::Index>(i);
     const Compartment& c = model.compartment(i);
+    const CompartmentBalance& row = sheet.rows[i];
     const BalanceRules& rules = model.rules;
     const std::string& name = row.name;
-    const std::string flow = model.units.flow();
 
     for (Param p : row.solved) {
         const double value = p == Param::Biomass ? row.biomass : p == Param::PB ? row.pb : p == Param::QB ? row.qb : row.ee;
@@ -246,15 +247,19 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
                                        "Predation and catch on '" + name +
                                            "' are inconsistent with its other inputs; check its predators' diets."));
     }
-    if (row.ee > rules.eeMax + kBoundTolerance)
+    if (row.ee > rules.eeMax + kBoundTolerance) {
+        // Name the largest takers, so the modeller knows which diet or catch to look at.
+        const std::string largest = describeLargestUses(productionUses(model, sheet, i, predators));
         problems.push_back(makeProblem(code::kEEAboveMax, Severity::Error, name, "ee",
                                    "EE of '" + name + "' is " + num(row.ee) + ", above " + num(rules.eeMax) +
-                                       ": predation, catch, net emigration and accumulation take more than it produces.",
+                                       ": predation, catch, net emigration and accumulation take more than it produces" +
+                                       (largest.empty() ? std::string(".") : " (share of its production: " + largest + ")."),
                                    "Raise its B or P/B, or lower its predators' consumption of it or its catch."));
+    }
     if (std::abs(v.residual[k]) > kResidualTolerance * v.residualScale[k]) {
         const bool fullyGiven = plan.unknownOf(i) == Unknown::None;
         std::string message = "The balance equation of '" + name + "' does not close: B P/B EE minus (predation + "
-                              "catch + E + BA) = " + num(v.residual[k]) + " " + flow + ".";
+                              "catch + E + BA) = " + num(v.residual[k]) + " " + model.units.flow() + ".";
         if (fullyGiven && row.production > 0.0)
             message += " The EE that would close it is " +
                        num((v.predation[k] + row.catchTotal + row.netEmigration + row.biomassAccum) / row.production) +
@@ -267,7 +272,7 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
     if (row.kind != CompartmentKind::Consumer) return;
     if (row.respiration < -kBoundTolerance * std::abs(row.consumption))
         problems.push_back(makeProblem(code::kNegativeRespiration, Severity::Error, name, "qb",
-                                   "Respiration of '" + name + "' is negative (" + num(row.respiration) + " " + flow +
+                                   "Respiration of '" + name + "' is negative (" + num(row.respiration) + " " + model.units.flow() +
                                        "): it produces more than it assimilates.",
                                    "Raise its Q/B or lower its P/B or U."));
     if (row.pq < rules.pqMin || row.pq > rules.pqMax)
@@ -299,6 +304,8 @@ void finishSolvedSheet(const Model& model, const BalancePlan& plan, const Balanc
                                              num(values.conditioning) + "): solved values are sensitive to the inputs.",
                                          "Give directly some of the values being solved."));
 
+    // Every row first: the checks of one compartment read its predators' consumption.
+    bool anyEEAboveMax = false;
     for (std::size_t i = 0; i < model.size(); ++i) {
         CompartmentBalance& row = sheet.rows[i];
         const auto k = static_cast<Eigen::Index>(i);
@@ -309,6 +316,15 @@ void finishSolvedSheet(const Model& model, const BalancePlan& plan, const Balanc
             row.detritusInflow = values.detritusInflow[k];
             row.detritusConsumption = values.predation[k];
             row.detritusExport = values.detritusExport[k];
+            continue;
+        }
+        fillLiving(plan, values, i, row);
+        anyEEAboveMax = anyEEAboveMax || row.ee > model.rules.eeMax + kBoundTolerance;
+    }
+    const PredatorIndex predators = anyEEAboveMax ? predatorIndex(model) : PredatorIndex(model.size());
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        const CompartmentBalance& row = sheet.rows[i];
+        if (row.kind == CompartmentKind::Detritus) {
             if (row.ee > 1.0 + kBoundTolerance || std::isnan(row.ee))
                 sheet.problems.push_back(makeProblem(
                     code::kDetritusEEAboveOne, Severity::Error, row.name, "ee",
@@ -318,8 +334,7 @@ void finishSolvedSheet(const Model& model, const BalancePlan& plan, const Balanc
                     "Lower the detritus share in its consumers' diets, or add a detritus import."));
             continue;
         }
-        fillLiving(plan, values, i, row);
-        checkLiving(model, plan, i, row, values, sheet.problems);
+        checkLiving(model, plan, i, sheet, values, predators, sheet.problems);
     }
     sheet.status = hasErrors(sheet.problems) ? BalanceStatus::Unbalanced : BalanceStatus::Balanced;
 }

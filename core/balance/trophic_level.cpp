@@ -60,11 +60,13 @@ void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, T
     const auto sn = static_cast<std::size_t>(n);
     const int* outer = share.outerIndexPtr();
     const int* inner = share.innerIndexPtr();
-    std::vector<int> index(sn, -1), low(sn, 0), local(sn, -1);
+    std::vector<int> index(sn, -1), low(sn, 0), local;  // local: sized on the first loop of two or more
     std::vector<char> onStack(sn, 0), grounded(sn, 0), undefined(sn, 0);
     for (std::size_t j = 0; j < sn; ++j) grounded[j] = fixed[j];
     std::vector<Eigen::Index> stack;
     std::vector<std::pair<Eigen::Index, int>> calls;  // node, next entry of its column
+    stack.reserve(sn);
+    calls.reserve(sn);
     int counter = 0;
     for (Eigen::Index root = 0; root < n; ++root) {
         if (fixed[static_cast<std::size_t>(root)] || index[static_cast<std::size_t>(root)] >= 0) continue;
@@ -128,6 +130,7 @@ void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, T
                     }
                     out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
                 } else {
+                    if (local.empty()) local.assign(sn, -1);
                     solveLoop(share, members, k, local, out.tl);
                 }
             }
@@ -138,38 +141,13 @@ void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, T
 
 }  // namespace
 
-TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal)
+namespace {
+
+// Levels and omnivory from the renormalised diet (fixed columns empty, their levels set).
+void finishLevels(const SparseColumns& share, const std::vector<bool>& fixed, TrophicLevels& out)
 {
-    const Eigen::Index n = diet.cols();
-    const auto sn = static_cast<std::size_t>(n);
-    TrophicLevels out;
-    out.tl.setConstant(n, std::numeric_limits<double>::quiet_NaN());
-    out.oi.setConstant(n, std::numeric_limits<double>::quiet_NaN());
-    out.note.assign(sn, TrophicLevelNote::Computed);
-
-    // Renormalised diet; "fixed" nodes have a known level (basal 1, no prey 2).
-    SparseColumns share(n, n);
-    share.reserve(diet.nonZeros());
-    std::vector<bool> fixed(sn, false);
-    for (Eigen::Index j = 0; j < n; ++j) {
-        const auto s = static_cast<std::size_t>(j);
-        share.startVec(j);
-        double sum = 0.0;
-        for (SparseColumns::InnerIterator it(diet, j); it; ++it) sum += it.value();
-        if (basal[s] || !(sum > 0.0)) {
-            out.note[s] = basal[s] ? TrophicLevelNote::Basal : TrophicLevelNote::NoModelledPrey;
-            out.tl[j] = basal[s] ? 1.0 : 2.0;
-            out.oi[j] = 0.0;
-            fixed[s] = true;
-            continue;
-        }
-        for (SparseColumns::InnerIterator it(diet, j); it; ++it)
-            if (it.value() != 0.0) share.insertBack(it.index(), j) = it.value() / sum;
-    }
-    share.finalize();
-
     levelsByLoops(share, fixed, out);
-    for (Eigen::Index j = 0; j < n; ++j) {
+    for (Eigen::Index j = 0; j < share.cols(); ++j) {
         const auto s = static_cast<std::size_t>(j);
         if (fixed[s] || out.note[s] == TrophicLevelNote::Undefined) continue;
         double oi = 0.0;
@@ -179,6 +157,49 @@ TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<
         }
         out.oi[j] = oi;
     }
+}
+
+TrophicLevels startLevels(Eigen::Index n)
+{
+    TrophicLevels out;
+    out.tl.setConstant(n, std::numeric_limits<double>::quiet_NaN());
+    out.oi.setConstant(n, std::numeric_limits<double>::quiet_NaN());
+    out.note.assign(static_cast<std::size_t>(n), TrophicLevelNote::Computed);
+    return out;
+}
+
+// A node whose level is fixed: basal (1) or with no modelled prey (2).
+void fix(TrophicLevels& out, std::vector<bool>& fixed, Eigen::Index j, bool basal)
+{
+    const auto s = static_cast<std::size_t>(j);
+    out.note[s] = basal ? TrophicLevelNote::Basal : TrophicLevelNote::NoModelledPrey;
+    out.tl[j] = basal ? 1.0 : 2.0;
+    out.oi[j] = 0.0;
+    fixed[s] = true;
+}
+
+}  // namespace
+
+TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal)
+{
+    const Eigen::Index n = diet.cols();
+    TrophicLevels out = startLevels(n);
+    SparseColumns share(n, n);  // renormalised diet; fixed columns empty
+    share.reserve(diet.nonZeros());
+    std::vector<bool> fixed(static_cast<std::size_t>(n), false);
+    for (Eigen::Index j = 0; j < n; ++j) {
+        share.startVec(j);
+        double sum = 0.0;
+        for (SparseColumns::InnerIterator it(diet, j); it; ++it) sum += it.value();
+        if (basal[static_cast<std::size_t>(j)] || !(sum > 0.0)) {
+            fix(out, fixed, j, basal[static_cast<std::size_t>(j)]);
+            continue;
+        }
+        for (SparseColumns::InnerIterator it(diet, j); it; ++it)
+            if (it.value() != 0.0) share.insertBack(it.index(), j) = it.value() / sum;
+    }
+    share.finalize();
+    finishLevels(share, fixed, out);
     return out;
 }
 
@@ -190,21 +211,28 @@ TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vecto
 TrophicLevels computeTrophicLevels(const Model& model)
 {
     const std::size_t n = model.size();
-    std::vector<bool> basal(n);
+    const auto en = static_cast<Eigen::Index>(n);
+    TrophicLevels out = startLevels(en);
     std::size_t entries = 0;
+    for (std::size_t j = 0; j < n; ++j) entries += model.dietRow(j).size();
+    SparseColumns share(en, en);  // column j = predator j, prey ascending, renormalised without import
+    share.reserve(static_cast<Eigen::Index>(entries));
+    std::vector<bool> fixed(n, false);
     for (std::size_t j = 0; j < n; ++j) {
-        basal[j] = model.compartment(j).kind != CompartmentKind::Consumer;
-        entries += model.dietRow(j).size();
+        const auto jj = static_cast<Eigen::Index>(j);
+        share.startVec(jj);
+        const bool basal = model.compartment(j).kind != CompartmentKind::Consumer;
+        double sum = 0.0;
+        for (const auto& [prey, dc] : model.dietRow(j)) sum += dc;
+        if (basal || !(sum > 0.0)) {
+            fix(out, fixed, jj, basal);
+            continue;
+        }
+        for (const auto& [prey, dc] : model.dietRow(j)) share.insertBack(static_cast<Eigen::Index>(prey), jj) = dc / sum;
     }
-    SparseColumns diet(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(n));
-    diet.reserve(static_cast<Eigen::Index>(entries));
-    for (std::size_t j = 0; j < n; ++j) {  // column j = predator j, prey in increasing order
-        diet.startVec(static_cast<Eigen::Index>(j));
-        for (const auto& [prey, dc] : model.dietRow(j))
-            diet.insertBack(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(j)) = dc;
-    }
-    diet.finalize();
-    return computeTrophicLevels(diet, basal);
+    share.finalize();
+    finishLevels(share, fixed, out);
+    return out;
 }
 
 }  // namespace tl

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <map>
 #include <set>
+#include <unordered_map>
 #include <span>
 
 #include "core/io/atomic_file.h"
@@ -63,15 +64,39 @@ std::string lowerAscii(std::string_view s)
     return out;
 }
 
-// Names are matched exactly; this only finds a likely intended name for the hint.
-std::string didYouMean(std::string_view name, const Model& model)
-{
-    const std::string key = lowerAscii(trim(name));
-    for (const Compartment& c : model.compartments())
-        if (lowerAscii(c.name) == key)
-            return "Did you mean '" + c.name + "'? Names must match exactly, including case.";
-    return {};
-}
+// Compartment names -> index, built once compartments.csv is read (no compartment is
+// added after that, so the views into the model's names stay valid). Every name in the
+// other files is then found in O(1) instead of by a scan of the list, which kept
+// reading a large folder quadratic.
+class NameIndex {
+public:
+    explicit NameIndex(const Model& model) : model_(model)
+    {
+        exact_.reserve(model.size());
+        for (std::size_t i = 0; i < model.size(); ++i) exact_.emplace(model.compartment(i).name, i);
+    }
+
+    std::optional<std::size_t> find(std::string_view name) const
+    {
+        const auto it = exact_.find(name);
+        return it == exact_.end() ? std::nullopt : std::optional<std::size_t>(it->second);
+    }
+
+    // Names are matched exactly; this only finds a likely intended name for the hint.
+    std::string didYouMean(std::string_view name) const
+    {
+        if (folded_.empty())  // built on the first miss only
+            for (std::size_t i = 0; i < model_.size(); ++i) folded_.emplace(lowerAscii(model_.compartment(i).name), i);
+        const auto it = folded_.find(lowerAscii(trim(name)));
+        if (it == folded_.end()) return {};
+        return "Did you mean '" + model_.compartment(it->second).name + "'? Names must match exactly, including case.";
+    }
+
+private:
+    const Model& model_;
+    std::unordered_map<std::string_view, std::size_t> exact_;
+    mutable std::unordered_map<std::string, std::size_t> folded_;  // lower-case name -> first index
+};
 
 std::string joinKeys(std::span<const std::string_view> keys)
 {
@@ -95,9 +120,11 @@ struct Locations {
     std::vector<int> compartmentLine;                  // per compartment index
     std::array<int, kParamCount> paramColumn{};        // 0 when the column is absent
     // diet.csv
-    std::map<std::size_t, int> dietLine;               // predator -> line of its row
-    std::map<std::size_t, int> preyColumn;             // prey -> column in the header
-    int importColumn = 0;
+    bool longDiet = false;                             // long form: one row per (predator, prey)
+    std::map<std::size_t, int> dietLine;               // predator -> line of its row (long form: its first row)
+    std::map<std::size_t, int> preyColumn;             // wide form: prey -> column in the header
+    int importColumn = 0;                              // wide form
+    std::unordered_map<std::uint64_t, int> dietEntryLine;  // long form: dietEntryKey -> line of the entry
     // detritus_routing.csv
     struct RoutingRow { int line; int sourceColumn, detritusColumn, fractionColumn; };
     std::map<std::pair<std::size_t, std::size_t>, RoutingRow> routingRow;  // (source, pool)
@@ -266,31 +293,37 @@ std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::
     return sheet;
 }
 
+// Whether `folder/name` exists; reports it missing when it is required.
+bool sheetPresent(const std::filesystem::path& folder, std::string_view name, bool required, Problems& problems)
+{
+    const std::filesystem::path path = folder / name;
+    std::error_code ec;
+    if (std::filesystem::exists(path, ec)) return true;
+    if (required)
+        problems.push_back(problemAt("csv-missing-file", Severity::Error, path.string(), 0, 0,
+                                     "the model folder has no " + std::string(name)));
+    return false;
+}
+
 // Reads `folder/name`. When the file is absent and not required, returns nullopt
 // without a problem.
 std::optional<CsvTable> readSheet(const std::filesystem::path& folder, std::string_view name, bool required,
                                   Problems& problems)
 {
     const std::filesystem::path path = folder / name;
-    std::error_code ec;
-    if (!std::filesystem::exists(path, ec)) {
-        if (required)
-            problems.push_back(problemAt("csv-missing-file", Severity::Error, path.string(), 0, 0,
-                                         "the model folder has no " + std::string(name)));
-        return std::nullopt;
-    }
+    if (!sheetPresent(folder, name, required, problems)) return std::nullopt;
     CsvParseResult parsed = readCsvFile(path);
     problems.insert(problems.end(), parsed.problems.begin(), parsed.problems.end());
     return std::move(parsed.table);
 }
 
 // Looks up a compartment named in a cell; reports an unknown name.
-std::optional<std::size_t> knownCompartment(const Model& model, const CsvField& f, const std::string& file,
+std::optional<std::size_t> knownCompartment(const NameIndex& names, const CsvField& f, const std::string& file,
                                             const std::string& role, Problems& problems)
 {
     const std::string_view name = trim(f.text);
-    if (const auto i = model.indexOf(name)) return i;
-    std::string hint = didYouMean(name, model);
+    if (const auto i = names.find(name)) return i;
+    std::string hint = names.didYouMean(name);
     if (hint.empty()) hint = "Every name must be a compartment of " + std::string(kCompartmentsFile) + ".";
     problems.push_back(errorAt("csv-unknown-compartment", file, f,
                                name.empty() ? role + ": the cell is empty, expected a compartment name"
@@ -414,6 +447,7 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
         problems.push_back(problemAt("csv-no-rows", Severity::Error, table.file, 2, 0,
                                      "the file lists no compartments, only its header"));
     std::map<std::string, int, std::less<>> seen;
+    model.reserve(sheet->rows.size());
     for (const CsvRecord* r : sheet->rows) {
         const std::size_t before = problems.size();
         const auto name = compartmentName(*sheet->field(*r, 0), table.file, seen, problems);
@@ -447,100 +481,219 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
 }
 
 // diet.csv ---------------------------------------------------------------------------
-void readDiet(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+// Two forms, told apart by the header (DESIGN 5.1). Wide: `predator,<prey 1>,...[,import]`,
+// one row per predator, what people edit in a spreadsheet. Long: `predator,prey,share`, one
+// row per non-zero entry, so a large model costs its entries rather than n x n cells.
+constexpr std::array<std::string_view, 3> kLongDietKeys = {"predator", "prey", "share"};
+constexpr int kLongPredatorColumn = 1, kLongShareColumn = 3;
+
+// Key of a long-form entry; the import column counts as prey index n.
+std::uint64_t dietEntryKey(const Model& model, std::size_t predator, std::size_t prey)
 {
-    if (table.records.empty()) {
-        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
-                                     "the file is empty; expected a header: predator, then one column per prey"));
+    return static_cast<std::uint64_t>(predator) * (model.size() + 1) + prey;
+}
+
+bool isLongDietHeader(const CsvRecord& header, const NameIndex& names)
+{
+    if (header.fields.size() != kLongDietKeys.size()) return false;
+    for (std::size_t c = 0; c < kLongDietKeys.size(); ++c)
+        if (trim(header.fields[c].text) != kLongDietKeys[c]) return false;
+    // A wide diet whose only prey are compartments named 'prey' and 'share' reads the same.
+    return !(names.find(kLongDietKeys[1]) && names.find(kLongDietKeys[2]));
+}
+
+// One row of the long form, whose header isLongDietHeader has accepted.
+void readLongDietRow(const CsvRecord& r, const std::string& file, Model& model, const NameIndex& names,
+                     Locations& loc, Problems& problems)
+{
+    if (!rowShapeOk(r, kLongDietKeys.size(), file, problems)) return;
+    const std::size_t importIndex = model.size();
+    const CsvField& predatorField = r.fields[0];
+    const CsvField& preyField = r.fields[1];
+    const CsvField& shareField = r.fields[2];
+    const auto predator = knownCompartment(names, predatorField, file, "predator", problems);
+    const bool isImport = trim(preyField.text) == kImportColumn;
+    const auto prey = isImport ? std::optional<std::size_t>(importIndex)
+                               : knownCompartment(names, preyField, file, "prey", problems);
+    if (!predator || !prey) {
+        if (predator) loc.broken.insert({model.compartment(*predator).name, "diet"});
         return;
     }
-    const CsvRecord& header = table.records.front();
-    if (refuseOtherSeparators(header, table.file, problems)) return;
-    const std::string_view corner = trim(header.fields[0].text);
-    if (!corner.empty() && corner != "predator") {
-        problems.push_back(errorAt("csv-header", table.file, header.fields[0],
-                                   "the first column must be headed 'predator', found " + shown(corner),
-                                   "Column 1 holds predator names; each further column is a prey (or 'import')."));
+    const std::string& predatorName = model.compartment(*predator).name;
+    const std::string_view preyName = isImport ? kImportColumn : std::string_view(model.compartment(*prey).name);
+    loc.dietLine.emplace(*predator, r.line);  // keeps the predator's first line
+    const auto [entry, isNew] = loc.dietEntryLine.emplace(dietEntryKey(model, *predator, *prey), r.line);
+    if (!isNew) {
+        problems.push_back(errorAt("csv-duplicate-row", file, preyField,
+                                   "the share of " + shown(preyName) + " in the diet of " + shown(predatorName) +
+                                       " is already given on line " + std::to_string(entry->second),
+                                   "Give one row per predator and prey."));
+        loc.broken.insert({predatorName, "diet"});
         return;
     }
+    if (const auto share = parseNumber(trim(shareField.text))) {  // the common case, without message text
+        if (isImport) model.setDietImport(*predator, *share);
+        else model.setDiet(*predator, *prey, *share);
+        return;
+    }
+    const std::string what = "share of " + shown(preyName) + " in the diet of " + shown(predatorName);
+    const NumberCell v = numberCell(shareField, file, what, problems);
+    if (!v.bad && !v.value)
+        problems.push_back(errorAt("csv-missing-value", file, shareField, what + ": the cell is empty",
+                                   "Give the share (0 to 1), or delete the row."));
+    Problem& p = problems.back();  // numberCell accepts what parseNumber refused only when empty
+    p.compartment = predatorName;
+    p.parameter = "diet";
+    p.prey = std::string(preyName);
+    loc.broken.insert({predatorName, "diet"});
+}
 
-    // What each further column holds: a compartment index, or one of these.
-    constexpr long kImport = -1, kUnnamed = -2, kUnusable = -3;
-    std::vector<long> prey(header.fields.size(), kUnusable);
-    std::map<std::string, int, std::less<>> seenColumn;
-    for (std::size_t col = 1; col < header.fields.size(); ++col) {
-        const CsvField& f = header.fields[col];
-        const std::string name(trim(f.text));
-        if (name.empty()) {
-            prey[col] = kUnnamed;
-            continue;
-        }
-        if (const auto it = seenColumn.find(name); it != seenColumn.end()) {
-            problems.push_back(errorAt("csv-duplicate-column", table.file, f,
-                                       "prey column " + shown(name) + " appears twice (first in column " +
-                                           std::to_string(it->second) + ")"));
-            continue;
-        }
-        seenColumn.emplace(name, f.column);
-        if (name == kImportColumn) {
-            prey[col] = kImport;
-            loc.importColumn = f.column;
-        } else if (const auto i = model.indexOf(name)) {
-            prey[col] = static_cast<long>(*i);
-            loc.preyColumn[*i] = f.column;
-        } else {
-            std::string hint = didYouMean(name, model);
-            if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
-            problems.push_back(errorAt("csv-unknown-compartment", table.file, f,
-                                       "prey column " + shown(name) + " is not a compartment of compartments.csv",
-                                       hint));
-        }
+// The wide form, read row by row as the file is parsed (see readDiet).
+class WideDietReader {
+public:
+    WideDietReader(Model& model, const NameIndex& names, Locations& loc, Problems& problems, std::string file)
+        : model_(model), names_(names), loc_(loc), problems_(problems), file_(std::move(file))
+    {
     }
 
-    for (std::size_t k = 1; k < table.records.size(); ++k) {
-        const CsvRecord& r = table.records[k];
-        if (!rowShapeOk(r, header.fields.size(), table.file, problems)) continue;
-        const auto predator = knownCompartment(model, r.fields[0], table.file, "predator", problems);
-        if (!predator) continue;
-        const std::string& predatorName = model.compartment(*predator).name;
-        if (const auto it = loc.dietLine.find(*predator); it != loc.dietLine.end()) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, r.fields[0],
-                                       "the diet of " + shown(predatorName) + " is already given on line " +
-                                           std::to_string(it->second)));
-            continue;
+    void header(const CsvRecord& header)
+    {
+        const std::string_view corner = trim(header.fields[0].text);
+        if (!corner.empty() && corner != "predator") {
+            problems_.push_back(errorAt("csv-header", file_, header.fields[0],
+                                        "the first column must be headed 'predator', found " + shown(corner),
+                                        "Column 1 holds predator names; each further column is a prey (or 'import')."));
+            refused_ = true;
+            return;
         }
-        loc.dietLine.emplace(*predator, r.line);
-
-        const std::size_t before = problems.size();
+        prey_.assign(header.fields.size(), kUnusable);
+        std::map<std::string, int, std::less<>> seenColumn;
         for (std::size_t col = 1; col < header.fields.size(); ++col) {
-            const CsvField& f = r.fields[col];
-            if (prey[col] == kUnusable) continue;
-            if (prey[col] == kUnnamed) {
-                if (!trim(f.text).empty())
-                    problems.push_back(errorAt("csv-header", table.file, f,
-                                               "this cell has no prey name above it but holds " + shown(f.text)));
+            const CsvField& f = header.fields[col];
+            const std::string name(trim(f.text));
+            if (name.empty()) {
+                prey_[col] = kUnnamed;
                 continue;
             }
+            if (const auto it = seenColumn.find(name); it != seenColumn.end()) {
+                problems_.push_back(errorAt("csv-duplicate-column", file_, f,
+                                            "prey column " + shown(name) + " appears twice (first in column " +
+                                                std::to_string(it->second) + ")"));
+                continue;
+            }
+            seenColumn.emplace(name, f.column);
+            if (name == kImportColumn) {
+                prey_[col] = kImport;
+                loc_.importColumn = f.column;
+            } else if (const auto i = names_.find(name)) {
+                prey_[col] = static_cast<long>(*i);
+                loc_.preyColumn[*i] = f.column;
+            } else {
+                std::string hint = names_.didYouMean(name);
+                if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
+                problems_.push_back(errorAt("csv-unknown-compartment", file_, f,
+                                            "prey column " + shown(name) + " is not a compartment of compartments.csv",
+                                            hint));
+            }
+        }
+    }
+
+    void row(const CsvRecord& r)
+    {
+        if (refused_ || !rowShapeOk(r, prey_.size(), file_, problems_)) return;
+        const auto predator = knownCompartment(names_, r.fields[0], file_, "predator", problems_);
+        if (!predator) return;
+        const std::string& predatorName = model_.compartment(*predator).name;
+        if (const auto it = loc_.dietLine.find(*predator); it != loc_.dietLine.end()) {
+            problems_.push_back(errorAt("csv-duplicate-row", file_, r.fields[0],
+                                        "the diet of " + shown(predatorName) + " is already given on line " +
+                                            std::to_string(it->second)));
+            return;
+        }
+        loc_.dietLine.emplace(*predator, r.line);
+
+        const std::size_t before = problems_.size();
+        for (std::size_t col = 1; col < prey_.size(); ++col) {
+            const CsvField& f = r.fields[col];
+            if (prey_[col] == kUnusable) continue;
+            if (prey_[col] == kUnnamed) {
+                if (!trim(f.text).empty())
+                    problems_.push_back(errorAt("csv-header", file_, f,
+                                                "this cell has no prey name above it but holds " + shown(f.text)));
+                continue;
+            }
+            if (trim(f.text).empty()) continue;  // 0, and most cells of a wide diet: no message text to build
             const std::string preyName =
-                prey[col] == kImport ? std::string(kImportColumn) : model.compartment(prey[col]).name;
+                prey_[col] == kImport ? std::string(kImportColumn) : model_.compartment(prey_[col]).name;
             const NumberCell v = numberCell(
-                f, table.file, "share of " + shown(preyName) + " in the diet of " + shown(predatorName), problems);
+                f, file_, "share of " + shown(preyName) + " in the diet of " + shown(predatorName), problems_);
             if (v.bad) {
-                Problem& p = problems.back();
+                Problem& p = problems_.back();
                 p.compartment = predatorName;
                 p.parameter = "diet";
                 p.prey = preyName;
                 continue;
             }
             if (!v.value) continue;
-            if (prey[col] == kImport) model.setDietImport(*predator, *v.value);
-            else model.setDiet(*predator, static_cast<std::size_t>(prey[col]), *v.value);
+            if (prey_[col] == kImport) model_.setDietImport(*predator, *v.value);
+            else model_.setDiet(*predator, static_cast<std::size_t>(prey_[col]), *v.value);
         }
-        if (problems.size() != before) loc.broken.insert({predatorName, "diet"});
+        if (problems_.size() != before) loc_.broken.insert({predatorName, "diet"});
     }
-    // A prey column that could not be read leaves every row's sum in doubt.
-    if (std::find(prey.begin() + 1, prey.end(), kUnusable) != prey.end())
-        for (const Compartment& c : model.compartments()) loc.broken.insert({c.name, "diet"});
+
+    void finish()
+    {
+        // A prey column that could not be read leaves every row's sum in doubt.
+        if (!refused_ && std::find(prey_.begin() + 1, prey_.end(), kUnusable) != prey_.end())
+            for (const Compartment& c : model_.compartments()) loc_.broken.insert({c.name, "diet"});
+    }
+
+private:
+    // What each column after the first holds: a compartment index, or one of these.
+    static constexpr long kImport = -1, kUnnamed = -2, kUnusable = -3;
+    Model& model_;
+    const NameIndex& names_;
+    Locations& loc_;
+    Problems& problems_;
+    const std::string file_;
+    std::vector<long> prey_;
+    bool refused_ = false;
+};
+
+// Reads diet.csv while it is parsed, row by row: a wide diet is n x n cells, and holding
+// them all as parsed fields cost more (memory, page faults) than reading them. Problems
+// keep the order of the other files: the parser's first, then the reader's.
+void readDiet(const std::filesystem::path& path, Model& model, const NameIndex& names, Locations& loc,
+              Problems& problems)
+{
+    const std::string file = path.string();
+    Problems found;
+    enum class Form { None, Refused, Wide, Long } form = Form::None;
+    WideDietReader wide(model, names, loc, found, file);
+    Problems parsing = readCsvFileRecords(path, [&](CsvRecord& r) {
+        switch (form) {
+        case Form::None:
+            if (refuseOtherSeparators(r, file, found)) {
+                form = Form::Refused;
+            } else if (isLongDietHeader(r, names)) {
+                form = Form::Long;
+                loc.longDiet = true;
+            } else {
+                form = Form::Wide;
+                wide.header(r);
+            }
+            break;
+        case Form::Long: readLongDietRow(r, file, model, names, loc, found); break;
+        case Form::Wide: wide.row(r); break;
+        case Form::Refused: break;
+        }
+    });
+    if (form == Form::None)
+        found.push_back(problemAt("csv-header", Severity::Error, file, 1, 0,
+                                  "the file is empty; expected a header: predator, then one column per prey"));
+    if (form == Form::Wide) wide.finish();
+    problems.insert(problems.end(), std::make_move_iterator(parsing.begin()), std::make_move_iterator(parsing.end()));
+    problems.insert(problems.end(), std::make_move_iterator(found.begin()), std::make_move_iterator(found.end()));
 }
 
 // harvest.csv ------------------------------------------------------------------------
@@ -548,7 +701,7 @@ constexpr std::array<std::string_view, 6> kHarvestKeys = {"fleet",    "compartme
                                                           "discards", "discard_survival", "discard_pool"};
 constexpr std::array<std::string_view, 2> kHarvestRequired = {"fleet", "compartment"};
 
-void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
 {
     const auto sheet = openKeyed(table, kHarvestKeys, kHarvestRequired, problems);
     if (!sheet) return;
@@ -569,7 +722,7 @@ void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& 
 
         // Discard pool: one per fleet, named on any of its rows.
         if (const CsvField* poolField = sheet->field(*r, 5); poolField && !trim(poolField->text).empty()) {
-            if (const auto pool = knownCompartment(model, *poolField, table.file, "discard pool", problems)) {
+            if (const auto pool = knownCompartment(names, *poolField, table.file, "discard pool", problems)) {
                 Fleet& f = model.fleet(fleet);
                 if (f.discardPool && *f.discardPool != *pool)
                     problems.push_back(errorAt("csv-discard-pool", table.file, *poolField,
@@ -596,7 +749,7 @@ void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& 
                 }
             continue;
         }
-        const auto i = knownCompartment(model, compartmentField, table.file, "compartment", problems);
+        const auto i = knownCompartment(names, compartmentField, table.file, "compartment", problems);
         if (!i) continue;
         const std::string& name = model.compartment(*i).name;
         if (const auto it = loc.harvestRow.find({fleet, *i}); it != loc.harvestRow.end()) {
@@ -632,15 +785,15 @@ void readHarvest(const CsvTable& table, Model& model, Locations& loc, Problems& 
 // detritus_routing.csv -----------------------------------------------------------------
 constexpr std::array<std::string_view, 3> kRoutingKeys = {"source", "detritus", "fraction"};
 
-void readRouting(const CsvTable& table, Model& model, Locations& loc, Problems& problems)
+void readRouting(const CsvTable& table, Model& model, const NameIndex& names, Locations& loc, Problems& problems)
 {
     const auto sheet = openKeyed(table, kRoutingKeys, kRoutingKeys, problems);
     if (!sheet) return;
     for (const CsvRecord* r : sheet->rows) {
         const CsvField& sourceField = *sheet->field(*r, 0);
         const CsvField& poolField = *sheet->field(*r, 1);
-        const auto source = knownCompartment(model, sourceField, table.file, "source", problems);
-        const auto pool = knownCompartment(model, poolField, table.file, "detritus pool", problems);
+        const auto source = knownCompartment(names, sourceField, table.file, "source", problems);
+        const auto pool = knownCompartment(names, poolField, table.file, "detritus pool", problems);
         if (!source || !pool) {
             if (source) loc.broken.insert({model.compartment(*source).name, "routing"});
             continue;
@@ -678,7 +831,7 @@ void readRouting(const CsvTable& table, Model& model, Locations& loc, Problems& 
 constexpr std::array<std::string_view, 5> kConfidenceKeys = {"compartment", "parameter", "grade", "cv", "source"};
 constexpr std::array<std::string_view, 2> kConfidenceRequired = {"compartment", "parameter"};
 
-void readConfidence(const CsvTable& table, Model& model, Problems& problems)
+void readConfidence(const CsvTable& table, Model& model, const NameIndex& names, Problems& problems)
 {
     const auto sheet = openKeyed(table, kConfidenceKeys, kConfidenceRequired, problems);
     if (!sheet) return;
@@ -686,7 +839,7 @@ void readConfidence(const CsvTable& table, Model& model, Problems& problems)
     const std::string paramList = joinKeys(std::span(keys).subspan(2));
     std::map<std::pair<std::size_t, std::size_t>, int> seen;
     for (const CsvRecord* r : sheet->rows) {
-        const auto i = knownCompartment(model, *sheet->field(*r, 0), table.file, "compartment", problems);
+        const auto i = knownCompartment(names, *sheet->field(*r, 0), table.file, "compartment", problems);
         const CsvField& paramField = *sheet->field(*r, 1);
         const auto param = parseParamKey(trim(paramField.text));
         if (!param)
@@ -730,10 +883,10 @@ bool isHidden(const Problem& p, const Locations& loc)
     return loc.broken.contains({p.compartment, "*"}) || loc.broken.contains({p.compartment, p.parameter});
 }
 
-void placeOnCell(Problem& p, const Model& model, const Locations& loc)
+void placeOnCell(Problem& p, const Model& model, const NameIndex& names, const Locations& loc)
 {
     const auto at = [&](const std::string& file, int line, int column) { p.location = FileLocation{file, line, column}; };
-    const auto i = model.indexOf(p.compartment);
+    const auto i = names.find(p.compartment);
     if (const auto param = parseParamKey(p.parameter); param && i) {
         at(loc.compartmentsFile, loc.compartmentLine[*i], loc.paramColumn[static_cast<std::size_t>(*param)]);
     } else if (p.parameter == "diet") {
@@ -741,14 +894,21 @@ void placeOnCell(Problem& p, const Model& model, const Locations& loc)
         if (!i) return;
         const auto row = loc.dietLine.find(*i);
         if (row == loc.dietLine.end()) return;  // no row: the file as a whole
+        if (loc.longDiet) {  // the entry's share cell, or for the row sum the predator's first line
+            const auto prey = p.prey == kImportColumn ? std::optional<std::size_t>(model.size()) : names.find(p.prey);
+            const auto entry = prey ? loc.dietEntryLine.find(dietEntryKey(model, *i, *prey)) : loc.dietEntryLine.end();
+            if (entry != loc.dietEntryLine.end()) at(loc.dietFile, entry->second, kLongShareColumn);
+            else at(loc.dietFile, row->second, kLongPredatorColumn);
+            return;
+        }
         int column = 1;
         if (p.prey == kImportColumn) column = loc.importColumn;
-        else if (const auto prey = model.indexOf(p.prey))
+        else if (const auto prey = names.find(p.prey))
             if (const auto c = loc.preyColumn.find(*prey); c != loc.preyColumn.end()) column = c->second;
         at(loc.dietFile, row->second, column > 0 ? column : 1);
     } else if (p.parameter == "routing" && i) {
         at(loc.routingFile, 0, 0);
-        if (const auto pool = model.indexOf(p.prey)) {
+        if (const auto pool = names.find(p.prey)) {
             if (const auto row = loc.routingRow.find({*i, *pool}); row != loc.routingRow.end()) {
                 const bool aboutPool = p.code == check::kRoutingToLiving;
                 at(loc.routingFile, row->second.line, aboutPool ? row->second.detritusColumn : row->second.fractionColumn);
@@ -783,10 +943,10 @@ void placeOnCell(Problem& p, const Model& model, const Locations& loc)
 }
 
 // Hints that only the reader can give, knowing what was typed.
-void addReaderHints(Problem& p, const Model& model)
+void addReaderHints(Problem& p, const Model& model, const NameIndex& names)
 {
     if (p.code != check::kDietFraction) return;
-    const auto i = model.indexOf(p.compartment);
+    const auto i = names.find(p.compartment);
     if (i && std::abs(model.dietRowSum(*i) - 100.0) < 0.5)
         p.hint = "This row sums to 100: write fractions (0.25), not percentages (25).";
 }
@@ -841,7 +1001,32 @@ bool hasDiet(const Model& model, std::size_t j)
     return model.dietImport(j) != 0.0 || !model.dietRow(j).empty();
 }
 
-std::string dietText(const Model& model)
+bool writesLongDiet(const Model& model, const CsvWriteOptions& options)
+{
+    // With compartments named 'prey' and 'share' the reader takes that header for wide form.
+    if (model.indexOf(kLongDietKeys[1]) && model.indexOf(kLongDietKeys[2])) return false;
+    switch (options.dietForm) {
+    case DietForm::Wide: return false;
+    case DietForm::Long: return true;
+    case DietForm::Automatic: break;
+    }
+    return model.size() > kWideDietMaxCompartments;
+}
+
+std::string longDietText(const Model& model)
+{
+    std::string out = csvRecord(std::vector<std::string>(kLongDietKeys.begin(), kLongDietKeys.end()));
+    for (std::size_t j = 0; j < model.size(); ++j) {
+        const std::string& predator = model.compartment(j).name;
+        for (const GridEntry& e : model.dietRow(j))
+            out += csvRecord({predator, model.compartment(e.col).name, formatNumber(e.value)});
+        if (model.dietImport(j) != 0.0)
+            out += csvRecord({predator, std::string(kImportColumn), formatNumber(model.dietImport(j))});
+    }
+    return out;
+}
+
+std::string wideDietText(const Model& model)
 {
     std::vector<std::string> header = {"predator"};
     for (const Compartment& c : model.compartments()) header.push_back(c.name);
@@ -903,6 +1088,11 @@ std::string routingText(const Model& model)
     return rows.empty() ? rows : csvRecord({"source", "detritus", "fraction"}) + rows;
 }
 
+std::string dietText(const Model& model, const CsvWriteOptions& options)
+{
+    return writesLongDiet(model, options) ? longDietText(model) : wideDietText(model);
+}
+
 // Empty when no parameter has a confidence.
 std::string confidenceText(const Model& model)
 {
@@ -960,19 +1150,20 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
     if (compartments) readCompartments(*compartments, model, loc, problems);
     const bool anyConsumer = std::any_of(model.compartments().begin(), model.compartments().end(),
                                          [](const Compartment& c) { return c.kind == CompartmentKind::Consumer; });
+    const NameIndex names(model);  // no compartment is added from here on
     // Without compartments.csv, a missing diet.csv would only add noise.
-    if (const auto t = readSheet(folder, kDietFile, compartments && anyConsumer, problems))
-        readDiet(*t, model, loc, problems);
-    if (const auto t = readSheet(folder, kHarvestFile, false, problems)) readHarvest(*t, model, loc, problems);
-    if (const auto t = readSheet(folder, kRoutingFile, false, problems)) readRouting(*t, model, loc, problems);
-    if (const auto t = readSheet(folder, kConfidenceFile, false, problems)) readConfidence(*t, model, problems);
+    if (sheetPresent(folder, kDietFile, compartments && anyConsumer, problems))
+        readDiet(folder / kDietFile, model, names, loc, problems);
+    if (const auto t = readSheet(folder, kHarvestFile, false, problems)) readHarvest(*t, model, names, loc, problems);
+    if (const auto t = readSheet(folder, kRoutingFile, false, problems)) readRouting(*t, model, names, loc, problems);
+    if (const auto t = readSheet(folder, kConfidenceFile, false, problems)) readConfidence(*t, model, names, problems);
 
     // The semantic checks are validation's (one place for them); the reader adds where.
     if (compartments) {
         for (Problem& p : validateModel(model)) {
             if (isHidden(p, loc)) continue;
-            placeOnCell(p, model, loc);
-            addReaderHints(p, model);
+            placeOnCell(p, model, names, loc);
+            addReaderHints(p, model, names);
             problems.push_back(std::move(p));
         }
     }
@@ -992,7 +1183,7 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
     return result;
 }
 
-Problems writeCsvModel(const Model& model, const std::filesystem::path& folder)
+Problems writeCsvModel(const Model& model, const std::filesystem::path& folder, const CsvWriteOptions& options)
 {
     Problems problems = unwritableNames(model);
     if (hasErrors(problems)) return problems;
@@ -1009,7 +1200,7 @@ Problems writeCsvModel(const Model& model, const std::filesystem::path& folder)
     // An empty text means "this file has nothing to say": it is not written, and one
     // left from an earlier write is removed so that it cannot be read back as current.
     const std::pair<std::string_view, std::string> files[] = {
-        {kCompartmentsFile, compartmentsText(model)}, {kDietFile, dietText(model)},
+        {kCompartmentsFile, compartmentsText(model)}, {kDietFile, dietText(model, options)},
         {kHarvestFile, harvestText(model)},           {kRoutingFile, routingText(model)},
         {kConfidenceFile, confidenceText(model)},     {kSettingsFile, settingsText(model)},
     };

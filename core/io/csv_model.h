@@ -16,6 +16,11 @@
 // discards; one value per fleet). A harvest row with a fleet and no compartment
 // declares a fleet that has no catch yet.
 //
+// diet.csv may come in long form instead: header `predator,prey,share`, one row per
+// non-zero entry (prey may be `import`); the reader tells the forms apart by the header.
+// A predator's entries may be spread over the file; the row-sum finding is placed on the
+// predator's first line.
+//
 // What the reader checks: the files' structure (header, cell counts, quoting,
 // encoding), numbers, names (known, unique, right kind), fractions within [0, 1],
 // values that cannot be negative. It warns (the model is still returned) when a
@@ -39,12 +44,23 @@ struct CsvReadResult {
 
 CsvReadResult readCsvModel(const std::filesystem::path& folder);
 
+// diet.csv in wide form (a column per prey) or long form (predator,prey,share; one row
+// per non-zero entry). The reader tells them apart by the header; the writer picks wide
+// form up to kWideDietMaxCompartments, where a spreadsheet still shows the matrix, and
+// long form above, where the matrix would be mostly empty cells (n x n of them).
+enum class DietForm { Automatic, Wide, Long };
+inline constexpr std::size_t kWideDietMaxCompartments = 60;
+
+struct CsvWriteOptions {
+    DietForm dietForm = DietForm::Automatic;
+};
+
 // Writes compartments.csv, diet.csv, harvest.csv, detritus_routing.csv,
 // confidence.csv and settings.csv into `folder` (created if missing), each
 // atomically (temporary file, then rename); files with nothing to say hold just
 // their header, so no stale file from an earlier write survives. Numbers are written
 // in their shortest exact form, so readCsvModel(writeCsvModel(m)) == m. Returns
 // problems (e.g. unwritable folder, a name the reader would refuse).
-Problems writeCsvModel(const Model& model, const std::filesystem::path& folder);
+Problems writeCsvModel(const Model& model, const std::filesystem::path& folder, const CsvWriteOptions& options = {});
 
 }  // namespace tl

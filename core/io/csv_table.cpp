@@ -79,14 +79,13 @@ std::optional<Problem> recogniseWrongEncoding(std::string_view text, const std::
 
 }  // namespace
 
-CsvParseResult parseCsv(std::string_view text, std::string file)
+Problems parseCsvRecords(std::string_view text, const std::string& file, const CsvRecordSink& onRecord)
 {
-    CsvParseResult out;
-    out.table.file = file;
+    Problems problems;
     if (text.starts_with("\xEF\xBB\xBF")) text.remove_prefix(3);
     if (auto wrong = recogniseWrongEncoding(text, file)) {
-        out.problems.push_back(std::move(*wrong));
-        return out;
+        problems.push_back(std::move(*wrong));
+        return problems;
     }
 
     const std::size_t n = text.size();
@@ -109,8 +108,10 @@ CsvParseResult parseCsv(std::string_view text, std::string file)
         return true;
     };
     const auto finishRecord = [&]() {
-        if (!isBlank(record)) out.table.records.push_back(std::move(record));
-        record = CsvRecord{};
+        const std::size_t width = record.fields.size();
+        if (!isBlank(record)) onRecord(record);
+        record.fields.clear();  // kept capacity (or, if moved from, the width) saves regrowing the next row
+        if (record.fields.capacity() < width) record.fields.reserve(width);
         record.line = line;
     };
 
@@ -144,7 +145,7 @@ CsvParseResult parseCsv(std::string_view text, std::string file)
                 }
             }
             if (!closed) {
-                out.problems.push_back(fileProblem(
+                problems.push_back(fileProblem(
                     "csv-quote", file, field.line, field.column,
                     "a quoted field opened here is never closed (the file ends inside it)",
                     "Add the closing double quote; a quote inside a quoted field is written twice (\"\")."));
@@ -154,7 +155,7 @@ CsvParseResult parseCsv(std::string_view text, std::string file)
             }
             while (i < n && (text[i] == ' ' || text[i] == '\t')) ++i;
             if (i < n && text[i] != ',' && text[i] != '\r' && text[i] != '\n') {
-                out.problems.push_back(fileProblem(
+                problems.push_back(fileProblem(
                     "csv-quote", file, line, field.column,
                     "unexpected text after the closing quote of a field",
                     "Put the whole cell inside the quotes, and write a quote inside it twice (\"\")."));
@@ -169,7 +170,7 @@ CsvParseResult parseCsv(std::string_view text, std::string file)
         if (const std::size_t bad = firstInvalidUtf8(field.text); bad != std::string_view::npos) {
             char byteText[8];
             std::snprintf(byteText, sizeof byteText, "0x%02X", static_cast<unsigned char>(field.text[bad]));
-            out.problems.push_back(fileProblem(
+            problems.push_back(fileProblem(
                 "csv-encoding", file, field.line, field.column,
                 std::string("the cell is not valid UTF-8 text (byte ") + byteText + ")",
                 "Save the file as \"CSV UTF-8\"; older exports use a legacy code page for accented letters."));
@@ -184,31 +185,52 @@ CsvParseResult parseCsv(std::string_view text, std::string file)
         finishRecord();
         if (i >= n) break;
     }
+    return problems;
+}
+
+CsvParseResult parseCsv(std::string_view text, std::string file)
+{
+    CsvParseResult out;
+    out.table.file = file;
+    out.problems = parseCsvRecords(text, file, [&](CsvRecord& r) { out.table.records.push_back(std::move(r)); });
     return out;
+}
+
+Problems readCsvFileRecords(const std::filesystem::path& path, const CsvRecordSink& onRecord)
+{
+    const std::string file = path.string();
+    std::error_code ec;
+    if (std::filesystem::is_directory(path, ec))
+        return {fileProblem("csv-unreadable", file, 0, 0, "expected a CSV file but found a folder")};
+    std::ifstream in(path, std::ios::binary);
+    std::string content;
+    if (in) {  // read in one piece: a stream buffer would copy the text twice more
+        std::error_code sizeError;
+        const auto size = std::filesystem::file_size(path, sizeError);
+        if (!sizeError) {
+            content.resize(static_cast<std::size_t>(size));
+            in.read(content.data(), static_cast<std::streamsize>(content.size()));
+            content.resize(static_cast<std::size_t>(in.gcount()));
+            if (in.eof()) in.clear();  // a file that shrank meanwhile: keep what was read
+        } else {
+            std::ostringstream buffer;
+            buffer << in.rdbuf();
+            content = std::move(buffer).str();
+        }
+    }
+    if (!in || in.bad()) {
+        const bool exists = std::filesystem::exists(path, ec);
+        return {fileProblem("csv-unreadable", file, 0, 0, exists ? "the file cannot be read" : "the file does not exist")};
+    }
+    return parseCsvRecords(content, file, onRecord);
 }
 
 CsvParseResult readCsvFile(const std::filesystem::path& path)
 {
-    const std::string file = path.string();
-    std::error_code ec;
-    if (std::filesystem::is_directory(path, ec)) {
-        CsvParseResult out;
-        out.table.file = file;
-        out.problems.push_back(fileProblem("csv-unreadable", file, 0, 0, "expected a CSV file but found a folder"));
-        return out;
-    }
-    std::ifstream in(path, std::ios::binary);
-    std::ostringstream content;
-    if (in) content << in.rdbuf();
-    if (!in || in.bad()) {
-        CsvParseResult out;
-        out.table.file = file;
-        const bool exists = std::filesystem::exists(path, ec);
-        out.problems.push_back(fileProblem("csv-unreadable", file, 0, 0,
-                                           exists ? "the file cannot be read" : "the file does not exist"));
-        return out;
-    }
-    return parseCsv(content.str(), file);
+    CsvParseResult out;
+    out.table.file = path.string();
+    out.problems = readCsvFileRecords(path, [&](CsvRecord& r) { out.table.records.push_back(std::move(r)); });
+    return out;
 }
 
 std::string csvField(std::string_view text)

@@ -11,6 +11,7 @@
 #pragma once
 
 #include <filesystem>
+#include <functional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -46,6 +47,14 @@ CsvParseResult parseCsv(std::string_view text, std::string file);
 // Reads the file (binary, no newline translation) and parses it. A missing or
 // unreadable file gives one error with code "csv-unreadable".
 CsvParseResult readCsvFile(const std::filesystem::path& path);
+
+// The same, handing each record to `onRecord` as soon as it is complete instead of
+// keeping them all: a wide table of n x n cells then never exists as n x n fields at
+// once. The record is reused for the next one (move from it to keep it). Returns the
+// problems parseCsv would report.
+using CsvRecordSink = std::function<void(CsvRecord&)>;
+Problems parseCsvRecords(std::string_view text, const std::string& file, const CsvRecordSink& onRecord);
+Problems readCsvFileRecords(const std::filesystem::path& path, const CsvRecordSink& onRecord);
 
 // One field as written: quoted (with quotes doubled) when it holds a comma, a quote,
 // a line break or leading/trailing white space; otherwise as is.

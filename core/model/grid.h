@@ -33,6 +33,7 @@ public:
     std::size_t nonZeros() const { return nonZeros_; }
 
     void insertRow(std::size_t at);
+    void reserveRows(std::size_t n) { rows_.reserve(n); }
     void removeRow(std::size_t at);
     // Appending (at == cols()) is O(1): no row is touched. Otherwise O(entries).
     void insertColumn(std::size_t at);

@@ -40,6 +40,14 @@ std::size_t Model::addCompartment(Compartment c, std::optional<std::size_t> at)
     return i;
 }
 
+void Model::reserve(std::size_t n)
+{
+    compartments_.reserve(n);
+    dietImport_.reserve(n);
+    diet_.reserveRows(n);
+    routing_.reserveRows(n);
+}
+
 void Model::removeCompartment(std::size_t i)
 {
     compartments_.erase(compartments_.begin() + static_cast<std::ptrdiff_t>(i));

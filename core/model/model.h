@@ -66,6 +66,8 @@ public:
     // harvest gain an empty row/column for it; appending is amortised O(1) in the grids.
     std::size_t addCompartment(Compartment c, std::optional<std::size_t> at = std::nullopt);
     void removeCompartment(std::size_t i);
+    // Room for n compartments, so that a reader appending them moves none of them again.
+    void reserve(std::size_t n);
     void moveCompartment(std::size_t from, std::size_t to);
 
     std::vector<std::size_t> detritusPools() const;  // indices of detritus compartments, in order

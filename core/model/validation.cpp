@@ -3,6 +3,7 @@
 #include <cmath>
 #include <cstdio>
 #include <string>
+#include <unordered_map>
 
 #include "core/model/text.h"
 
@@ -68,6 +69,8 @@ private:
 
     void checkNames()
     {
+        std::unordered_map<std::string_view, std::size_t> first;  // trimmed name -> first index using it
+        first.reserve(m_.size());
         for (std::size_t i = 0; i < m_.size(); ++i) {
             const std::string_view n = trim(m_.compartment(i).name);
             if (n.empty()) {
@@ -75,14 +78,12 @@ private:
                     "give every compartment a name; diet, harvest and routing refer to compartments by name");
                 continue;
             }
-            for (std::size_t j = 0; j < i; ++j)
-                if (trim(m_.compartment(j).name) == n) {
-                    add(check::kDuplicateName, i, "",
-                        "the name " + quoted(n) + " is used by compartments " + std::to_string(j + 1) + " and " +
-                            std::to_string(i + 1),
-                        "rename one of them; names must be unique");
-                    break;
-                }
+            const auto [it, isNew] = first.emplace(n, i);
+            if (!isNew)
+                add(check::kDuplicateName, i, "",
+                    "the name " + quoted(n) + " is used by compartments " + std::to_string(it->second + 1) + " and " +
+                        std::to_string(i + 1),
+                    "rename one of them; names must be unique");
         }
     }
 
@@ -134,8 +135,7 @@ private:
         const Compartment& c = m_.compartment(predator);
         if (c.kind != CompartmentKind::Consumer) {
             std::optional<std::string> firstPrey;
-            for (std::size_t prey = 0; prey < m_.size() && !firstPrey; ++prey)
-                if (m_.diet(predator, prey) != 0) firstPrey = m_.compartment(prey).name;
+            if (const auto row = m_.dietRow(predator); !row.empty()) firstPrey = m_.compartment(row.front().col).name;
             if (!firstPrey && m_.dietImport(predator) != 0) firstPrey = "import";
             if (firstPrey) {
                 const bool producer = c.kind == CompartmentKind::Producer;
@@ -155,8 +155,7 @@ private:
                 "diet entries are shares of the predator's food; each row sums to 1")
                 .prey = prey;
         };
-        for (std::size_t prey = 0; prey < m_.size(); ++prey)
-            checkFraction(m_.diet(predator, prey), m_.compartment(prey).name);
+        for (const GridEntry& e : m_.dietRow(predator)) checkFraction(e.value, m_.compartment(e.col).name);
         checkFraction(m_.dietImport(predator), "import");
 
         const double sum = m_.dietRowSum(predator);
@@ -173,16 +172,12 @@ private:
 
     void checkRouting(std::size_t source)
     {
-        bool explicitRouting = false;
-        for (std::size_t pool = 0; pool < m_.size(); ++pool)
-            if (m_.routing(source, pool) != 0) explicitRouting = true;
-        if (!explicitRouting) return;  // default: everything to the first pool
+        const auto row = m_.routingRow(source);
+        if (row.empty()) return;  // default: everything to the first pool
 
         double sum = 0;
-        for (std::size_t pool = 0; pool < m_.size(); ++pool) {
-            const double f = m_.routing(source, pool);
+        for (const auto& [pool, f] : row) {
             sum += f;
-            if (f == 0) continue;
             const std::string poolName = m_.compartment(pool).name;
             if (f < 0 || f > 1)
                 add(check::kRoutingFraction, source, "routing",

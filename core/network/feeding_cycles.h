@@ -18,9 +18,10 @@
 // The number of simple cycles can grow exponentially with dense feeding loops, so the
 // enumeration has a budget; when it runs out, `complete` is false and the residual
 // flows are those of the nexuses finished so far (the caller says so to the user).
-// Search order and the reachability passes follow the published procedure, so the
-// residual flows, and the effective trophic levels built on them, can be checked against
-// published figures (tests/core/network/feeding_cycles_test.cpp).
+// The search order follows the published procedure, so the residual flows, and the
+// effective trophic levels built on them, can be checked against published figures
+// (tests/core/network/feeding_cycles_test.cpp). Cost: one pass over the arcs per weak arc
+// removed, plus the cycles enumerated (feeding_cycles.cpp says how).
 #pragma once
 
 #include <cstddef>

@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <limits>
+#include <string>
 
 #include <Eigen/LU>
 
@@ -40,6 +41,18 @@ void networkAnalysis(const FlowNetwork& net, SystemIndicators& s)
             if (net.flows(i, j) != 0.0) ++s.links;
     s.connectance = n > 0 ? static_cast<double>(s.links) / static_cast<double>(n * n) : kNaN;
     s.linkDensity = n > 0 ? static_cast<double>(s.links) / static_cast<double>(n) : kNaN;
+    std::size_t living = 0;
+    s.feedingLinks = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+        if (!net.isLiving(i)) continue;
+        ++living;
+        for (std::size_t j = 0; j < n; ++j)
+            if (net.isLiving(j) && net.flows(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) != 0.0)
+                ++s.feedingLinks;
+    }
+    s.foodWebConnectance = living > 0 ? static_cast<double>(s.feedingLinks) / static_cast<double>(living * living) : kNaN;
+    for (std::size_t j = 0; j < n; ++j)
+        if (net.roles[j] == NodeRole::Detritus) s.totalDetritusInflow += net.throughflow(j);
 
     // Finn cycling index: G_ij = F_ij / T_i, N = (I - G)^-1.
     Eigen::MatrixXd G = Eigen::MatrixXd::Zero(N, N);
@@ -87,7 +100,38 @@ void networkAnalysis(const FlowNetwork& net, SystemIndicators& s)
     s.overhead = s.capacity - s.ascendency;
 }
 
+// Published (log Q weights) and intake-weighted system omnivory over consumers with
+// intake Q_j and omnivory OI_j.
+void systemOmnivory(const std::vector<double>& intake, const std::vector<double>& omnivory, SystemIndicators& s)
+{
+    double logWeighted = 0, logWeight = 0, weighted = 0, weight = 0;
+    for (std::size_t j = 0; j < intake.size(); ++j) {
+        if (!std::isfinite(omnivory[j]) || !(intake[j] > 0.0)) continue;
+        logWeighted += omnivory[j] * std::log(intake[j]);
+        logWeight += std::log(intake[j]);
+        weighted += omnivory[j] * intake[j];
+        weight += intake[j];
+    }
+    s.systemOmnivory = ratioOrNaN(logWeighted, logWeight);
+    s.omnivoryIntakeWeighted = ratioOrNaN(weighted, weight);
+}
+
 }  // namespace
+
+std::vector<std::string> assignProducers(FlowNetwork& net, const std::vector<std::string>& names)
+{
+    std::vector<std::string> missing;
+    std::vector<bool> named(net.size(), false);
+    for (const std::string& name : names) {
+        bool found = false;
+        for (std::size_t j = 0; j < net.size(); ++j)
+            if (net.names[j] == name && net.isLiving(j)) named[j] = found = true;
+        if (!found) missing.push_back(name);
+    }
+    for (std::size_t j = 0; j < net.size(); ++j)
+        if (net.isLiving(j)) net.roles[j] = named[j] ? NodeRole::Producer : NodeRole::Consumer;
+    return missing;
+}
 
 SystemIndicators systemIndicators(const FlowNetwork& net)
 {
@@ -95,28 +139,35 @@ SystemIndicators systemIndicators(const FlowNetwork& net)
     networkAnalysis(net, s);
     const std::size_t n = net.size();
     double tpp = 0, biomass = 0;
+    s.producersIdentified = false;
     for (std::size_t j = 0; j < n; ++j) {
-        if (net.roles[j] == NodeRole::Producer) tpp += net.imports[j];
+        if (net.roles[j] == NodeRole::Producer) {
+            tpp += net.imports[j];
+            s.producersIdentified = true;
+        }
         if (net.isLiving(j)) biomass += net.stocks[j];
     }
-    s.totalPrimaryProduction = tpp;
+    s.totalPrimaryProduction = s.producersIdentified ? tpp : kNaN;
     s.totalLivingBiomass = biomass;
-    s.tppOverR = ratioOrNaN(tpp, s.totalRespiration);
-    s.tppOverB = ratioOrNaN(tpp, biomass);
+    s.tppOverR = s.producersIdentified ? ratioOrNaN(tpp, s.totalRespiration) : kNaN;
+    s.tppOverB = s.producersIdentified ? ratioOrNaN(tpp, biomass) : kNaN;
 
     const FlowTrophicLevels levels = flowTrophicLevels(net);
-    double weighted = 0, weight = 0;
+    std::vector<double> intake(n, 0.0), omnivory(n, kNaN);
     for (std::size_t j = 0; j < n; ++j) {
         if (levels.fixedAtOne[j]) continue;
-        const double intake = net.inflow(j);
-        weighted += intake * levels.omnivory[j];
-        weight += intake;
+        intake[j] = net.inflow(j);
+        omnivory[j] = levels.omnivory[j];
     }
-    s.systemOmnivory = ratioOrNaN(weighted, weight);
+    systemOmnivory(intake, omnivory, s);
 
-    s.totalCatch = 0;
-    for (std::size_t j = 0; j < n; ++j) s.totalCatch += net.catchTotal(j);
-    s.catchPpr = s.catchPprShareOfTpp = s.catchMeanTl = kNaN;
+    s.totalCatch = s.totalLandings = 0;
+    for (std::size_t j = 0; j < n; ++j) {
+        s.totalCatch += net.catchTotal(j);
+        s.totalLandings += net.landings(j);
+    }
+    s.catchPpr = s.catchPprShareOfTpp = s.catchMeanTl = s.catchMeanTlWithDiscards = kNaN;
+    s.catchPprProducersOnly = s.catchPprProducersOnlyShare = kNaN;
     return s;
 }
 
@@ -130,23 +181,28 @@ SystemIndicators systemIndicators(const Model& model, const BalanceSheet& sheet,
         return i < sheet.rows.size() ? &sheet.rows[i] : nullptr;
     };
 
-    double tpp = 0, biomass = 0, weighted = 0, weight = 0;
+    double tpp = 0, biomass = 0;
+    std::vector<double> intake(n, 0.0), omnivory(n, kNaN);
+    s.producersIdentified = false;
     for (std::size_t i = 0; i < n; ++i) {
         const CompartmentBalance* r = rowOf(i);
         if (!r) continue;
         const CompartmentKind kind = model.compartment(i).kind;
-        if (kind == CompartmentKind::Producer) tpp += finite(r->production);
+        if (kind == CompartmentKind::Producer) {
+            tpp += finite(r->production);
+            s.producersIdentified = true;
+        }
         if (kind != CompartmentKind::Detritus) biomass += finite(r->biomass);
         if (kind == CompartmentKind::Consumer && std::isfinite(r->oi) && std::isfinite(r->consumption)) {
-            weighted += r->consumption * r->oi;
-            weight += r->consumption;
+            intake[i] = r->consumption;
+            omnivory[i] = r->oi;
         }
     }
-    s.totalPrimaryProduction = tpp;
+    s.totalPrimaryProduction = s.producersIdentified ? tpp : kNaN;
     s.totalLivingBiomass = biomass;
-    s.tppOverR = ratioOrNaN(tpp, s.totalRespiration);
-    s.tppOverB = ratioOrNaN(tpp, biomass);
-    s.systemOmnivory = ratioOrNaN(weighted, weight);
+    s.tppOverR = s.producersIdentified ? ratioOrNaN(tpp, s.totalRespiration) : kNaN;
+    s.tppOverB = s.producersIdentified ? ratioOrNaN(tpp, biomass) : kNaN;
+    systemOmnivory(intake, omnivory, s);
 
     // Primary production required per unit production: (I - A) ppr = b, with
     // A_ji = (Q_j / P_j) DC_ij for consumers j and b = 1 at producers and detritus.
@@ -187,35 +243,47 @@ SystemIndicators systemIndicators(const Model& model, const BalanceSheet& sheet,
         }
     }
     const bool usable = sheet.rows.size() == n;
-    s.catchPpr = s.catchPprShareOfTpp = s.catchMeanTl = kNaN;
-    s.totalCatch = 0;
-    double catchTl = 0;
+    s.catchPpr = s.catchPprShareOfTpp = s.catchMeanTl = s.catchMeanTlWithDiscards = kNaN;
+    s.catchPprProducersOnly = s.catchPprProducersOnlyShare = kNaN;
+    s.totalCatch = s.totalLandings = 0;
+    double catchTl = 0, landingsTl = 0;
     bool tlKnown = true;
     for (std::size_t i = 0; i < n; ++i) {
-        const double y = net.catchTotal(i);
-        if (y == 0.0) continue;
+        const double y = net.catchTotal(i), landed = net.landings(i);
+        if (y == 0.0 && landed == 0.0) continue;
         s.totalCatch += y;
+        s.totalLandings += landed;
         const CompartmentBalance* r = rowOf(i);
-        if (r && std::isfinite(r->tl)) catchTl += y * r->tl;
-        else tlKnown = false;
+        if (r && std::isfinite(r->tl)) {
+            catchTl += y * r->tl;
+            landingsTl += landed * r->tl;
+        } else {
+            tlKnown = false;
+        }
     }
-    if (s.totalCatch > 0 && tlKnown) s.catchMeanTl = catchTl / s.totalCatch;
+    if (s.totalLandings > 0 && tlKnown) s.catchMeanTl = landingsTl / s.totalLandings;
+    if (s.totalCatch > 0 && tlKnown) s.catchMeanTlWithDiscards = catchTl / s.totalCatch;
     if (usable) {
         const Eigen::FullPivLU<Eigen::MatrixXd> lu(A);
         if (lu.isInvertible()) {
-            const Eigen::VectorXd ppr = lu.solve(b);
+            // b = 1 at producers and pools (detritus as level-I supply), or at producers only.
+            Eigen::VectorXd producersOnly = b;
+            for (std::size_t j = 0; j < n; ++j)
+                if (model.compartment(j).kind == CompartmentKind::Detritus) producersOnly(static_cast<Eigen::Index>(j)) = 0.0;
+            const Eigen::VectorXd ppr = lu.solve(b), pprProducers = lu.solve(producersOnly);
             s.pprPerUnitProduction.assign(ppr.data(), ppr.data() + ppr.size());
             for (std::size_t j = 0; j < n; ++j)
                 if (!defined[j]) s.pprPerUnitProduction[j] = kNaN;
-            if (s.totalCatch == 0) {
-                s.catchPpr = s.catchPprShareOfTpp = 0.0;  // nothing caught, nothing required
-            } else {
-                double required = 0;
-                for (std::size_t i = 0; i < n; ++i)
-                    if (net.catchTotal(i) != 0.0) required += net.catchTotal(i) * s.pprPerUnitProduction[i];
-                s.catchPpr = required;
-                s.catchPprShareOfTpp = ratioOrNaN(required, tpp);
-            }
+            double required = 0, requiredProducers = 0;
+            for (std::size_t i = 0; i < n; ++i)
+                if (net.catchTotal(i) != 0.0) {
+                    required += net.catchTotal(i) * s.pprPerUnitProduction[i];
+                    requiredProducers += net.catchTotal(i) * (defined[i] ? pprProducers(static_cast<Eigen::Index>(i)) : kNaN);
+                }
+            s.catchPpr = required;
+            s.catchPprProducersOnly = requiredProducers;
+            s.catchPprShareOfTpp = ratioOrNaN(required, tpp + s.totalDetritusInflow);
+            s.catchPprProducersOnlyShare = ratioOrNaN(requiredProducers, tpp);
         }
     }
     return s;

@@ -10,18 +10,33 @@
 //   ami  = sum_ij T_ij/tstp log2(T_ij tstp / (T_i. T_.j)),  h = -sum_ij T_ij/tstp log2(T_ij/tstp)
 //   ascendency = tstp ami, capacity = tstp h, overhead = capacity - ascendency
 //   links = nonzero internal flows (self-loops counted), connectance = links / n^2
+//   foodWebConnectance = feeding links among living compartments (cannibalism counted)
+//                        / (living compartments)^2: the directed connectance of food-web
+//                        studies (Martinez 1992, Am Nat 139:1208, from memory), beside the
+//                        ENA connectance above, which counts every internal flow.
 // Food-web figures: total primary production (net production of producers; for plain
-// flow networks the imports of producer nodes), TPP/R with R the respiration of the
-// network (consumers only for scenarios, which enter producers with net production),
-// TPP/B and total living biomass, system omnivory index (intake-weighted mean OI of
-// consumers, this project's convention).
-// Catch figures (solved scenarios only, Pauly & Christensen 1995, Nature 374:255):
-//   primary production required per unit production of j:
-//     ppr_j = 1 for producers and detritus pools (both level I; counting detritus with
-//     primary production follows that paper as recalled from memory, not re-read);
-//     ppr_j = (Q_j / P_j) sum_i DC_ij ppr_i for consumers (imported food needs none from
-//     this system); NaN for a consumer without positive P and for whatever eats it;
-//   PPR of the catch = sum_j Y_j ppr_j;  mean TL of the catch = sum_j Y_j TL_j / sum_j Y_j.
+// flow networks the imports of producer nodes; NaN with producersIdentified false when
+// no producer can be told apart), TPP/R with R the respiration of the network
+// (consumers only for scenarios, which enter producers with net production), TPP/B and
+// total living biomass.
+//   systemOmnivory      = sum_j OI_j log(Q_j) / sum_j log(Q_j) over consumers, the
+//                         published system omnivory index (Christensen & Pauly 1993,
+//                         ICLARM Conf Proc 26; the weighting as recalled from memory).
+//                         It depends on the units: log(Q) < 0 when Q < 1.
+//   omnivoryIntakeWeighted = sum_j OI_j Q_j / sum_j Q_j (this project's own variant,
+//                         independent of units; shown under this name only).
+// Catch figures (solved scenarios only):
+//   primary production required per unit production of j (Pauly & Christensen 1995,
+//   Nature 374:255): ppr_j = (Q_j / P_j) sum_i DC_ij ppr_i for consumers (imported food
+//   needs none from this system); ppr_j = 1 for producers; for detritus pools either
+//     1, detritus counted as level-I supply (catchPpr, divided by TPP + detritus inflow),
+//     0, producers only: detritus eaten needs no further primary production
+//        (catchPprProducersOnly, divided by TPP); this project's two labelled readings,
+//   NaN for a consumer without positive P and for whatever eats it;
+//   PPR of the catch = sum_j Y_j ppr_j, Y = landings + dead discards.
+//   Mean trophic level of the catch on landings, sum_j L_j TL_j / sum_j L_j, as in the
+//   analyses of fishing down marine food webs (Pauly et al. 1998, Science 279:860);
+//   beside it the same on landings plus dead discards (catchMeanTlWithDiscards).
 #pragma once
 
 #include <cstddef>
@@ -39,24 +54,38 @@ struct SystemIndicators {
     double ami = 0.0, flowDiversity = 0.0, ascendency = 0.0, capacity = 0.0, overhead = 0.0;
     std::size_t links = 0;
     double connectance = 0.0, linkDensity = 0.0;
+    std::size_t feedingLinks = 0;     // nonzero flows among living compartments
+    double foodWebConnectance = 0.0;  // feedingLinks / living^2
     bool fciSingular = false;  // I - G singular (a closed loop): fci NaN
 
     // Food web.
+    bool producersIdentified = true;  // false: no producer told apart; TPP figures NaN
     double totalPrimaryProduction = 0.0, totalRespiration = 0.0, totalLivingBiomass = 0.0;
     double tppOverR = 0.0, tppOverB = 0.0;  // NaN when R or B is 0
-    double systemOmnivory = 0.0;            // NaN without consumers
+    double systemOmnivory = 0.0;            // published, log(Q)-weighted; NaN without consumers
+    double omnivoryIntakeWeighted = 0.0;    // Q-weighted (project's own); NaN without consumers
 
     // Catch (solved scenarios; NaN for plain flow networks or without catch).
-    double totalCatch = 0.0;
-    double catchPpr = 0.0;             // PPR of the catch, flow units
-    double catchPprShareOfTpp = 0.0;   // catchPpr / TPP
-    double catchMeanTl = 0.0;
-    std::vector<double> pprPerUnitProduction;  // per node; empty for plain flow networks
+    double totalCatch = 0.0, totalLandings = 0.0;
+    double totalDetritusInflow = 0.0;  // sum of the pools' inflows (internal + import)
+    double catchPpr = 0.0;             // PPR of the catch, detritus as level-I supply, flow units
+    double catchPprShareOfTpp = 0.0;   // catchPpr / (TPP + detritus inflow): the matching total
+    double catchPprProducersOnly = 0.0;       // PPR with detritus needing none
+    double catchPprProducersOnlyShare = 0.0;  // catchPprProducersOnly / TPP
+    double catchMeanTl = 0.0;                 // on landings (Pauly et al. 1998)
+    double catchMeanTlWithDiscards = 0.0;     // on landings + dead discards
+    std::vector<double> pprPerUnitProduction;  // per node, detritus as level-I supply; empty for plain networks
 };
 
 // ENA and food-web figures on a flow network (omnivory from flowTrophicLevels); catch
 // figures NaN.
 SystemIndicators systemIndicators(const FlowNetwork& network);
+
+// Marks the named nodes as producers (their imports as primary production) and every
+// other living node without intake from other nodes as a consumer fed from outside:
+// for SCOR networks whose producers cannot be told apart from their flows. Returns the
+// names not found.
+std::vector<std::string> assignProducers(FlowNetwork& network, const std::vector<std::string>& names);
 
 // The same for a solved scenario plus the catch figures, using the sheet's TL and OI.
 SystemIndicators systemIndicators(const Model& model, const BalanceSheet& sheet, const FlowNetwork& network);

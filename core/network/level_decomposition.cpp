@@ -98,6 +98,7 @@ ChainDecomposition summarise(const FlowNetwork& net, const std::vector<bool>& fe
             if (s == 0.0) continue;
             bin.throughput += s * net.throughflow(j);
             bin.biomass += s * net.stocks[j];
+            if (net.roles[j] == NodeRole::Detritus) bin.biomassDetritus += s * net.stocks[j];
             if (std::isfinite(net.production[j])) bin.production += s * net.production[j];
             const double caught = net.catchTotal(j);
             bin.catchTotal += s * caught;
@@ -105,8 +106,13 @@ ChainDecomposition summarise(const FlowNetwork& net, const std::vector<bool>& fe
             bin.exportOther += s * (net.exports[j] - net.landings(j));
         }
         if (!productionKnown) bin.production = kNaN;
-        bin.te = bin.throughput > 0.0 ? (bin.passedUp + bin.catchTotal + bin.exportOther) / bin.throughput : kNaN;
+        bin.te = k > 0 && bin.throughput > 0.0 ? (bin.passedUp + bin.catchTotal + bin.exportOther) / bin.throughput : kNaN;
         out.levels.push_back(bin);
+    }
+    for (std::size_t k = 0; k < out.levels.size(); ++k) {
+        TrophicLevelBin& bin = out.levels[k];
+        const bool last = k + 1 == out.levels.size();
+        bin.productionRatio = !last && bin.production > 0.0 ? out.levels[k + 1].production / bin.production : kNaN;
     }
     out.meanTe = kNaN;
     if (out.levels.size() >= 4) {
@@ -158,6 +164,24 @@ LevelDecomposition decomposeLevels(const FlowNetwork& net, int maxLevels, Feedin
     pad(fromProducers);
     pad(fromDetritus);
     const Eigen::MatrixXd combined = fromProducers + fromDetritus;
+
+    // Level I: shares of primary production and of detritus inflow that consumers eat.
+    double primary = 0, primaryEaten = 0, detritusIn = 0, detritusEaten = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+        if (net.roles[i] == NodeRole::Consumer) continue;
+        double eaten = 0;
+        for (std::size_t j = 0; j < n; ++j)
+            if (net.roles[j] == NodeRole::Consumer) eaten += net.flows(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j));
+        if (net.roles[i] == NodeRole::Producer) {
+            primary += net.imports[i];
+            primaryEaten += eaten;
+        } else {
+            detritusIn += net.throughflow(i);
+            detritusEaten += eaten;
+        }
+    }
+    out.primaryProductionConsumed = primary > 0.0 ? primaryEaten / primary : kNaN;
+    out.detritusInflowConsumed = detritusIn > 0.0 ? detritusEaten / detritusIn : kNaN;
 
     out.fromProducers = summarise(net, fed, std::move(fromProducers), levelCount);
     out.fromDetritus = summarise(net, fed, std::move(fromDetritus), levelCount);

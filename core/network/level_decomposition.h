@@ -24,7 +24,16 @@
 //   throughput_k = sum_j s_jk T_j, likewise biomass, production and catch,
 //   passedUp_k   = sum_{i, consumer j} s_ik F_ij       (food reaching level k+1),
 //   export_k     = sum_j s_jk (export_j - landings_j)  (other usable exports),
-//   TE_k         = (passedUp_k + catch_k + export_k) / throughput_k.
+//   TE_k         = (passedUp_k + catch_k + export_k) / throughput_k,  for k >= II only.
+// Level I mixes producers and detritus, and transfer efficiency through detritus is not
+// defined (unconsumed detritus leaving the system would count as "transferred"), so TE
+// at level I is NaN; in its place, each named:
+//   primaryProductionConsumed = sum_{producer i, consumer j} F_ij / TPP,
+//   detritusInflowConsumed    = sum_{pool d, consumer j} F_dj / sum_d T_d.
+// Labelled alternative, the production ratio that limnologists compute:
+//   productionRatio_k = P_{k+1} / P_k  (production apportioned to levels like throughput).
+// Level-I biomass is shown with producers and detritus apart (biomassDetritus): a
+// detritus stock can dominate the bar.
 // Computed three times: chains starting at producers (s seeded only at producers),
 // chains starting at detritus, and combined (their sum). Mean TE = geometric mean of
 // TE at levels II-IV (common practice, no source); NaN when one of them is missing.
@@ -51,8 +60,10 @@ enum class FeedingCycles {
 struct TrophicLevelBin {
     int level = 1;  // 1 = I
     double throughput = 0.0, biomass = 0.0, production = 0.0, catchTotal = 0.0;
+    double biomassDetritus = 0.0;  // the part of `biomass` in detritus pools (level I only)
     double passedUp = 0.0, exportOther = 0.0;
-    double te = 0.0;  // NaN when throughput is 0
+    double te = 0.0;               // NaN at level I and when throughput is 0
+    double productionRatio = 0.0;  // P_{k+1} / P_k; NaN at the last level or when unknown
 };
 
 struct ChainDecomposition {
@@ -64,6 +75,8 @@ struct ChainDecomposition {
 struct LevelDecomposition {
     ChainDecomposition fromProducers, fromDetritus, combined;
     FeedingCycles cycles = FeedingCycles::Removed;
+    // Level I instead of a transfer efficiency (see above); NaN without TPP or detritus inflow.
+    double primaryProductionConsumed = 0.0, detritusInflowConsumed = 0.0;
     FeedingCycleRemoval cycleRemoval;  // what was removed (empty when cycles are kept)
     // ETL_j = sum_k k s_jk over the combined chains (1 for producers and detritus).
     Eigen::VectorXd effectiveTrophicLevels() const;

@@ -10,6 +10,7 @@
 #include <random>
 #include <set>
 #include <system_error>
+#include <unordered_map>
 
 #include "core/model/text.h"
 #include "core/store/schema.h"
@@ -190,11 +191,14 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
             out.push_back(pr);
         };
         if (!fraction(m.dietImport(i))) badFraction("the import share of the diet of '" + c.name + "'", "diet", "import");
-        for (std::size_t j = 0; j < m.size(); ++j) {
-            if (m.diet(i, j) != 0.0 && !fraction(m.diet(i, j)))
+        // Both rows in step by column, so the findings come in the order of a cell-by-cell scan.
+        const auto diet = m.dietRow(i), routing = m.routingRow(i);
+        for (std::size_t d = 0, r = 0; d < diet.size() || r < routing.size();) {
+            const std::size_t j = std::min(d < diet.size() ? diet[d].col : m.size(), r < routing.size() ? routing[r].col : m.size());
+            if (d < diet.size() && diet[d].col == j && !fraction(diet[d++].value))
                 badFraction("the share of '" + m.compartment(j).name + "' in the diet of '" + c.name + "'", "diet",
                             m.compartment(j).name);
-            if (m.routing(i, j) != 0.0 && !fraction(m.routing(i, j)))
+            if (r < routing.size() && routing[r].col == j && !fraction(routing[r++].value))
                 badFraction("the share of '" + c.name + "' routed to '" + m.compartment(j).name + "'", "routing",
                             m.compartment(j).name);
         }
@@ -305,17 +309,16 @@ bool writeScenario(sqlite3* db, int version, const Scenario& s, std::optional<st
     }
     Statement insD(db, "INSERT INTO diet (predator_id, prey_id, fraction) VALUES (?1, ?2, ?3)");
     Statement insR(db, "INSERT INTO routing (source_id, pool_id, fraction) VALUES (?1, ?2, ?3)");
-    for (std::size_t i = 0; i < m.size(); ++i)
-        for (std::size_t j = 0; j < m.size(); ++j) {
-            if (m.diet(i, j) != 0.0) {
-                insD.reset();
-                if (!insD.bind(1, ids[i]).bind(2, ids[j]).bind(3, m.diet(i, j)).run()) return false;
-            }
-            if (m.routing(i, j) != 0.0) {
-                insR.reset();
-                if (!insR.bind(1, ids[i]).bind(2, ids[j]).bind(3, m.routing(i, j)).run()) return false;
-            }
+    for (std::size_t i = 0; i < m.size(); ++i) {
+        for (const auto& [j, fraction] : m.dietRow(i)) {
+            insD.reset();
+            if (!insD.bind(1, ids[i]).bind(2, ids[j]).bind(3, fraction).run()) return false;
         }
+        for (const auto& [j, fraction] : m.routingRow(i)) {
+            insR.reset();
+            if (!insR.bind(1, ids[i]).bind(2, ids[j]).bind(3, fraction).run()) return false;
+        }
+    }
     Statement insF(db, "INSERT INTO fleet (scenario_id, position, name, discard_pool_id) VALUES (?1, ?2, ?3, ?4)");
     Statement insH(db, "INSERT INTO harvest (fleet_id, compartment_id, landings, discards, discard_survival) "
                        "VALUES (?1, ?2, ?3, ?4, ?5)");
@@ -408,7 +411,7 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
                                        "The file was left unchanged; it may have been edited by another program."));
     };
 
-    std::map<std::int64_t, std::size_t> index;
+    std::unordered_map<std::int64_t, std::size_t> index;  // row id -> compartment index
     Statement comps(db, "SELECT id, name, kind, diet_import FROM compartment WHERE scenario_id = ?1 ORDER BY position");
     comps.bind(1, id);
     std::vector<std::pair<std::int64_t, double>> imports;

@@ -74,13 +74,12 @@ std::string modelInputsJson(const Model& m)
     w.endArray();
     w.key("diet").beginArray();
     for (std::size_t pred = 0; pred < m.size(); ++pred)
-        for (std::size_t prey = 0; prey < m.size(); ++prey)
-            if (m.diet(pred, prey) != 0.0)
-                w.beginObject()
-                    .field("predator", m.compartment(pred).name)
-                    .field("prey", m.compartment(prey).name)
-                    .field("fraction", m.diet(pred, prey))
-                    .endObject();
+        for (const auto& [prey, fraction] : m.dietRow(pred))
+            w.beginObject()
+                .field("predator", m.compartment(pred).name)
+                .field("prey", m.compartment(prey).name)
+                .field("fraction", fraction)
+                .endObject();
     w.endArray();
     w.key("diet_import").beginArray();
     for (std::size_t pred = 0; pred < m.size(); ++pred)
@@ -89,13 +88,12 @@ std::string modelInputsJson(const Model& m)
     w.endArray();
     w.key("detritus_routing").beginArray();
     for (std::size_t src = 0; src < m.size(); ++src)
-        for (std::size_t pool = 0; pool < m.size(); ++pool)
-            if (m.routing(src, pool) != 0.0)
-                w.beginObject()
-                    .field("source", m.compartment(src).name)
-                    .field("detritus", m.compartment(pool).name)
-                    .field("fraction", m.routing(src, pool))
-                    .endObject();
+        for (const auto& [pool, fraction] : m.routingRow(src))
+            w.beginObject()
+                .field("source", m.compartment(src).name)
+                .field("detritus", m.compartment(pool).name)
+                .field("fraction", fraction)
+                .endObject();
     w.endArray();
     w.key("fleets").beginArray();
     for (const Fleet& f : m.fleets()) {

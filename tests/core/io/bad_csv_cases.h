@@ -58,6 +58,14 @@ inline const std::vector<BadCsvCase>& badCsvCases()
         {"diet_duplicate_row", "diet.csv", 3, 1, {"Snail", "line 2"}},
         {"consumer_without_diet", "diet.csv", 0, 0, {"Snail"}},
         {"producer_with_diet", "diet.csv", 3, 3, {"Algae", "producer"}},
+        // diet.csv in long form (predator,prey,share): the same findings, on the entry's row
+        {"long_diet_sum", "diet.csv", 2, 1, {"Snail", "0.9"}},
+        {"long_diet_duplicate_pair", "diet.csv", 4, 2, {"Algae", "Snail", "line 2"}},
+        {"long_diet_unknown_prey", "diet.csv", 2, 2, {"Algea"}},
+        {"long_diet_unknown_predator", "diet.csv", 2, 1, {"Snial"}},
+        {"long_diet_text_share", "diet.csv", 2, 3, {"number", "abc"}},
+        {"long_diet_negative_share", "diet.csv", 3, 3, {"fraction", "-0.2"}},
+        {"long_diet_empty_share", "diet.csv", 2, 3, {"Algae", "empty"}},
         // harvest.csv
         {"harvest_unknown_compartment", "harvest.csv", 2, 2, {"Pike"}},
         {"harvest_negative_landings", "harvest.csv", 2, 3, {"negative", "-1"}},

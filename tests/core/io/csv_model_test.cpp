@@ -2,6 +2,7 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <fstream>
 #include <map>
 #include <random>
@@ -664,11 +665,144 @@ TEST(CsvModel, RandomModelsRoundTripExactly)
     for (int trial = 0; trial < 60; ++trial) {
         const Model m = randomModel(rng);
         ASSERT_FALSE(hasErrors(validateModel(m))) << "trial " << trial << ": the generator made an invalid model";
-        const Problems written = writeCsvModel(m, dir.path());
-        ASSERT_TRUE(written.empty()) << "trial " << trial << "\n" << listed(written);
+        // Each form on every other model: the writes are synced to disk and dominate the time.
+        for (const DietForm form : {trial % 2 == 0 ? DietForm::Wide : DietForm::Long}) {
+            const Problems written = writeCsvModel(m, dir.path(), {form});
+            ASSERT_TRUE(written.empty()) << "trial " << trial << "\n" << listed(written);
+            const std::string header = readText(dir.path() / "diet.csv").substr(0, 20);
+            EXPECT_EQ(header == "predator,prey,share\n", form == DietForm::Long) << "trial " << trial;
+            const CsvReadResult r = readCsvModel(dir.path());
+            ASSERT_TRUE(r.model) << "trial " << trial << "\n" << listed(r.problems);
+            ASSERT_EQ(*r.model, m) << "trial " << trial << (form == DietForm::Long ? " (long form)" : " (wide form)");
+        }
+    }
+}
+
+// --- diet.csv in long form ---------------------------------------------------------
+
+// validFiles() with its diet written one entry per row, the import of Fish first.
+Files longFormFiles()
+{
+    Files files = validFiles();
+    files["diet.csv"] = "predator,prey,share\n"
+                        "Fish,import,0.1\n"
+                        "Grazer,Algae,0.8\n"
+                        "Fish,Grazer,0.9\n"
+                        "Grazer,Detritus,0.2\n";
+    return files;
+}
+
+TEST(CsvModel, LongFormDietReadsLikeTheWideForm)
+{
+    TempFolder wide("wide"), longForm("long");
+    const CsvReadResult a = readFiles(wide, validFiles());
+    const CsvReadResult b = readFiles(longForm, longFormFiles());
+    ASSERT_TRUE(a.model) << listed(a.problems);
+    ASSERT_TRUE(b.model) << listed(b.problems);
+    EXPECT_TRUE(b.problems.empty()) << listed(b.problems);
+    EXPECT_EQ(*b.model, *a.model);
+    EXPECT_DOUBLE_EQ(b.model->diet(2, 1), 0.9);
+    EXPECT_DOUBLE_EQ(b.model->dietImport(2), 0.1);
+}
+
+TEST(CsvModel, LongFormRowSumFindingIsOnThePredatorsFirstLine)
+{
+    Files files = longFormFiles();
+    files["diet.csv"] = "predator,prey,share\n"
+                        "Grazer,Algae,0.8\n"
+                        "Fish,Grazer,0.5\n"  // Fish: 0.5 + 0.1 = 0.6, its rows on lines 3 and 5
+                        "Grazer,Detritus,0.2\n"
+                        "Fish,import,0.1\n";
+    TempFolder dir("sum");
+    const CsvReadResult r = readFiles(dir, files);
+    const Problem* sum = findCode(r.problems, check::kDietSum);
+    ASSERT_NE(sum, nullptr) << listed(r.problems);
+    EXPECT_EQ(sum->compartment, "Fish");
+    ASSERT_TRUE(sum->location);
+    EXPECT_EQ(sum->location->line, 3);
+    EXPECT_EQ(sum->location->column, 1);
+    // The same words as in wide form.
+    TempFolder wideDir("wide");
+    Files wide = validFiles();
+    wide["diet.csv"] = "predator,Algae,Grazer,Detritus,import\nGrazer,0.8,,0.2,\nFish,,0.5,,0.1\n";
+    const CsvReadResult w = readFiles(wideDir, wide);
+    const Problem* wideSum = findCode(w.problems, check::kDietSum);
+    ASSERT_NE(wideSum, nullptr) << listed(w.problems);
+    EXPECT_EQ(sum->message, wideSum->message);
+    EXPECT_EQ(sum->severity, wideSum->severity);
+}
+
+TEST(CsvModel, LongFormPercentagesGetTheSameHint)
+{
+    Files files = longFormFiles();
+    files["diet.csv"] = "predator,prey,share\nGrazer,Algae,80\nGrazer,Detritus,20\nFish,Grazer,100\n";
+    TempFolder dir("percent");
+    const CsvReadResult r = readFiles(dir, files);
+    EXPECT_FALSE(r.model);
+    const Problem* p = findCode(r.problems, check::kDietFraction);
+    ASSERT_NE(p, nullptr) << listed(r.problems);
+    ASSERT_TRUE(p->location);
+    EXPECT_EQ(p->location->line, 2);
+    EXPECT_EQ(p->location->column, 3);
+    EXPECT_NE(p->hint.find("percentages"), std::string::npos) << p->hint;
+}
+
+TEST(CsvModel, LongFormHeaderWithPreyAndShareCompartmentsIsWide)
+{
+    // Compartments named 'prey' and 'share' make `predator,prey,share` a wide header.
+    Files files;
+    files["compartments.csv"] = kCompartmentsHeader + "\n"
+                                "prey,producer,10,100,,,,,,,\n"
+                                "share,detritus,,,,,,,,,\n"
+                                "Grazer,consumer,5,10,40,,,,,,\n";
+    files["diet.csv"] = "predator,prey,share\nGrazer,0.75,0.25\n";
+    TempFolder dir("ambiguous");
+    const CsvReadResult r = readFiles(dir, files);
+    ASSERT_TRUE(r.model) << listed(r.problems);
+    EXPECT_DOUBLE_EQ(r.model->diet(2, 0), 0.75);
+    EXPECT_DOUBLE_EQ(r.model->diet(2, 1), 0.25);
+    // ... and the writer keeps such a model in wide form, which reads back the same.
+    TempFolder out("ambiguous_out");
+    ASSERT_TRUE(writeCsvModel(*r.model, out.path(), {DietForm::Long}).empty());
+    const CsvReadResult again = readCsvModel(out.path());
+    ASSERT_TRUE(again.model) << listed(again.problems);
+    EXPECT_EQ(*again.model, *r.model);
+}
+
+// A chain of n compartments: producer, detritus, then consumers eating the two before.
+Model chainModel(std::size_t n)
+{
+    Model m;
+    for (std::size_t i = 0; i < n; ++i) {
+        Compartment c;
+        c.name = "Box " + std::to_string(i);
+        c.kind = i == 0 ? CompartmentKind::Producer : i == 1 ? CompartmentKind::Detritus : CompartmentKind::Consumer;
+        if (c.kind != CompartmentKind::Detritus) c.value(Param::Biomass) = 1.0 + double(i);
+        m.addCompartment(std::move(c));
+    }
+    for (std::size_t j = 2; j < n; ++j) {
+        m.setDiet(j, j - 1, 0.75);
+        m.setDiet(j, j - 2, 0.25);
+    }
+    return m;
+}
+
+TEST(CsvModel, WriterChoosesTheDietFormBySize)
+{
+    for (const std::size_t n : {kWideDietMaxCompartments, kWideDietMaxCompartments + 1}) {
+        const Model m = chainModel(n);
+        TempFolder dir("n" + std::to_string(n));
+        ASSERT_TRUE(writeCsvModel(m, dir.path()).empty());
+        const std::string diet = readText(dir.path() / "diet.csv");
+        const bool longForm = n > kWideDietMaxCompartments;
+        EXPECT_EQ(diet.rfind(longForm ? "predator,prey,share\n" : "predator,Box 0,Box 1,", 0), 0u) << n;
+        if (longForm) {  // one line per entry: header + 2 per consumer
+            EXPECT_EQ(std::count(diet.begin(), diet.end(), '\n'), std::ptrdiff_t(1 + 2 * (n - 2)));
+            EXPECT_NE(diet.find("\nBox 5,Box 3,0.25\nBox 5,Box 4,0.75\n"), std::string::npos);
+        }
         const CsvReadResult r = readCsvModel(dir.path());
-        ASSERT_TRUE(r.model) << "trial " << trial << "\n" << listed(r.problems);
-        ASSERT_EQ(*r.model, m) << "trial " << trial;
+        ASSERT_TRUE(r.model) << listed(r.problems);
+        EXPECT_EQ(*r.model, m);
     }
 }
 

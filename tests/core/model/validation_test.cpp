@@ -56,14 +56,16 @@ TEST(Validation, EmptyAndDuplicateNames)
     Model m = soundModel();
     m.addCompartment(makeCompartment("  ", CompartmentKind::Consumer));
     m.addCompartment(makeCompartment("Grazer ", CompartmentKind::Consumer));  // equal after trimming
+    m.addCompartment(makeCompartment(" Grazer", CompartmentKind::Consumer));  // a third: paired with the first
     const Problems all = validateModel(m);
     const auto empty = withCode(all, check::kEmptyName);
     ASSERT_EQ(empty.size(), 1u);
     EXPECT_TRUE(mentions(empty[0], "compartment 4"));
     const auto dup = withCode(all, check::kDuplicateName);
-    ASSERT_EQ(dup.size(), 1u);
+    ASSERT_EQ(dup.size(), 2u);
     EXPECT_TRUE(mentions(dup[0], "'Grazer'"));
     EXPECT_TRUE(mentions(dup[0], "2 and 5"));
+    EXPECT_TRUE(mentions(dup[1], "2 and 6"));
     EXPECT_FALSE(dup[0].hint.empty());
 }
 

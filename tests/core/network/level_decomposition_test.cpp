@@ -24,12 +24,22 @@ TEST(LevelDecomposition, TenPercentChainHasTenPercentAtEveryLevel)
     const LevelDecomposition levels = decomposeLevels(net);
 
     ASSERT_EQ(levels.levelCount(), 4);
-    for (int k = 0; k < 4; ++k) {
+    for (int k = 1; k < 4; ++k) {
         EXPECT_NEAR(levels.fromProducers.levels[k].te, 0.10, 1e-12) << "level " << k + 1;
-        if (k > 0) {
-            EXPECT_NEAR(levels.combined.levels[k].te, 0.10, 1e-12) << "level " << k + 1;
-        }
+        EXPECT_NEAR(levels.combined.levels[k].te, 0.10, 1e-12) << "level " << k + 1;
     }
+    // No transfer efficiency at level I (it mixes producers and detritus); instead the
+    // grazed share of primary production, 100 of 1000, and of detritus inflow, none.
+    for (const ChainDecomposition* c : {&levels.fromProducers, &levels.fromDetritus, &levels.combined})
+        EXPECT_TRUE(std::isnan(c->levels[0].te));
+    EXPECT_NEAR(levels.primaryProductionConsumed, 0.1, 1e-12);
+    EXPECT_NEAR(levels.detritusInflowConsumed, 0.0, 1e-15);
+    // Production ratio P_(k+1) / P_k, each compartment at one level: from the sheet.
+    for (int k = 0; k < 3; ++k)
+        EXPECT_NEAR(levels.combined.levels[k].productionRatio, sheet.rows[k + 1].production / sheet.rows[k].production,
+                    1e-12) << "level " << k + 1;
+    EXPECT_TRUE(std::isnan(levels.combined.levels[3].productionRatio));
+    EXPECT_DOUBLE_EQ(levels.combined.levels[0].biomassDetritus, net.stocks[4]);
     EXPECT_NEAR(levels.fromProducers.meanTe, 0.10, 1e-12);
     EXPECT_NEAR(levels.combined.meanTe, 0.10, 1e-12);
 
@@ -48,11 +58,9 @@ TEST(LevelDecomposition, TenPercentChainHasTenPercentAtEveryLevel)
             EXPECT_EQ(levels.combined.share(j, k), k + 1 == expectedLevel[j] ? 1.0 : 0.0) << net.names[j] << " " << k;
 
     // Detritus: inflow = non-grazed algae 900 + egestion 0.2 x (100 + 10 + 1) = 922.2, none
-    // eaten, all exported: its chains have TE 1 at level I and nothing above.
+    // eaten, all exported: its chains hold level I only.
     EXPECT_NEAR(levels.fromDetritus.levels[0].throughput, 922.2, 1e-9);
-    EXPECT_NEAR(levels.fromDetritus.levels[0].te, 1.0, 1e-12);
     EXPECT_EQ(levels.fromDetritus.levels[1].throughput, 0.0);
-    EXPECT_NEAR(levels.combined.levels[0].te, (100.0 + 922.2) / (1000.0 + 922.2), 1e-12);
 }
 
 // Omnivore eating half producer, half herbivore (invented): half its throughput at

@@ -12,6 +12,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <random>
 
 #include "core/balance/solver.h"
 #include "core/io/scor.h"
@@ -109,6 +110,36 @@ TEST_F(CharcaImport, TrophicLevelsMatchTheReferenceData)
     ASSERT_EQ(sheet.rows.size(), kExpectedTl.size());
     for (std::size_t i = 0; i < kExpectedTl.size(); ++i)
         EXPECT_NEAR(sheet.rows[i].tl, kExpectedTl[i], 1e-9) << sheet.rows[i].name;
+}
+
+TEST_F(CharcaImport, FlowOrderInTheNetworkDoesNotChangeTheModel)
+{
+    ScorNetwork shuffled = net;
+    std::mt19937 rng(7);
+    std::shuffle(shuffled.flows.begin(), shuffled.flows.end(), rng);
+    const ScorImport again = modelFromScor(shuffled, kCharca.string());
+    ASSERT_TRUE(again.model);
+    EXPECT_EQ(*again.model, *imported.model);
+}
+
+TEST(ScorImport, RepeatedFlowsBetweenTheSamePairAreSummed)
+{
+    ScorNetwork net;
+    net.names = {"algae", "grazer", "detritus"};
+    net.livingCount = 2;
+    net.stocks = {5.0, 2.0, 10.0};
+    net.imports = {100.0, 0.0, 0.0};
+    net.exports = {0.0, 0.0, 40.0};
+    net.respiration = {40.0, 10.0, 0.0};
+    net.flows = {{0, 1, 30.0}, {0, 2, 30.0}, {1, 2, 20.0}};
+    ScorNetwork split = net;  // algae -> grazer given as 10 + 20, out of order
+    split.flows = {{1, 2, 20.0}, {0, 1, 10.0}, {0, 2, 30.0}, {0, 1, 20.0}};
+    const ScorImport a = modelFromScor(net, "tiny.scor"), b = modelFromScor(split, "tiny.scor");
+    ASSERT_TRUE(a.model);
+    ASSERT_TRUE(b.model);
+    EXPECT_EQ(*b.model, *a.model);
+    EXPECT_DOUBLE_EQ(b.model->compartment(1).value(Param::QB).value_or(0), 30.0 / 2.0);
+    EXPECT_DOUBLE_EQ(b.model->diet(1, 0), 1.0);
 }
 
 TEST(ScorImport, LivingNodeWithoutStockIsAnError)
