@@ -5,21 +5,11 @@
 
 #include "core/io/csv_model.h"
 #include "core/model/text.h"
+#include "core/store/project_file_detail.h"
 
 namespace tl {
 namespace fs = std::filesystem;
 namespace {
-
-Problem pathProblem(const fs::path& path, std::string code, std::string message, std::string hint = {})
-{
-    Problem p;
-    p.code = std::move(code);
-    p.severity = Severity::Error;
-    p.message = std::move(message);
-    p.hint = std::move(hint);
-    p.location = FileLocation{path.string(), 0, 0};
-    return p;
-}
 
 std::string quotedNames(const Project& project)
 {
@@ -72,7 +62,7 @@ void readProjectFile(const fs::path& path, const ModelSourceOptions& options, Mo
         const Scenario* chosen = project.findScenario(*name);
         if (!chosen) {
             const std::string names = quotedNames(project);
-            out.problems.push_back(pathProblem(path, "store-unknown-scenario",
+            out.problems.push_back(store::detail::fileProblem(path, "store-unknown-scenario",
                                                "has no scenario named '" + *name + "' (it has " +
                                                    (names.empty() ? "none" : names) + ")"));
             return;
@@ -91,7 +81,7 @@ ModelSource readModelSource(const fs::path& path, const ModelSourceOptions& opti
     ModelSource out;
     std::error_code ec;
     if (!fs::exists(path, ec)) {
-        out.problems.push_back(pathProblem(path, "store-not-found",
+        out.problems.push_back(store::detail::fileProblem(path, "store-not-found",
                                            "no such file or folder (expected a CSV model folder or a .tledger project)"));
         return out;
     }
@@ -110,10 +100,10 @@ StoreResult<Scenario> readScenarioSource(const fs::path& path, const std::option
     if (scenarios.size() == 1) {
         result.value = std::move(scenarios.front());
     } else if (scenarios.empty()) {
-        result.problems.push_back(pathProblem(path, "store-no-scenario", "holds no scenario yet",
+        result.problems.push_back(store::detail::fileProblem(path, "store-no-scenario", "holds no scenario yet",
                                               "Import one with: tledger import CSV_FOLDER --into PROJECT --scenario NAME"));
     } else {
-        result.problems.push_back(pathProblem(path, "store-scenario-needed",
+        result.problems.push_back(store::detail::fileProblem(path, "store-scenario-needed",
                                               "holds " + std::to_string(scenarios.size()) + " scenarios (" +
                                                   quotedNames(*source.project) + "); say which one",
                                               "Add --scenario NAME."));

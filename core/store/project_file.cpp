@@ -16,7 +16,11 @@ using namespace store::detail;
 StoreResult<Project> ProjectFile::load()
 {
     StoreResult<Project> result;
-    execute(db_, "BEGIN");  // one read snapshot for the whole project
+    if (const auto error = execute(db_, "BEGIN")) {  // one read snapshot for the whole project
+        result.problems.push_back(fileProblem(path_, isBusy(db_) ? "store-busy" : "store-read-failed",
+                                              "cannot be read: " + *error));
+        return result;
+    }
     const auto info = readInfo(db_);
     if (!info) {
         result.problems.push_back(fileProblem(path_, "store-damaged", "the project information is missing"));
@@ -63,7 +67,11 @@ StoreResult<std::vector<ScenarioSummary>> ProjectFile::listScenarios()
 StoreResult<Scenario> ProjectFile::loadScenario(const std::string& name)
 {
     StoreResult<Scenario> result;
-    execute(db_, "BEGIN");
+    if (const auto error = execute(db_, "BEGIN")) {
+        result.problems.push_back(fileProblem(path_, isBusy(db_) ? "store-busy" : "store-read-failed",
+                                              "cannot be read: " + *error));
+        return result;
+    }
     const auto info = readInfo(db_);
     const auto id = scenarioId(db_, trimmed(name));
     if (!info) result.problems.push_back(fileProblem(path_, "store-damaged", "the project information is missing"));
@@ -128,12 +136,6 @@ Problems ProjectFile::save(const Project& project)
     });
 }
 
-Problems ProjectFile::saveInfo(const ProjectInfo& info)
-{
-    return writeTransaction(db_, path_, readOnly_, readOnlyReason_, "saving the project information",
-                            [&](Problems&) { return writeInfo(db_, info); });
-}
-
 Problems ProjectFile::saveScenario(const Scenario& scenario)
 {
     Problems problems;
@@ -157,76 +159,6 @@ Problems ProjectFile::createScenario(const Scenario& scenario)
         }
         return writeScenario(db_, schemaVersion_, scenario, std::nullopt);
     });
-}
-
-Problems ProjectFile::duplicateScenario(const std::string& from, const std::string& to, const std::string& description)
-{
-    const std::string source = trimmed(from), target = trimmed(to);
-    if (target.empty()) return {fileProblem(path_, "store-invalid-name", "a scenario needs a name (it is empty)")};
-    return writeTransaction(db_, path_, readOnly_, readOnlyReason_, "duplicating scenario '" + source + "'",
-                            [&](Problems& out) {
-                                const auto id = scenarioId(db_, source);
-                                const auto info = readInfo(db_);
-                                if (!id || !info) {
-                                    out.push_back(fileProblem(path_, "store-unknown-scenario",
-                                                              "has no scenario named '" + source + "'"));
-                                    return false;
-                                }
-                                if (scenarioId(db_, target)) {
-                                    out.push_back(fileProblem(path_, "store-duplicate-name",
-                                                              "already has a scenario named '" + target + "'",
-                                                              "Choose another name."));
-                                    return false;
-                                }
-                                auto copy = readScenario(db_, path_, schemaVersion_, *id, *info, out);
-                                if (!copy) return false;
-                                copy->name = target;
-                                copy->parent = source;
-                                copy->created = utcNowIso8601();
-                                if (!description.empty()) copy->description = description;
-                                return writeScenario(db_, schemaVersion_, *copy, std::nullopt);
-                            });
-}
-
-Problems ProjectFile::renameScenario(const std::string& from, const std::string& to)
-{
-    const std::string source = trimmed(from), target = trimmed(to);
-    if (target.empty()) return {fileProblem(path_, "store-invalid-name", "a scenario needs a name (it is empty)")};
-    return writeTransaction(db_, path_, readOnly_, readOnlyReason_, "renaming scenario '" + source + "'",
-                            [&](Problems& out) {
-                                if (!scenarioId(db_, source)) {
-                                    out.push_back(fileProblem(path_, "store-unknown-scenario",
-                                                              "has no scenario named '" + source + "'"));
-                                    return false;
-                                }
-                                if (source == target) return true;
-                                if (scenarioId(db_, target)) {
-                                    out.push_back(fileProblem(path_, "store-duplicate-name",
-                                                              "already has a scenario named '" + target + "'",
-                                                              "Choose another name."));
-                                    return false;
-                                }
-                                Statement rename(db_, "UPDATE scenario SET name = ?2 WHERE name = ?1");
-                                Statement children(db_, "UPDATE scenario SET parent = ?2 WHERE parent = ?1");
-                                return rename.bind(1, source).bind(2, target).run() &&
-                                       children.bind(1, source).bind(2, target).run();
-                            });
-}
-
-Problems ProjectFile::deleteScenario(const std::string& name)
-{
-    const std::string target = trimmed(name);
-    return writeTransaction(db_, path_, readOnly_, readOnlyReason_, "deleting scenario '" + target + "'",
-                            [&](Problems& out) {
-                                Statement del(db_, "DELETE FROM scenario WHERE name = ?1");
-                                if (!del.bind(1, target).run()) return false;
-                                if (sqlite3_changes(db_) == 0) {
-                                    out.push_back(fileProblem(path_, "store-unknown-scenario",
-                                                              "has no scenario named '" + target + "'"));
-                                    return false;
-                                }
-                                return true;
-                            });
 }
 
 StoreResult<std::int64_t> ProjectFile::addRun(const StoredRun& run)
@@ -292,46 +224,6 @@ Problems ProjectFile::deleteRun(std::int64_t id)
         }
         return true;
     });
-}
-
-StoreResult<Project> loadProjectFromFile(const fs::path& path)
-{
-    auto opened = ProjectFile::open(path, OpenMode::ReadOnly);
-    StoreResult<Project> result;
-    if (!opened.file) {
-        result.problems = std::move(opened.problems);
-        return result;
-    }
-    result = opened.file->load();
-    for (Problem& p : opened.problems)
-        if (p.code != "store-newer-version") result.problems.push_back(std::move(p));  // read-only is what was asked
-    return result;
-}
-
-StoreResult<Scenario> loadScenarioFromFile(const fs::path& path, const std::optional<std::string>& name)
-{
-    StoreResult<Scenario> result;
-    auto opened = ProjectFile::open(path, OpenMode::ReadOnly);
-    if (!opened.file) {
-        result.problems = std::move(opened.problems);
-        return result;
-    }
-    if (name && !trimmed(*name).empty()) return opened.file->loadScenario(*name);
-    auto list = opened.file->listScenarios();
-    if (!list.value) {
-        result.problems = std::move(list.problems);
-        return result;
-    }
-    if (list.value->size() == 1) return opened.file->loadScenario(list.value->front().name);
-    std::string names;
-    for (const ScenarioSummary& s : *list.value) names += (names.empty() ? "'" : ", '") + s.name + "'";
-    result.problems.push_back(
-        list.value->empty()
-            ? fileProblem(path, "store-no-scenario", "holds no scenario yet", "Import one with: tledger import CSV_FOLDER --into PROJECT --scenario NAME")
-            : fileProblem(path, "store-scenario-needed",
-                          "holds " + std::to_string(list.value->size()) + " scenarios (" + names + "); say which one",
-                          "Add --scenario NAME."));
-    return result;
 }
 
 }  // namespace tl

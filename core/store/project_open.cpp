@@ -1,9 +1,9 @@
 #include <unistd.h>
 
-#include <random>
 #include <set>
 #include <system_error>
 
+#include "core/io/atomic_file.h"
 #include "core/store/project_file_detail.h"
 #include "core/store/schema.h"
 #include "core/store/sqlite_statement.h"
@@ -187,9 +187,7 @@ ProjectOpenResult ProjectFile::create(const fs::path& path, const Project& proje
 
     // Built beside the target under a temporary name, then linked into place, so that
     // a half-made project never appears under the real name.
-    std::random_device rd;
-    fs::path temp = path;
-    temp += ".creating-" + std::to_string(rd());
+    const fs::path temp = temporaryBeside(path);
     auto removeTemp = [&] {
         for (const char* suffix : {"", "-wal", "-shm", "-journal"}) {
             fs::path p = temp;
