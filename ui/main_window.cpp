@@ -4,6 +4,8 @@
 #include <QApplication>
 #include <QCloseEvent>
 #include <QDateTime>
+#include <QDialog>
+#include <QDialogButtonBox>
 #include <QDir>
 #include <QDockWidget>
 #include <QDragEnterEvent>
@@ -25,6 +27,7 @@
 #include <QToolBar>
 #include <QUndoStack>
 #include <QUrl>
+#include <QVBoxLayout>
 
 #include "core/model/compartment.h"
 #include "ui/document/project_document.h"
@@ -45,7 +48,10 @@ namespace tl::ui {
 namespace {
 
 constexpr int kMaxRecent = 8;
+// QSettings keys, each written here once.
 const char* kRecentKey = "files/recent";
+const char* kGeometryKey = "window/geometry";
+const char* kStateKey = "window/state";
 
 QString qs(const std::string& s) { return QString::fromStdString(s); }
 
@@ -53,10 +59,6 @@ bool looksLikeCsvFolder(const QString& path)
 {
     return QFileInfo(path).isDir() && QFileInfo::exists(path + QStringLiteral("/compartments.csv"));
 }
-
-const char* kDecisionNote =
-    QT_TRANSLATE_NOOP("tl::ui::MainWindow", "Model output supports, and does not replace, stock assessment, local "
-                                            "regulation and licensed professional judgement.");
 
 }  // namespace
 
@@ -122,8 +124,8 @@ MainWindow::MainWindow(const MainWindowOptions& options, QWidget* parent) : QMai
 
     if (options_.useSettings) {
         QSettings s;
-        restoreGeometry(s.value(QStringLiteral("window/geometry")).toByteArray());
-        restoreState(s.value(QStringLiteral("window/state")).toByteArray());
+        restoreGeometry(s.value(QLatin1String(kGeometryKey)).toByteArray());
+        restoreState(s.value(QLatin1String(kStateKey)).toByteArray());
     } else {
         resize(1400, 880);
     }
@@ -271,7 +273,7 @@ void MainWindow::buildActions()
     const Item items[] = {{tr("&Copy"), QKeySequence::Copy, &LedgerTableView::copySelection},
                           {tr("&Paste"), QKeySequence::Paste, &LedgerTableView::pasteClipboard},
                           {tr("Fill &down"), QKeySequence(Qt::CTRL | Qt::Key_D), &LedgerTableView::fillDownSelection},
-                          {tr("C&lear cells"), QKeySequence::Delete, &LedgerTableView::clearSelection}};
+                          {tr("C&lear cells"), QKeySequence::Delete, &LedgerTableView::clearSelectedCells}};
     for (const Item& it : items) {
         QAction* a = edit->addAction(it.text, this, [currentView, slot = it.slot] {
             if (LedgerTableView* v = currentView()) (v->*slot)();
@@ -296,11 +298,24 @@ void MainWindow::buildActions()
     for (QDockWidget* d : findChildren<QDockWidget*>()) viewMenu_->addAction(d->toggleViewAction());
 
     QMenu* help = menuBar()->addMenu(tr("&Help"));
+    help->addAction(tr("&Problem codes"), this, [this] {
+        QDialog dialog(this);
+        dialog.setWindowTitle(tr("Problem codes"));
+        auto* layout = new QVBoxLayout(&dialog);
+        layout->addWidget(new QLabel(tr("Every problem the Checks panel and tledger report, with its usual severity."),
+                                     &dialog));
+        layout->addWidget(problemCodesTable(&dialog));
+        auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close, &dialog);
+        connect(buttons, &QDialogButtonBox::rejected, &dialog, &QDialog::reject);
+        layout->addWidget(buttons);
+        dialog.resize(900, 600);
+        dialog.exec();
+    });
     help->addAction(tr("&About Trophic Ledger"), this, [this] {
         QMessageBox::about(this, tr("About Trophic Ledger"),
                            tr("<p><b>Trophic Ledger</b> %1 — build, check, balance and explore steady-state food-web "
                               "models of lakes, reservoirs and coastal waters.</p><p>%2</p>")
-                               .arg(QApplication::applicationVersion(), tr(kDecisionNote)));
+                               .arg(QApplication::applicationVersion(), decisionSupportNotice()));
     });
 
     QToolBar* bar = addToolBar(tr("Main"));
@@ -570,8 +585,8 @@ void MainWindow::closeEvent(QCloseEvent* event)
     recovery_->discard();
     if (options_.useSettings) {
         QSettings s;
-        s.setValue(QStringLiteral("window/geometry"), saveGeometry());
-        s.setValue(QStringLiteral("window/state"), saveState());
+        s.setValue(QLatin1String(kGeometryKey), saveGeometry());
+        s.setValue(QLatin1String(kStateKey), saveState());
     }
     event->accept();
 }

@@ -1,7 +1,6 @@
 // tledger check MODEL [--scenario NAME] [--json]: every input problem and rule-of-thumb
 // diagnostic of a scenario, without the balance sheet. Exit 1 if any error is found
 // or the model does not balance; warnings alone leave it at 0.
-#include <algorithm>
 #include <iostream>
 #include <sstream>
 
@@ -10,7 +9,7 @@
 #include "app/tledger/options.h"
 #include "core/balance/solver.h"
 #include "core/io/balance_report.h"
-#include "core/model/validation.h"
+#include "core/balance/scenario_checks.h"
 
 namespace tl::cli {
 
@@ -30,14 +29,8 @@ int cmdCheck(const Args& args)
         return 2;
     }
 
-    Problems problems = validateModel(*model);
     const BalanceSheet sheet = solveBalance(*model);
-    for (const Problem& p : sheet.problems) {
-        const bool duplicate = std::any_of(problems.begin(), problems.end(), [&](const Problem& q) {
-            return q.code == p.code && q.compartment == p.compartment && q.parameter == p.parameter && q.prey == p.prey;
-        });
-        if (!duplicate) problems.push_back(p);
-    }
+    const Problems problems = scenarioChecks(*model, sheet);
     if (opts->has("--json")) {
         std::cout << problemsJson(problems);
     } else {

@@ -6,15 +6,13 @@
 //   json  the project: information, every scenario (or the one named) with its inputs
 //         and its solve result (the `tledger solve --json` object under "result")
 //   scor  the solved scenario's flow network in SCOR format
-//   html  a plain, self-contained report: per scenario its status, balance sheet and
-//         problems (solved values marked *, status in words, no colour needed)
+//   html  a plain, self-contained report (core/io/html_report.h)
 // Bad input exits 2 naming the file, and nothing is written: output goes to a
 // temporary path first and is renamed into place only when complete.
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <iostream>
-#include <random>
 #include <system_error>
 
 #include "app/tledger/commands.h"
@@ -26,7 +24,8 @@
 #include "core/io/scor.h"
 #include "core/model/text.h"
 #include "core/network/flow_network.h"
-#include "core/store/project_file.h"
+#include "core/io/html_report.h"
+#include "core/store/model_source.h"
 #include "core/store/project_json.h"
 #ifdef TL_HAVE_FIGURES
 #include "ui/results/figure_export_cli.h"
@@ -42,50 +41,12 @@ void printProblems(const Problems& problems)
     for (const Problem& p : problems) std::cerr << p.describe() << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
 }
 
-// MODEL as a project: a .tledger as stored, or a CSV folder as a one-scenario project.
+// MODEL as a project, by the one rule of core/store/model_source.h.
 std::optional<Project> loadProject(const fs::path& path, const std::optional<std::string>& scenario)
 {
-    std::error_code ec;
-    if (!fs::exists(path, ec)) {
-        std::cerr << path.string() << ": no such file or folder (expected a CSV model folder or a .tledger project)\n";
-        return std::nullopt;
-    }
-    Project project;
-    if (fs::is_directory(path, ec)) {
-        CsvReadResult read = readCsvModel(path);
-        printProblems(read.problems);
-        if (!read.model) return std::nullopt;
-        const fs::path folder = path.filename().empty() ? path.parent_path() : path;
-        project.info.title = folder.filename().string();
-        project.info.units = read.model->units;
-        project.info.rules = read.model->rules;
-        Scenario s;
-        s.name = scenario.value_or(folder.filename().string());
-        s.description = "CSV model folder " + folder.filename().string();
-        s.model = std::move(*read.model);
-        project.scenarios.push_back(std::move(s));
-        return project;
-    }
-    StoreResult<Project> loaded = loadProjectFromFile(path);
-    printProblems(loaded.problems);
-    if (!loaded.value) return std::nullopt;
-    project = std::move(*loaded.value);
-    if (scenario) {
-        const Scenario* chosen = project.findScenario(std::string(trim(*scenario)));
-        if (!chosen) {
-            std::string names;
-            for (const std::string& n : project.scenarioNames()) names += (names.empty() ? "'" : ", '") + n + "'";
-            std::cerr << path.string() << ": has no scenario named '" << *scenario << "' (it has "
-                      << (names.empty() ? "none" : names) << ")\n";
-            return std::nullopt;
-        }
-        Scenario keep = *chosen;
-        project.scenarios = {std::move(keep)};
-        project.runs.erase(std::remove_if(project.runs.begin(), project.runs.end(),
-                                          [&](const StoredRun& r) { return r.scenario != project.scenarios[0].name; }),
-                           project.runs.end());
-    }
-    return project;
+    ModelSource source = readModelSource(path, {scenario, OpenMode::ReadOnly});
+    printProblems(source.problems);
+    return std::move(source.project);
 }
 
 // The one scenario a csv or scor export needs.
@@ -102,14 +63,6 @@ const Scenario* singleScenario(const Project& project, const fs::path& model)
     return nullptr;
 }
 
-fs::path temporarySibling(const fs::path& target)
-{
-    std::random_device rd;
-    fs::path temp = target;
-    temp += ".partial-" + std::to_string(rd());
-    return temp;
-}
-
 int exportCsv(const Scenario& scenario, const fs::path& out)
 {
     std::error_code ec;
@@ -123,7 +76,7 @@ int exportCsv(const Scenario& scenario, const fs::path& out)
         printProblems(problems);
         return hasErrors(problems) ? 2 : 0;
     }
-    const fs::path temp = temporarySibling(out);
+    const fs::path temp = temporaryBeside(out);
     const Problems problems = writeCsvModel(scenario.model, temp);
     printProblems(problems);
     if (hasErrors(problems)) {
@@ -182,75 +135,6 @@ int exportScor(const Project& project, const Scenario& scenario, const fs::path&
         std::cerr << "tledger export: note: scenario '" << scenario.name
                   << "' does not balance; the exported flows are those of its current inputs\n";
     return 0;
-}
-
-std::string html(std::string_view text)
-{
-    std::string out;
-    for (char c : text) {
-        switch (c) {
-        case '&': out += "&amp;"; break;
-        case '<': out += "&lt;"; break;
-        case '>': out += "&gt;"; break;
-        case '"': out += "&quot;"; break;
-        case '\'': out += "&#39;"; break;
-        default: out += c;
-        }
-    }
-    return out;
-}
-
-// Four significant digits for reading; the exact values are in the JSON export.
-std::string cell(double v, bool solved = false)
-{
-    if (std::isnan(v)) return "<td>-</td>";
-    char text[32];
-    std::snprintf(text, sizeof text, "%.4g", v);
-    return std::string("<td>") + text + (solved ? "*" : "") + "</td>";
-}
-
-std::string htmlReport(const Project& project)
-{
-    const Units& u = project.info.units;
-    std::string out = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>" +
-                      html(project.info.title) + "</title>\n<style>\n"
-                      "body { font-family: sans-serif; margin: 2em; }\n"
-                      "table { border-collapse: collapse; margin: 1em 0; }\n"
-                      "th, td { border: 1px solid #999; padding: 0.2em 0.5em; text-align: right; }\n"
-                      "th:first-child, td:first-child, td:nth-child(2) { text-align: left; }\n"
-                      ".notice { border-left: 4px solid #555; padding-left: 0.8em; }\n"
-                      "</style>\n</head>\n<body>\n";
-    out += "<h1>" + html(project.info.title) + "</h1>\n";
-    out += "<p class=\"notice\">" + html(kDecisionSupportNotice) + "</p>\n";
-    if (!project.info.notes.empty()) out += "<p>" + html(project.info.notes) + "</p>\n";
-    out += "<p>Biomass in " + html(u.biomass()) + "; flows (P, Q, R, catch) in " + html(u.flow()) + "; rates in " +
-           html(u.rate()) + ". Values marked * were solved by the mass balance; the others are as given.</p>\n";
-    for (const Scenario& s : project.scenarios) {
-        const BalanceSheet sheet = solveBalance(s.model);
-        out += "<h2>Scenario: " + html(s.name) + "</h2>\n";
-        if (!s.description.empty()) out += "<p>" + html(s.description) + "</p>\n";
-        if (!s.parent.empty()) out += "<p>Derived from scenario " + html(s.parent) + ".</p>\n";
-        out += "<p>Balance status: <strong>" + html(statusKey(sheet.status)) + "</strong></p>\n";
-        out += "<table>\n<tr><th>Compartment</th><th>Kind</th><th>TL</th><th>B</th><th>P/B</th><th>Q/B</th><th>EE</th>"
-               "<th>P/Q</th><th>P</th><th>Q</th><th>R</th><th>Catch</th></tr>\n";
-        for (const CompartmentBalance& row : sheet.rows) {
-            auto solved = [&](Param p) { return std::find(row.solved.begin(), row.solved.end(), p) != row.solved.end(); };
-            out += "<tr><td>" + html(row.name) + "</td><td>" + html(kindKey(row.kind)) + "</td>" + cell(row.tl) +
-                   cell(row.biomass, solved(Param::Biomass)) + cell(row.pb, solved(Param::PB)) +
-                   cell(row.qb, solved(Param::QB)) + cell(row.ee, solved(Param::EE)) + cell(row.pq, solved(Param::PQ)) +
-                   cell(row.production) + cell(row.consumption) + cell(row.respiration) + cell(row.catchTotal) + "</tr>\n";
-        }
-        out += "</table>\n";
-        if (!sheet.problems.empty()) {
-            out += "<h3>Problems</h3>\n<ul>\n";
-            for (const Problem& p : sheet.problems)
-                out += "<li>" + html(severityKey(p.severity)) + ": " + html(p.message) +
-                       (p.hint.empty() ? "" : " <em>" + html(p.hint) + "</em>") + "</li>\n";
-            out += "</ul>\n";
-        }
-    }
-    out += "</body>\n</html>\n";
-    return out;
 }
 
 int exportHtml(const Project& project, const fs::path& out)

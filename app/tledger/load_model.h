@@ -1,6 +1,7 @@
-// Loads the MODEL argument of a tledger command: a CSV model folder (DESIGN 5.1) or a
-// .tledger project with --scenario NAME. Problems are printed to `err` as
-// "file:line:column: message"; nothing is returned if the model cannot be used.
+// Loads the MODEL argument of a tledger command by the one rule of
+// core/store/model_source.h (a CSV model folder, or a .tledger project with --scenario
+// NAME). Problems are printed to `err` as "file:line:column: message"; nothing is
+// returned if the model cannot be used.
 #pragma once
 
 #include <filesystem>

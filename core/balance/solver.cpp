@@ -241,7 +241,7 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
     for (Param p : row.solved) {
         const double value = p == Param::Biomass ? row.biomass : p == Param::PB ? row.pb : p == Param::QB ? row.qb : row.ee;
         if (value < 0.0)
-            problems.push_back(makeProblem(code::kNegativeValue, Severity::Error, name, paramKey(p),
+            problems.push_back(makeProblem(code::kNegativeSolvedValue, Severity::Error, name, paramKey(p),
                                        "Solved " + std::string(paramSymbol(p)) + " of '" + name + "' is negative (" +
                                            num(value) + ").",
                                        "Predation and catch on '" + name +

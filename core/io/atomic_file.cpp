@@ -12,7 +12,6 @@
 #endif
 
 namespace tl {
-namespace {
 
 std::filesystem::path temporaryBeside(const std::filesystem::path& target)
 {
@@ -26,6 +25,8 @@ std::filesystem::path temporaryBeside(const std::filesystem::path& target)
     name += suffix;
     return target.parent_path() / name;
 }
+
+namespace {
 
 #ifdef TL_HAVE_FSYNC
 // Flushes the directory entry too, so that the rename itself survives a power cut.

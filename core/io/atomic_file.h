@@ -15,4 +15,8 @@ namespace tl {
 // (the target is then untouched and no temporary file is left behind).
 std::optional<std::string> writeFileAtomically(const std::filesystem::path& target, std::string_view content);
 
+// A fresh hidden name beside `target` in the same folder (so that a rename onto the
+// target is atomic), for writers that build a file or folder before renaming it in.
+std::filesystem::path temporaryBeside(const std::filesystem::path& target);
+
 }  // namespace tl

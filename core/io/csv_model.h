@@ -22,11 +22,12 @@
 // predator's first line.
 //
 // What the reader checks: the files' structure (header, cell counts, quoting,
-// encoding), numbers, names (known, unique, right kind), fractions within [0, 1],
-// values that cannot be negative. It warns (the model is still returned) when a
-// diet row or a source's routing does not sum to 1, when a consumer has no diet row,
-// and when a producer or detritus pool is given a diet. Ecological checks (EE > 1,
-// P/Q range, what is unknown) belong to validation and the solver.
+// encoding), numbers and names (known, unique), and then every check of the inputs
+// by validateModel (core/model/validation.h), placed on the cell concerned. Its
+// errors (a diet row or a source's routing that does not sum to 1, a consumer
+// without a diet, a producer or detritus pool given a diet, negative values, ...)
+// mean no model is returned; its warnings (e.g. no detritus pool) leave the model
+// returned. Checks of the solution (EE > 1, P/Q range) belong to the solver.
 #pragma once
 
 #include <filesystem>
@@ -57,8 +58,9 @@ struct CsvWriteOptions {
 
 // Writes compartments.csv, diet.csv, harvest.csv, detritus_routing.csv,
 // confidence.csv and settings.csv into `folder` (created if missing), each
-// atomically (temporary file, then rename); files with nothing to say hold just
-// their header, so no stale file from an earlier write survives. Numbers are written
+// atomically (temporary file, then rename). An optional file with nothing to say is
+// not written, and one left from an earlier write is removed, so no stale file
+// survives. Numbers are written
 // in their shortest exact form, so readCsvModel(writeCsvModel(m)) == m. Returns
 // problems (e.g. unwritable folder, a name the reader would refuse).
 Problems writeCsvModel(const Model& model, const std::filesystem::path& folder, const CsvWriteOptions& options = {});

@@ -26,32 +26,14 @@
 
 #include "core/model/model.h"
 #include "core/model/problem.h"
+#include "core/model/problem_codes.h"
 
 namespace tl {
 
-// Stable problem codes produced here (the GUI and the CSV reader key on them).
+// The codes produced here are tl::code::k... of the registry (core/model/problem_codes.h);
+// `check::` is the name the validation tests and readers have always used for them.
 namespace check {
-inline constexpr const char* kEmptyName = "empty-name";
-inline constexpr const char* kDuplicateName = "duplicate-name";
-inline constexpr const char* kNegativeValue = "negative-value";
-inline constexpr const char* kUnassimOutOfRange = "unassim-out-of-range";
-inline constexpr const char* kProducerConsumes = "producer-consumes";
-inline constexpr const char* kDetritusRate = "detritus-rate";
-inline constexpr const char* kImportOnLiving = "detritus-import-on-living";
-inline constexpr const char* kDietSum = "diet-sum";
-inline constexpr const char* kDietFraction = "diet-fraction-out-of-range";
-inline constexpr const char* kDietOfNonConsumer = "diet-of-non-consumer";
-inline constexpr const char* kRoutingSum = "routing-sum";
-inline constexpr const char* kRoutingFraction = "routing-fraction-out-of-range";
-inline constexpr const char* kRoutingToLiving = "routing-to-non-detritus";
-inline constexpr const char* kNegativeLandings = "landings-negative";
-inline constexpr const char* kNegativeDiscards = "discards-negative";
-inline constexpr const char* kDiscardSurvival = "discard-survival-out-of-range";
-inline constexpr const char* kCatchFromDetritus = "catch-from-detritus";
-inline constexpr const char* kDiscardPool = "discard-pool-not-detritus";
-inline constexpr const char* kEmptyFleetName = "empty-fleet-name";
-inline constexpr const char* kDuplicateFleet = "duplicate-fleet";
-inline constexpr const char* kNoDetritusPool = "no-detritus-pool";
+using namespace code;
 }  // namespace check
 
 // All problems of `model`, in compartment order within each group of checks

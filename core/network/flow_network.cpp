@@ -3,6 +3,7 @@
 #include <cmath>
 #include <limits>
 
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 
 namespace tl {
@@ -13,7 +14,7 @@ double finiteOr(double v, double fallback) { return std::isfinite(v) ? v : fallb
 void noteShortfall(FlowNetwork& net, std::size_t i, const char* what, double amount)
 {
     Problem p;
-    p.code = "network-shortfall-import";
+    p.code = code::kNetworkShortfallImport;
     p.severity = Severity::Warning;
     p.compartment = net.names[i];
     p.message = std::string("the balance implies a negative ") + what + " of " + formatNumber(-amount) +

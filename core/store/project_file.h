@@ -80,16 +80,13 @@ public:
     // deleted, in the order of `project`). Runs with id 0 in `project.runs` are
     // inserted; runs already in the file are kept (remove them with deleteRun).
     Problems save(const Project& project);
-    Problems saveInfo(const ProjectInfo& info);
     // Inserts the scenario or replaces the one of the same name, as a whole.
     Problems saveScenario(const Scenario& scenario);
 
-    // Scenario operations. Names are trimmed first; an empty or duplicate name is refused.
-    Problems createScenario(const Scenario& scenario);  // refuses an existing name
-    // Deep copy of `from` named `to`, whose parent is `from`.
-    Problems duplicateScenario(const std::string& from, const std::string& to, const std::string& description = {});
-    Problems renameScenario(const std::string& from, const std::string& to);  // children's parent follows
-    Problems deleteScenario(const std::string& name);  // its stored runs go with it
+    // Adds a scenario (tledger import). The name is trimmed first; an empty name or one
+    // the project has is refused. Duplicating, renaming and deleting scenarios are
+    // edits of the whole project: save() writes them in one transaction.
+    Problems createScenario(const Scenario& scenario);
 
     // Stored runs.
     StoreResult<std::int64_t> addRun(const StoredRun& run);  // returns the new id
@@ -111,10 +108,7 @@ private:
     int schemaVersion_ = 0;
 };
 
-// Conveniences for one-shot readers (CLI, report tools): open read-only, read, close.
-// loadScenarioFromFile takes the named scenario or, when `name` is empty, the only
-// one; with several scenarios and no name it fails with a Problem listing them.
-StoreResult<Project> loadProjectFromFile(const std::filesystem::path& path);
-StoreResult<Scenario> loadScenarioFromFile(const std::filesystem::path& path, const std::optional<std::string>& name);
+// Reading a model from a path (a CSV folder or a project, with a scenario name) is
+// core/store/model_source.h; saving a project to a path is core/store/project_save.h.
 
 }  // namespace tl

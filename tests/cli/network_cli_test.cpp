@@ -3,54 +3,16 @@
 // named by file, line and column.
 #include <gtest/gtest.h>
 
-#include <sys/wait.h>
-#include <unistd.h>
-
-#include <cstdio>
 #include <filesystem>
 #include <fstream>
-#include <sstream>
 #include <string>
 
-namespace tl {
+#include "tests/support/test_support.h"
+
+namespace tl::testing {
 namespace {
 
-namespace fs = std::filesystem;
-
-struct CliRun {
-    int exitCode = -1;
-    std::string out, err;
-};
-
-std::string slurp(const fs::path& p)
-{
-    std::ifstream in(p, std::ios::binary);
-    std::ostringstream s;
-    s << in.rdbuf();
-    return s.str();
-}
-
-std::string quoted(const std::string& s)
-{
-    std::string q = "'";
-    for (char c : s) q += c == '\'' ? std::string("'\\''") : std::string(1, c);
-    return q + "'";
-}
-
-CliRun runNetwork(const std::string& args)
-{
-    const fs::path dir = fs::temp_directory_path() / ("tl_cli_network_" + std::to_string(::getpid()));
-    fs::create_directories(dir);
-    const std::string cmd = quoted(TL_TLEDGER_EXE) + " network " + args + " >" + quoted((dir / "out").string()) +
-                            " 2>" + quoted((dir / "err").string());
-    const int status = std::system(cmd.c_str());
-    CliRun run;
-    run.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-    run.out = slurp(dir / "out");
-    run.err = slurp(dir / "err");
-    fs::remove_all(dir);
-    return run;
-}
+CliRun runNetwork(const std::string& args) { return runTledger("network " + args); }
 
 const std::string kScor = std::string(TL_FIXTURES_DIR) + "/reference/scor/";
 const std::string kNotice =
@@ -61,21 +23,24 @@ TEST(NetworkCli, ScorJsonHasTheContractKeys)
 {
     // Lake Findley (Richey et al. 1978, Science 202:1183): TST 50.7 by hand from the file
     // (sum of internal flows 29.4 plus imports 21.3).
-    const CliRun run = runNetwork("--scor " + quoted(kScor + "lake_findley.scor") + " --json");
+    const CliRun run = runNetwork("--scor " + shellQuoted(kScor + "lake_findley.scor") + " --json");
     ASSERT_EQ(run.exitCode, 0) << run.err;
-    for (const char* key : {"\"tst\"", "\"tstp\"", "\"boundary_input\"", "\"fci\"", "\"apl\"", "\"ami\"",
-                            "\"ascendency\"", "\"capacity\"", "\"overhead\"", "\"connectance\"", "\"links\"",
-                            "\"tl\"", "\"levels\"", "\"level\"", "\"throughput\"", "\"biomass\"", "\"te\"", "\"mti\"",
-                            "\"rows\"", "\"cols\"", "\"values\""})
-        EXPECT_NE(run.out.find(key), std::string::npos) << key;
-    EXPECT_NE(run.out.find("\"tst\": 50.7,"), std::string::npos) << run.out.substr(0, 200);
-    EXPECT_NE(run.out.find("\"links\": 6,"), std::string::npos);
-    EXPECT_NE(run.out.find("\"ZOOPLANKTON\": 2.13636"), std::string::npos);
+    const nlohmann::json j = run.json();
+    for (const char* key : {"tst", "tstp", "boundary_input", "fci", "apl", "ami", "ascendency", "capacity", "overhead",
+                            "connectance", "links", "tl", "levels", "mti"})
+        EXPECT_TRUE(j.contains(key)) << key;
+    for (const char* key : {"level", "throughput", "biomass", "te"}) EXPECT_TRUE(j.at("levels").at(0).contains(key)) << key;
+    for (const char* key : {"rows", "cols", "values"}) EXPECT_TRUE(j.at("mti").contains(key)) << key;
+    EXPECT_DOUBLE_EQ(j.at("tst").get<double>(), 50.7);
+    EXPECT_EQ(j.at("links").get<int>(), 6);
+    EXPECT_NEAR(j.at("tl").at("ZOOPLANKTON").get<double>(), 2.13636, 5e-6);
+    EXPECT_EQ(j.at("source").get<std::string>(), "scor");
+    EXPECT_FALSE(j.contains("status"));  // a SCOR network has no balance status
 }
 
 TEST(NetworkCli, ScorTablesWithoutCatchHaveNoCatchSection)
 {
-    const CliRun run = runNetwork("--scor " + quoted(kScor + "oyster_reef.scor"));
+    const CliRun run = runNetwork("--scor " + shellQuoted(kScor + "oyster_reef.scor"));
     ASSERT_EQ(run.exitCode, 0) << run.err;
     EXPECT_NE(run.out.find("Finn cycling index"), std::string::npos);
     EXPECT_NE(run.out.find("Level decomposition"), std::string::npos);
@@ -84,7 +49,7 @@ TEST(NetworkCli, ScorTablesWithoutCatchHaveNoCatchSection)
 
 TEST(NetworkCli, ModelTablesShowCatchWithTheNotice)
 {
-    const CliRun run = runNetwork(quoted(std::string(TL_FIXTURES_DIR) + "/csv_models/pond"));
+    const CliRun run = runNetwork(shellQuoted(std::string(TL_FIXTURES_DIR) + "/csv_models/pond"));
     ASSERT_LE(run.exitCode, 1) << run.err;  // 0 balanced, 1 unbalanced but analysed
     EXPECT_NE(run.out.find("Primary production required (PPR)"), std::string::npos);
     EXPECT_NE(run.out.find(kNotice), std::string::npos);
@@ -98,7 +63,7 @@ TEST(NetworkCli, BadScorNamesFileLineAndColumn)
         std::ofstream out(bad);
         out << "bad\n  2  1\nA\nB\n  1 1\n  2 1\n -1\n  1 5\n -1\n -1\n  1 2\n -1\n  1  2 -3\n -1 -1\n";
     }
-    const CliRun run = runNetwork("--scor " + quoted(bad.string()) + " --json");
+    const CliRun run = runNetwork("--scor " + shellQuoted(bad.string()) + " --json");
     fs::remove(bad);
     EXPECT_EQ(run.exitCode, 2);
     EXPECT_NE(run.err.find(bad.string() + ":13:7:"), std::string::npos) << run.err;
@@ -109,7 +74,7 @@ TEST(NetworkCli, BadScorNamesFileLineAndColumn)
 TEST(NetworkCli, UsageErrorsExitTwo)
 {
     EXPECT_EQ(runNetwork("").exitCode, 2);
-    EXPECT_EQ(runNetwork("--scor " + quoted(kScor + "lake_findley.scor") + " some_model").exitCode, 2);
+    EXPECT_EQ(runNetwork("--scor " + shellQuoted(kScor + "lake_findley.scor") + " some_model").exitCode, 2);
     EXPECT_EQ(runNetwork("--frobnicate").exitCode, 2);
     const CliRun missing = runNetwork("/nonexistent/model_folder");
     EXPECT_EQ(missing.exitCode, 2);
@@ -117,4 +82,4 @@ TEST(NetworkCli, UsageErrorsExitTwo)
 }
 
 }  // namespace
-}  // namespace tl
+}  // namespace tl::testing

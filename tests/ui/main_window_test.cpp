@@ -4,13 +4,18 @@
 #include <QApplication>
 #include <QClipboard>
 #include <QDir>
+#include <QFile>
 #include <QSignalSpy>
 #include <QFileInfo>
 #include <QImage>
 #include <QTemporaryDir>
 #include <QTest>
 #include <QUndoStack>
+#include <QTreeWidget>
 #include <cmath>
+#include <memory>
+
+#include "core/model/problem_codes.h"
 
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"
@@ -104,6 +109,66 @@ private slots:
         QCOMPARE(cur.row(), pikeRow);
         QVERIFY(w.dietPage()->isVisibleTo(&w) || true);
         QCOMPARE(w.pageKey(0), QStringLiteral("compartments"));
+    }
+
+    // Each check's tooltip carries its code and the registry's sentence
+    // (core/model/problem_codes.h); Help lists every registered code.
+    void checksExplainTheirCodes()
+    {
+        tl::ui::ChecksPanel panel;
+        tl::Problem p;
+        p.code = tl::code::kDietSum;
+        p.compartment = "Pike";
+        p.parameter = "diet";
+        p.message = "the diet of Pike sums to 0.9";
+        panel.setProblems({p});
+        auto* tree = panel.findChild<QTreeWidget*>();
+        QVERIFY(tree);
+        const QString tip = tree->topLevelItem(0)->toolTip(2);
+        QVERIFY2(tip.contains(QStringLiteral("[diet-sum]")), qPrintable(tip));
+        QVERIFY2(tip.contains(tl::ui::codeExplanation(p.code)) && !tl::ui::codeExplanation(p.code).isEmpty(), qPrintable(tip));
+
+        std::unique_ptr<QWidget> help(tl::ui::problemCodesTable());
+        auto* table = qobject_cast<QTreeWidget*>(help.get());
+        QVERIFY(table);
+        QCOMPARE(table->topLevelItemCount(), int(tl::problemCodes().size()));
+    }
+
+    // Save, edit, save again into the same file: the second save replaces the project
+    // in place (core/store/project_save.h), and reopening gives the edit back.
+    void savingTwiceIntoTheSameFileKeepsTheLatest()
+    {
+        QTemporaryDir dir;
+        tl::ui::ProjectDocument doc;
+        QString error;
+        QVERIFY2(doc.open(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), &error), qPrintable(error));
+        const QString path = dir.path() + QStringLiteral("/lake.tledger");
+        QVERIFY2(doc.saveAs(path, &error), qPrintable(error));
+        tl::Model edited = doc.model();
+        edited.compartment(0).value(tl::Param::Biomass) = 42.5;
+        doc.editModel(edited, QStringLiteral("Set B"));
+        QVERIFY(doc.isModified());
+        QVERIFY2(doc.save(&error), qPrintable(error));
+        QVERIFY(!doc.isModified());
+        QCOMPARE(QDir(dir.path()).entryList(QDir::Files).size(), 1);  // nothing left beside it
+
+        tl::ui::ProjectDocument again;
+        QVERIFY2(again.open(path, &error), qPrintable(error));
+        QCOMPARE(again.model().compartment(0).value(tl::Param::Biomass).value_or(0.0), 42.5);
+        QCOMPARE(again.origin(), tl::ui::ProjectDocument::Origin::ProjectFile);
+
+        // A file that is not a project is never written over.
+        const QString notes = dir.path() + QStringLiteral("/notes.tledger");
+        {
+            QFile f(notes);
+            QVERIFY(f.open(QIODevice::WriteOnly));
+            f.write("field notes\n");
+        }
+        QVERIFY(!again.saveAs(notes, &error));
+        QVERIFY2(error.contains(notes), qPrintable(error));
+        QFile f(notes);
+        QVERIFY(f.open(QIODevice::ReadOnly));
+        QCOMPARE(f.readAll(), QByteArray("field notes\n"));
     }
 
     void scenarioOperationsAreUndoable()

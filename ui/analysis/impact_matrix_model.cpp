@@ -8,7 +8,7 @@
 #include <numeric>
 
 #include "ui/analysis/impact_colour_map.h"
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 namespace {

@@ -14,7 +14,7 @@
 
 #include "core/balance/balance_sheet.h"
 #include "ui/analysis/impact_colour_map.h"
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 namespace {

@@ -17,7 +17,7 @@
 #include <qcustomplot.h>
 
 #include "core/model/text.h"
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 

@@ -1,7 +1,7 @@
 // Indicators page: the system indicators of the scenario (indicator_rows.h) as a table
 // with units and one-line definitions, copyable as tab-separated text, and the keystone
 // ranking (Libralato, Christensen & Pauly 2006, Ecol Model 195:153) as horizontal bars,
-// highest first, coloured by compartment kind (Okabe–Ito, ui/results/results_palette.h).
+// highest first, coloured by compartment kind (Okabe–Ito, ui/style/palette.h).
 // The catch figures come with the decision-support line. Right-click on the chart
 // exports it (ui/results/figure_export.h).
 #pragma once

@@ -2,32 +2,21 @@
 
 #include <QtConcurrent/QtConcurrentRun>
 
-#include "core/balance/balance_sheet.h"
 
 namespace tl::ui {
 
 ScenarioAnalysis analyseScenario(const Model& model, const BalanceSheet& sheet)
 {
     ScenarioAnalysis a;
-    a.units = model.units;
-    for (const auto& c : model.compartments()) a.kinds.push_back(c.kind);
-    if (sheet.status == BalanceStatus::Invalid || sheet.rows.size() != model.size()) {
+    static_cast<tl::NetworkAnalysis&>(a) = tl::analyseNetwork(model, sheet);
+    switch (a.gap) {
+    case tl::AnalysisGap::None: break;
+    case tl::AnalysisGap::Unsolvable:
         a.unavailable = QObject::tr("The scenario could not be solved, so it has no flow network to analyse. "
                                     "See the balance sheet for the problems.");
-        return a;
+        break;
+    case tl::AnalysisGap::Empty: a.unavailable = QObject::tr("The scenario has no compartments."); break;
     }
-    if (model.size() == 0) {
-        a.unavailable = QObject::tr("The scenario has no compartments.");
-        return a;
-    }
-    a.balanced = sheet.status == BalanceStatus::Balanced;
-    a.network = buildFlowNetwork(model, sheet);
-    a.mti = mixedTrophicImpact(a.network);
-    a.keystone = keystoneIndices(a.network, a.mti);
-    a.indicators = systemIndicators(model, sheet, a.network);
-    a.levels = decomposeLevels(a.network);
-    for (std::size_t i = 0; i < a.network.size(); ++i)
-        if (a.network.catchTotal(i) > 0) a.hasCatch = true;
     return a;
 }
 

@@ -1,8 +1,7 @@
-// Network analysis of one solved scenario, as the analysis pages show it: the flow
-// network (core/network/flow_network.h), mixed trophic impact (Ulanowicz & Puccia 1990),
-// keystone indices (Libralato et al. 2006), system indicators and the level
-// decomposition (for the mean transfer efficiency). Nothing is computed here that the
-// core does not compute; this file only gathers it and moves it off the GUI thread.
+// Network analysis of one solved scenario, as the analysis pages show it: the core's
+// tl::analyseNetwork (core/network/network_analysis.h, the same call `tledger network`
+// makes) plus a sentence for the pages when there is nothing to show. This file only
+// moves the work off the GUI thread.
 //
 // Cost: indicators + impact matrix take about 11 ms at 125 compartments (figures from
 // tests/bench/network_bench) and grow roughly with n^3, so scenarios below
@@ -16,34 +15,20 @@
 #include <memory>
 #include <vector>
 
-#include "core/model/compartment.h"
+#include "core/balance/balance_sheet.h"
 #include "core/model/model.h"
-#include "core/network/flow_network.h"
-#include "core/network/indicators.h"
-#include "core/network/keystone.h"
-#include "core/network/level_decomposition.h"
-#include "core/network/mixed_trophic_impact.h"
+#include "core/network/network_analysis.h"
 
 namespace tl::ui {
 
 inline constexpr std::size_t kInlineAnalysisLimit = 80;
 
-struct ScenarioAnalysis {
-    QString unavailable;  // why there is nothing to show; empty when analysed
-    Units units;
-    std::vector<CompartmentKind> kinds;  // per node (nodes are the compartments, in order)
-    FlowNetwork network;
-    MixedTrophicImpact mti;
-    std::vector<KeystoneEntry> keystone;
-    SystemIndicators indicators;
-    LevelDecomposition levels;
-    bool hasCatch = false;
-    bool balanced = false;  // the sheet's status is Balanced (figures of an unbalanced one are as they stand)
-
-    bool available() const { return unavailable.isEmpty(); }
+struct ScenarioAnalysis : tl::NetworkAnalysis {
+    QString unavailable;  // why there is nothing to show (set exactly when !available())
 };
 
-// Runs the core analyses (any thread). An unsolvable scenario gives `unavailable`.
+// Runs tl::analyseNetwork (any thread) and says why an unsolvable or empty scenario
+// has nothing to show.
 ScenarioAnalysis analyseScenario(const Model& model, const BalanceSheet& sheet);
 
 // Analyses scenarios inline or in the background and hands back only the newest result

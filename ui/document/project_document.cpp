@@ -4,10 +4,10 @@
 #include <algorithm>
 #include <QFileInfo>
 #include <filesystem>
-#include <system_error>
 
 #include "core/io/csv_model.h"
-#include "core/store/project_file.h"
+#include "core/store/model_source.h"
+#include "core/store/project_save.h"
 #include "ui/document/document_commands.h"
 
 namespace tl::ui {
@@ -42,74 +42,33 @@ QString ProjectDocument::describeProblems(const tl::Problems& problems, int maxL
     return lines.join('\n');
 }
 
-bool readCsvProject(const QString& folder, tl::Project* out, QString* error)
+static bool readProjectSource(const QString& path, bool readOnly, tl::ModelSource* out, QString* error)
 {
-    const tl::CsvReadResult read = tl::readCsvModel(toPath(folder));
-    if (!read.model) {
-        if (error)
-            *error = QObject::tr("Could not read the CSV folder %1:\n%2")
-                         .arg(folder, ProjectDocument::describeProblems(read.problems));
-        return false;
-    }
-    tl::Project p;
-    p.info.title = QFileInfo(folder).fileName().toStdString();
-    p.info.units = read.model->units;
-    p.info.rules = read.model->rules;
-    p.info.created = tl::utcNowIso8601();
-    tl::Scenario s = emptyScenario(QFileInfo(folder).fileName());
-    s.description = QObject::tr("Imported from %1").arg(folder).toStdString();
-    s.model = *read.model;
-    p.scenarios.push_back(std::move(s));
-    *out = std::move(p);
-    return true;
+    *out = tl::readModelSource(toPath(path), {std::nullopt, readOnly ? tl::OpenMode::ReadOnly : tl::OpenMode::ReadWrite});
+    if (out->project) return true;
+    if (error) *error = ProjectDocument::describeProblems(out->problems);
+    if (error && error->isEmpty()) *error = QObject::tr("Could not open %1.").arg(path);
+    return false;
 }
 
 bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason, bool readOnly)
 {
-    tl::ProjectOpenResult opened =
-        tl::ProjectFile::open(toPath(path), readOnly ? tl::OpenMode::ReadOnly : tl::OpenMode::ReadWrite);
-    if (!opened.file) {
-        if (error) *error = ProjectDocument::describeProblems(opened.problems);
-        if (error && error->isEmpty()) *error = QObject::tr("Could not open %1.").arg(path);
-        return false;
-    }
-    tl::StoreResult<tl::Project> loaded = opened.file->load();
-    if (!loaded.value) {
-        if (error) *error = ProjectDocument::describeProblems(loaded.problems);
-        return false;
-    }
-    if (loaded.value->scenarios.empty()) loaded.value->scenarios.push_back(emptyScenario(QObject::tr("Base")));
-    if (readOnlyReason && !readOnly && opened.readOnly)
-        *readOnlyReason = QString::fromStdString(opened.readOnlyReason.empty() ? "read-only" : opened.readOnlyReason);
-    *out = std::move(*loaded.value);
+    tl::ModelSource source;
+    if (!readProjectSource(path, readOnly, &source, error)) return false;
+    if (source.project->scenarios.empty()) source.project->scenarios.push_back(emptyScenario(QObject::tr("Base")));
+    if (readOnlyReason && !readOnly && source.readOnly)
+        *readOnlyReason = QString::fromStdString(source.readOnlyReason.empty() ? "read-only" : source.readOnlyReason);
+    *out = std::move(*source.project);
     return true;
 }
 
 bool writeProjectFile(const tl::Project& project, const QString& path, QString* error)
 {
-    namespace fs = std::filesystem;
-    const fs::path target = toPath(path);
-    const fs::path temp = fs::path(target).concat(".saving");
-    std::error_code ec;
-    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) fs::remove(fs::path(temp).concat(suffix), ec);
-    {
-        tl::ProjectOpenResult created = tl::ProjectFile::create(temp, project);
-        if (!created.file) {
-            if (error) *error = ProjectDocument::describeProblems(created.problems);
-            if (error && error->isEmpty()) *error = QObject::tr("Could not write %1.").arg(path);
-            fs::remove(temp, ec);
-            return false;
-        }
-    }  // closed here: SQLite folds its write-ahead log back into the file
-    // A stale log beside the target would be replayed into the new file: remove it.
-    for (const char* suffix : {"-wal", "-shm"}) fs::remove(fs::path(target).concat(suffix), ec);
-    fs::rename(temp, target, ec);
-    if (ec) {
-        if (error) *error = QObject::tr("Could not replace %1: %2").arg(path, QString::fromStdString(ec.message()));
-        fs::remove(temp, ec);
-        return false;
-    }
-    return true;
+    const tl::Problems problems = tl::saveProjectToPath(project, toPath(path));
+    if (!tl::hasErrors(problems)) return true;
+    if (error) *error = ProjectDocument::describeProblems(problems);
+    if (error && error->isEmpty()) *error = QObject::tr("Could not write %1.").arg(path);
+    return false;
 }
 
 ProjectDocument::ProjectDocument(QObject* parent) : QObject(parent)
@@ -152,19 +111,14 @@ void ProjectDocument::newProject()
 bool ProjectDocument::open(const QString& path, QString* error, bool asTemplate)
 {
     const QFileInfo info(path);
+    if (!info.exists()) {
+        if (error) *error = tr("%1 does not exist.").arg(path);
+        return false;
+    }
     tl::Project p;
     QString readOnlyReason;
-    Origin origin = Origin::ProjectFile;
-    if (info.isDir()) {
-        if (!readCsvProject(path, &p, error)) return false;
-        origin = Origin::CsvFolder;
-    } else {
-        if (!info.exists()) {
-            if (error) *error = tr("%1 does not exist.").arg(path);
-            return false;
-        }
-        if (!readProjectFile(path, &p, error, &readOnlyReason, asTemplate)) return false;
-    }
+    if (!readProjectFile(path, &p, error, &readOnlyReason, asTemplate)) return false;
+    Origin origin = info.isDir() ? Origin::CsvFolder : Origin::ProjectFile;
     templateReason_.clear();
     if (asTemplate) {
         origin = Origin::Template;
@@ -220,10 +174,14 @@ void ProjectDocument::editProject(const tl::Project& after, int current, const Q
 
 bool ProjectDocument::importCsvScenario(const QString& folder, const QString& name, QString* error)
 {
-    tl::Project read;
-    if (!readCsvProject(folder, &read, error)) return false;
+    tl::ModelSource read;
+    if (!readProjectSource(folder, true, &read, error)) return false;
+    if (!read.csvFolder) {
+        if (error) *error = tr("%1 is not a CSV model folder.").arg(folder);
+        return false;
+    }
     tl::Project after = project_;
-    tl::Scenario s = std::move(read.scenarios.front());
+    tl::Scenario s = std::move(read.project->scenarios.front());
     QString unique = name.trimmed().isEmpty() ? QString::fromStdString(s.name) : name.trimmed();
     for (int n = 2; after.findScenario(unique.toStdString()); ++n)
         unique = QStringLiteral("%1 (%2)").arg(name.trimmed()).arg(n);

@@ -3,9 +3,10 @@
 // which every edit passes. The core Model stays the single source of truth
 // (DESIGN.md 2); table models and panels read it from here and never keep copies.
 //
-// Files: a .tledger project file (read whole into memory, written whole on save: a new
-// file beside the target, then renamed over it, so a crash never leaves a half-written
-// project) or a CSV model folder (DESIGN.md 5.1, imported as one scenario).
+// Files: a .tledger project file (read whole into memory, written whole on save through
+// the core's one safe save, core/store/project_save.h) or a CSV model folder
+// (DESIGN.md 5.1, one scenario). Paths are read by the core's one rule for models,
+// core/store/model_source.h, as the CLI reads them.
 #pragma once
 
 #include <QObject>
@@ -87,14 +88,14 @@ private:
     QString templateReason_;
 };
 
-// Reads a CSV folder into a one-scenario project named after the folder.
-bool readCsvProject(const QString& folder, tl::Project* out, QString* error);
-// Reads a whole .tledger file; `readOnlyReason` is set when it can only be read.
-// A file that can only be read (newer schema, no write permission) sets the reason;
-// `readOnly` opens it without ever writing (no migration), as for templates.
+// Reads a whole .tledger file, or a CSV folder as a one-scenario project named after
+// the folder (tl::readModelSource). A file that can only be read (newer schema, no
+// write permission) sets `readOnlyReason`; `readOnly` opens it without ever writing
+// (no migration), as for templates. A project without scenarios gets an empty "Base".
 bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason,
                      bool readOnly = false);
-// Writes `project` to `path` atomically (new file beside it, then rename).
+// Writes `project` to `path` through tl::saveProjectToPath (a new file is linked into
+// place when complete; an existing project is replaced in one transaction).
 bool writeProjectFile(const tl::Project& project, const QString& path, QString* error);
 
 }  // namespace tl::ui

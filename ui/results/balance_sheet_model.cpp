@@ -6,7 +6,7 @@
 #include <cmath>
 
 #include "core/model/text.h"
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 namespace {

@@ -21,7 +21,7 @@
 #include <cmath>
 #include <set>
 
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 

@@ -13,7 +13,7 @@
 #include <cmath>
 #include <map>
 
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 namespace {

@@ -14,7 +14,7 @@
 
 #include "core/balance/balance_sheet.h"
 #include "core/model/model.h"
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
 
 namespace tl::ui {
 namespace {

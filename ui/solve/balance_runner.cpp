@@ -3,11 +3,9 @@
 #include <QCoreApplication>
 #include <QtConcurrent/QtConcurrentRun>
 #include <chrono>
-#include <set>
-#include <tuple>
 
 #include "core/balance/solver.h"
-#include "core/model/validation.h"
+#include "core/balance/scenario_checks.h"
 
 namespace tl::ui {
 
@@ -15,13 +13,8 @@ SolveOutcome solveAndCheck(const tl::Model& model)
 {
     const auto t0 = std::chrono::steady_clock::now();
     SolveOutcome out;
-    out.checks = tl::validateModel(model);
     out.sheet = tl::solveBalance(model);
-    // The solver may repeat an input problem validation already found: show it once.
-    std::set<std::tuple<std::string, std::string, std::string, std::string>> seen;
-    for (const auto& p : out.checks) seen.emplace(p.code, p.compartment, p.parameter, p.prey);
-    for (const auto& p : out.sheet.problems)
-        if (seen.emplace(p.code, p.compartment, p.parameter, p.prey).second) out.checks.push_back(p);
+    out.checks = tl::scenarioChecks(model, out.sheet);
     out.milliseconds = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
     return out;
 }

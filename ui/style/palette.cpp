@@ -1,8 +1,10 @@
 #include "ui/style/palette.h"
 
 #include <QFile>
+#include <QObject>
 #include <QPainter>
 #include <QPixmap>
+#include <QPolygonF>
 
 static void tlInitUiResources() { Q_INIT_RESOURCE(workbench); }
 
@@ -15,58 +17,60 @@ void initResources()
     done = true;
 }
 
-QColor kindColor(tl::CompartmentKind kind)
+QColor kindColour(CompartmentKind kind)
 {
     switch (kind) {
-    case tl::CompartmentKind::Producer: return okabe_ito::bluishGreen;
-    case tl::CompartmentKind::Consumer: return okabe_ito::blue;
-    case tl::CompartmentKind::Detritus: return okabe_ito::orange;
+    case CompartmentKind::Producer: return okabe_ito::kBluishGreen;
+    case CompartmentKind::Consumer: return okabe_ito::kBlue;
+    case CompartmentKind::Detritus: return okabe_ito::kOrange;
     }
     return Qt::gray;
 }
 
-QIcon kindIcon(tl::CompartmentKind kind)
+QColor fleetColour() { return okabe_ito::kVermillion; }
+
+QString kindLabel(CompartmentKind kind)
+{
+    switch (kind) {
+    case CompartmentKind::Producer: return QObject::tr("Producer");
+    case CompartmentKind::Consumer: return QObject::tr("Consumer");
+    case CompartmentKind::Detritus: return QObject::tr("Detritus pool");
+    }
+    return {};
+}
+
+QIcon kindIcon(CompartmentKind kind)
 {
     QPixmap pm(14, 14);
     pm.fill(Qt::transparent);
     QPainter p(&pm);
     p.setRenderHint(QPainter::Antialiasing);
     p.setPen(QPen(QColor(40, 40, 40), 1));
-    p.setBrush(kindColor(kind));
+    p.setBrush(kindColour(kind));
     // Shape differs by kind too, so the swatch reads without colour.
-    if (kind == tl::CompartmentKind::Producer) p.drawEllipse(QRectF(1.5, 1.5, 11, 11));
-    else if (kind == tl::CompartmentKind::Consumer) p.drawRoundedRect(QRectF(1.5, 1.5, 11, 11), 3, 3);
+    if (kind == CompartmentKind::Producer) p.drawEllipse(QRectF(1.5, 1.5, 11, 11));
+    else if (kind == CompartmentKind::Consumer) p.drawRoundedRect(QRectF(1.5, 1.5, 11, 11), 3, 3);
     else p.drawPolygon(QPolygonF({QPointF(7, 1.5), QPointF(12.5, 12.5), QPointF(1.5, 12.5)}));
     return QIcon(pm);
 }
 
-QString kindName(tl::CompartmentKind kind)
+QString severityLabel(Severity s)
 {
-    switch (kind) {
-    case tl::CompartmentKind::Producer: return QObject::tr("Producer");
-    case tl::CompartmentKind::Consumer: return QObject::tr("Consumer");
-    case tl::CompartmentKind::Detritus: return QObject::tr("Detritus pool");
+    switch (s) {
+    case Severity::Error: return QObject::tr("Error");
+    case Severity::Warning: return QObject::tr("Warning");
+    case Severity::Info: return QObject::tr("Note");
     }
     return {};
 }
 
-QIcon severityIcon(tl::Severity s)
+QIcon severityIcon(Severity s)
 {
     initResources();
     switch (s) {
-    case tl::Severity::Error: return QIcon(QStringLiteral(":/tl/icons/status-error.svg"));
-    case tl::Severity::Warning: return QIcon(QStringLiteral(":/tl/icons/status-warning.svg"));
-    case tl::Severity::Info: return QIcon(QStringLiteral(":/tl/icons/status-info.svg"));
-    }
-    return {};
-}
-
-QString severityName(tl::Severity s)
-{
-    switch (s) {
-    case tl::Severity::Error: return QObject::tr("Error");
-    case tl::Severity::Warning: return QObject::tr("Warning");
-    case tl::Severity::Info: return QObject::tr("Note");
+    case Severity::Error: return QIcon(QStringLiteral(":/tl/icons/status-error.svg"));
+    case Severity::Warning: return QIcon(QStringLiteral(":/tl/icons/status-warning.svg"));
+    case Severity::Info: return QIcon(QStringLiteral(":/tl/icons/status-info.svg"));
     }
     return {};
 }
@@ -77,24 +81,41 @@ QIcon okIcon()
     return QIcon(QStringLiteral(":/tl/icons/status-ok.svg"));
 }
 
-QIcon statusIcon(tl::BalanceStatus s)
+QIcon statusIcon(std::optional<Severity> worst) { return worst ? severityIcon(*worst) : okIcon(); }
+
+QIcon statusIcon(BalanceStatus s)
 {
     switch (s) {
-    case tl::BalanceStatus::Balanced: return okIcon();
-    case tl::BalanceStatus::Unbalanced: return severityIcon(tl::Severity::Warning);
-    case tl::BalanceStatus::Invalid: return severityIcon(tl::Severity::Error);
+    case BalanceStatus::Balanced: return okIcon();
+    case BalanceStatus::Unbalanced: return severityIcon(Severity::Warning);
+    case BalanceStatus::Invalid: return severityIcon(Severity::Error);
     }
     return {};
 }
 
-QString statusLabel(tl::BalanceStatus s)
+QString statusLabel(BalanceStatus s)
 {
     switch (s) {
-    case tl::BalanceStatus::Balanced: return QObject::tr("Balanced");
-    case tl::BalanceStatus::Unbalanced: return QObject::tr("Not balanced");
-    case tl::BalanceStatus::Invalid: return QObject::tr("Cannot be solved");
+    case BalanceStatus::Balanced: return QObject::tr("Balanced");
+    case BalanceStatus::Unbalanced: return QObject::tr("Not balanced");
+    case BalanceStatus::Invalid: return QObject::tr("Cannot be solved");
     }
     return {};
+}
+
+QIcon solvedIcon()
+{
+    static const QIcon icon = [] {
+        QPixmap pm(32, 32);
+        pm.fill(Qt::transparent);
+        QPainter p(&pm);
+        p.setRenderHint(QPainter::Antialiasing);
+        p.setPen(Qt::NoPen);
+        p.setBrush(Qt::black);
+        p.drawPolygon(QPolygonF({QPointF(16, 6), QPointF(26, 16), QPointF(16, 26), QPointF(6, 16)}));
+        return QIcon(pm);
+    }();
+    return icon;
 }
 
 QString styleSheet()

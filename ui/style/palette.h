@@ -1,37 +1,53 @@
-// Workbench look: the Okabe–Ito colour-blind-safe palette (Okabe & Ito 2008, "Color
-// Universal Design") for compartment kinds, and status icons that always come with a
-// text — colour is never the only carrier of meaning (DESIGN.md 4).
+// The workbench's look, in one place (DESIGN.md 4): the Okabe–Ito colour-blind-safe
+// palette (Okabe & Ito 2008, "Color Universal Design") for compartment kinds and
+// fleets, the labels of kinds, severities and balance status, and the icons that go
+// with them. Status is always shown by icon + text, never by colour alone.
 #pragma once
 
 #include <QColor>
 #include <QIcon>
 #include <QString>
+#include <optional>
 
 #include "core/balance/balance_sheet.h"
+#include "core/io/balance_report.h"
 #include "core/model/compartment.h"
 #include "core/model/problem.h"
 
 namespace tl::ui {
 
 namespace okabe_ito {
-inline const QColor orange{0xE6, 0x9F, 0x00};
-inline const QColor skyBlue{0x56, 0xB4, 0xE9};
-inline const QColor bluishGreen{0x00, 0x9E, 0x73};
-inline const QColor yellow{0xF0, 0xE4, 0x42};
-inline const QColor blue{0x00, 0x72, 0xB2};
-inline const QColor vermillion{0xD5, 0x5E, 0x00};
-inline const QColor reddishPurple{0xCC, 0x79, 0xA7};
+inline const QColor kOrange{0xE6, 0x9F, 0x00};
+inline const QColor kSkyBlue{0x56, 0xB4, 0xE9};
+inline const QColor kBluishGreen{0x00, 0x9E, 0x73};
+inline const QColor kYellow{0xF0, 0xE4, 0x42};
+inline const QColor kBlue{0x00, 0x72, 0xB2};
+inline const QColor kVermillion{0xD5, 0x5E, 0x00};
+inline const QColor kReddishPurple{0xCC, 0x79, 0xA7};
 }  // namespace okabe_ito
 
-QColor kindColor(tl::CompartmentKind kind);   // producer green, consumer blue, detritus orange
-QIcon kindIcon(tl::CompartmentKind kind);     // a small swatch, always shown with the kind's name
-QString kindName(tl::CompartmentKind kind);  // "Producer", "Consumer", "Detritus pool"
+// Producers bluish green, consumers blue, detritus orange; fleets vermillion.
+QColor kindColour(CompartmentKind kind);
+QColor fleetColour();
+QString kindLabel(CompartmentKind kind);  // "Producer", "Consumer", "Detritus pool"
+QIcon kindIcon(CompartmentKind kind);     // a small swatch whose shape differs by kind too
 
-QIcon severityIcon(tl::Severity s);
-QString severityName(tl::Severity s);  // "Error", "Warning", "Note"
-QIcon statusIcon(tl::BalanceStatus s);
-QString statusLabel(tl::BalanceStatus s);  // "Balanced", "Not balanced", "Cannot be solved"
+QString severityLabel(Severity s);  // "Error", "Warning", "Note"
+QIcon severityIcon(Severity s);
 QIcon okIcon();
+// A tick for no problem, else the icon of the worst severity.
+QIcon statusIcon(std::optional<Severity> worst);
+QIcon statusIcon(BalanceStatus s);
+QString statusLabel(BalanceStatus s);  // "Balanced", "Not balanced", "Cannot be solved"
+
+// A small black diamond marking a value the balance solved (not entered).
+QIcon solvedIcon();
+inline QString solvedLegend() { return QStringLiteral("solved by the balance, not entered"); }
+
+// Printed under every exported figure, on the balance sheet, the harvest page and the
+// analysis pages (rules of the project: results that could steer harvest or water
+// decisions say so plainly). The sentence itself is the core's, so CLI and GUI agree.
+inline QString decisionSupportNotice() { return QString::fromUtf8(tl::kDecisionSupportNotice); }
 
 // Loads the application style sheet from resources (empty when missing).
 QString styleSheet();

@@ -12,7 +12,7 @@ QWidget* KindDelegate::createEditor(QWidget* parent, const QStyleOptionViewItem&
 {
     auto* box = new QComboBox(parent);
     for (auto k : {tl::CompartmentKind::Producer, tl::CompartmentKind::Consumer, tl::CompartmentKind::Detritus})
-        box->addItem(kindIcon(k), kindName(k), QString::fromUtf8(tl::kindKey(k).data(), qsizetype(tl::kindKey(k).size())));
+        box->addItem(kindIcon(k), kindLabel(k), QString::fromUtf8(tl::kindKey(k).data(), qsizetype(tl::kindKey(k).size())));
     return box;
 }
 

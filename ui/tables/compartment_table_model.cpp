@@ -186,7 +186,7 @@ QString CompartmentTableModel::applyText(tl::Model& m, int row, int column, cons
         const QString t = text.trimmed().toLower();
         std::optional<tl::CompartmentKind> kind = tl::parseKind(t.toStdString());
         for (auto k : {tl::CompartmentKind::Producer, tl::CompartmentKind::Consumer, tl::CompartmentKind::Detritus})
-            if (t == kindName(k).toLower()) kind = k;
+            if (t == kindLabel(k).toLower()) kind = k;
         if (!kind) return tr("The kind of %1 must be producer, consumer or detritus; \"%2\" is none of these.")
                        .arg(QString::fromStdString(c.name), text.trimmed());
         c.kind = *kind;
@@ -211,7 +211,7 @@ QVariant CompartmentTableModel::extraData(const tl::Model& m, int row, int colum
                                                                                         : nullptr;
     switch (role) {
     case Qt::DisplayRole:
-        if (column == kKindColumn) return kindName(c.kind);
+        if (column == kKindColumn) return kindLabel(c.kind);
         if (p && !c.value(*p) && applies(c.kind, *p)) {
             if (solved && std::isfinite(solvedValue(*solved, *p))) return shortNumber(solvedValue(*solved, *p));
             if (*p == tl::Param::Unassim && c.kind == tl::CompartmentKind::Consumer) return shortNumber(c.unassimilatedOrDefault());
@@ -243,7 +243,7 @@ QVariant CompartmentTableModel::extraData(const tl::Model& m, int row, int colum
     case Qt::ToolTipRole: {
         if (!p) return {};
         QStringList lines;
-        if (!applies(c.kind, *p)) lines << tr("Not used for a %1.").arg(kindName(c.kind).toLower());
+        if (!applies(c.kind, *p)) lines << tr("Not used for a %1.").arg(kindLabel(c.kind).toLower());
         else if (!c.value(*p)) {
             if (solved && std::isfinite(solvedValue(*solved, *p)))
                 lines << tr("Unknown; solved value %1.").arg(shortNumber(solvedValue(*solved, *p)));

@@ -29,10 +29,10 @@ DietTableModel::DietTableModel(ProjectDocument* doc, QObject* parent) : Scenario
     refreshFromDocument();
 }
 
+void DietTableModel::indexModel(const tl::Model& m) { predators_ = consumersOf(m); }
+
 QStringList DietTableModel::rowKeys(const tl::Model& m) const
 {
-    // Rows are recomputed here because this runs on every change of the model.
-    const_cast<DietTableModel*>(this)->predators_ = consumersOf(m);
     QStringList keys;
     for (std::size_t i : predators_) keys << qs(m.compartment(i).name);
     return keys;
@@ -46,12 +46,7 @@ QStringList DietTableModel::columnKeys(const tl::Model& m) const
     return keys;
 }
 
-int DietTableModel::rowOfPredator(std::size_t compartment) const
-{
-    for (std::size_t r = 0; r < predators_.size(); ++r)
-        if (predators_[r] == compartment) return int(r);
-    return -1;
-}
+int DietTableModel::rowOfPredator(std::size_t compartment) const { return rowOf(predators_, compartment); }
 
 std::vector<bool> DietTableModel::usedPrey() const
 {
@@ -83,7 +78,7 @@ QVariant DietTableModel::headerData(int section, Qt::Orientation orientation, in
     }
     if (role == Qt::DecorationRole && section < int(m.size())) return kindIcon(m.compartment(std::size_t(section)).kind);
     if (role == Qt::ToolTipRole) {
-        if (section < int(m.size())) return tr("Prey: %1 (%2)").arg(qs(m.compartment(std::size_t(section)).name), kindName(m.compartment(std::size_t(section)).kind).toLower());
+        if (section < int(m.size())) return tr("Prey: %1 (%2)").arg(qs(m.compartment(std::size_t(section)).name), kindLabel(m.compartment(std::size_t(section)).kind).toLower());
         if (section == importColumn()) return tr("Food taken outside the modelled area");
         if (section == sumColumn()) return tr("Each predator's diet should sum to 1");
     }
@@ -158,7 +153,7 @@ QVariant DietTableModel::extraData(const tl::Model& m, int row, int column, int 
         const double v = column < int(m.size()) ? m.diet(pred, std::size_t(column)) : m.dietImport(pred);
         if (v <= 0.0) return {};
         // Light shading by value: sky blue whose strength follows the share.
-        QColor c = okabe_ito::skyBlue;
+        QColor c = okabe_ito::kSkyBlue;
         c.setAlphaF(float(0.12 + 0.5 * std::min(1.0, v)));
         return QBrush(c);
     }

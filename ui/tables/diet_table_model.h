@@ -32,6 +32,7 @@ public:
     bool normaliseRow(int row, QString* why = nullptr);
 
 protected:
+    void indexModel(const tl::Model& m) override;
     QStringList rowKeys(const tl::Model& m) const override;
     QStringList columnKeys(const tl::Model& m) const override;
     QString cellText(const tl::Model& m, int row, int column) const override;

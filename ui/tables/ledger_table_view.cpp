@@ -33,7 +33,7 @@ LedgerTableView::LedgerTableView(QWidget* parent) : QTableView(parent)
     add(tr("Copy"), QKeySequence::Copy, &LedgerTableView::copySelection);
     add(tr("Paste"), QKeySequence::Paste, &LedgerTableView::pasteClipboard);
     add(tr("Fill down"), QKeySequence(Qt::CTRL | Qt::Key_D), &LedgerTableView::fillDownSelection);
-    add(tr("Clear"), QKeySequence::Delete, &LedgerTableView::clearSelection);
+    add(tr("Clear"), QKeySequence::Delete, &LedgerTableView::clearSelectedCells);
 }
 
 ScenarioTableModel* LedgerTableView::ledgerModel() const { return qobject_cast<ScenarioTableModel*>(model()); }
@@ -63,7 +63,7 @@ void LedgerTableView::fillDownSelection()
     if (auto* m = ledgerModel()) emit blockEdited(m->fillDown(selectedIndexes()), tr("Fill down"));
 }
 
-void LedgerTableView::clearSelection()
+void LedgerTableView::clearSelectedCells()
 {
     if (auto* m = ledgerModel()) emit blockEdited(m->clearCells(selectedIndexes()), tr("Clear"));
 }
@@ -84,7 +84,7 @@ void LedgerTableView::keyPressEvent(QKeyEvent* event)
     if (state() != QAbstractItemView::EditingState) {
         if (event->matches(QKeySequence::Paste)) return pasteClipboard();
         if (event->matches(QKeySequence::Copy)) return copySelection();
-        if (event->matches(QKeySequence::Delete) || event->key() == Qt::Key_Backspace) return clearSelection();
+        if (event->matches(QKeySequence::Delete) || event->key() == Qt::Key_Backspace) return clearSelectedCells();
         if (event->key() == Qt::Key_D && event->modifiers() == Qt::ControlModifier) return fillDownSelection();
         if ((event->key() == Qt::Key_Return || event->key() == Qt::Key_Enter) && event->modifiers() == Qt::NoModifier) {
             // Enter moves down, as in a spreadsheet (F2 edits in place).

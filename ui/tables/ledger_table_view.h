@@ -22,7 +22,7 @@ public:
     void copySelection();
     void pasteClipboard();
     void fillDownSelection();
-    void clearSelection();
+    void clearSelectedCells();  // empties the selected cells (one undo step); not QAbstractItemView::clearSelection
     // Sets the current cell and selects it (Checks panel navigation).
     void goToCell(int row, int column);
 

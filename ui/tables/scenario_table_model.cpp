@@ -1,5 +1,7 @@
 #include "ui/tables/scenario_table_model.h"
 
+#include "ui/style/palette.h"
+
 #include <QFont>
 #include <QLocale>
 #include <cmath>
@@ -42,8 +44,27 @@ ScenarioTableModel::ScenarioTableModel(ProjectDocument* doc, QObject* parent) : 
 
 const tl::Model& ScenarioTableModel::model() const { return doc_->model(); }
 
+void ScenarioTableModel::indexModel(const tl::Model&) {}
+
+QVariant ScenarioTableModel::compartmentHeader(std::size_t c, int role) const
+{
+    const tl::Model& m = model();
+    if (c >= m.size()) return {};
+    if (role == Qt::DisplayRole) return QString::fromStdString(m.compartment(c).name);
+    if (role == Qt::DecorationRole) return kindIcon(m.compartment(c).kind);
+    return {};
+}
+
+int ScenarioTableModel::rowOf(const std::vector<std::size_t>& rows, std::size_t c)
+{
+    for (std::size_t r = 0; r < rows.size(); ++r)
+        if (rows[r] == c) return int(r);
+    return -1;
+}
+
 void ScenarioTableModel::refreshFromDocument()
 {
+    indexModel(model());
     const QStringList rows = rowKeys(model());
     const QStringList cols = columnKeys(model());
     if (rows != rowKeys_ || cols != columnKeys_) {

@@ -71,6 +71,9 @@ signals:
     void inputRefused(const QString& message);
 
 protected:
+    // Caches what the other hooks need from `m` (e.g. which compartment each row shows);
+    // called first on every refresh.
+    virtual void indexModel(const tl::Model& m);
     // Identity of the rows and columns (e.g. compartment names): when it changes the
     // view is reset; otherwise only the values are refreshed, keeping the selection.
     virtual QStringList rowKeys(const tl::Model& m) const = 0;
@@ -85,6 +88,10 @@ protected:
 
     const tl::Model& model() const;
     const tl::BalanceSheet& sheet() const { return sheet_; }
+    // For tables whose rows are compartments: the row header of compartment `c` (its
+    // name, with its kind's icon), and the row showing `c` in `rows` (or -1).
+    QVariant compartmentHeader(std::size_t c, int role) const;
+    static int rowOf(const std::vector<std::size_t>& rows, std::size_t c);
     // Re-reads the row and column identity (call after the subclass changes its layout).
     void refreshFromDocument();
 

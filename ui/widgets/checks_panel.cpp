@@ -7,6 +7,7 @@
 #include <QVBoxLayout>
 
 #include "core/model/compartment.h"
+#include "core/model/problem_codes.h"
 #include "ui/style/palette.h"
 
 namespace tl::ui {
@@ -28,6 +29,34 @@ QString whereText(const tl::Problem& p)
         else if (!p.parameter.empty()) parts << QString::fromStdString(p.parameter);
     }
     return parts.isEmpty() ? QObject::tr("whole scenario") : parts.join(QStringLiteral(" · "));
+}
+
+QString codeExplanation(const std::string& code)
+{
+    const tl::ProblemCodeInfo* info = tl::findProblemCode(code);
+    return info ? QString::fromUtf8(info->explanation.data(), qsizetype(info->explanation.size())) : QString();
+}
+
+QWidget* problemCodesTable(QWidget* parent)
+{
+    auto* tree = new QTreeWidget(parent);
+    tree->setObjectName(QStringLiteral("problemCodes"));
+    tree->setColumnCount(3);
+    tree->setHeaderLabels({QObject::tr("Severity"), QObject::tr("Code"), QObject::tr("What it means")});
+    tree->setRootIsDecorated(false);
+    tree->setWordWrap(true);
+    tree->setAlternatingRowColors(true);
+    for (const tl::ProblemCodeInfo& info : tl::problemCodes()) {
+        auto* item = new QTreeWidgetItem(tree);
+        item->setIcon(0, severityIcon(info.severity));
+        item->setText(0, severityLabel(info.severity));
+        item->setText(1, QString::fromUtf8(info.code.data(), qsizetype(info.code.size())));
+        item->setText(2, QString::fromUtf8(info.explanation.data(), qsizetype(info.explanation.size())));
+    }
+    tree->header()->setSectionResizeMode(0, QHeaderView::ResizeToContents);
+    tree->header()->setSectionResizeMode(1, QHeaderView::ResizeToContents);
+    tree->header()->setStretchLastSection(true);
+    return tree;
 }
 
 ChecksPanel::ChecksPanel(QWidget* parent) : QWidget(parent)
@@ -65,12 +94,14 @@ void ChecksPanel::setProblems(const tl::Problems& problems)
         ++counts[int(p.severity)];
         auto* item = new QTreeWidgetItem(tree_);
         item->setIcon(0, severityIcon(p.severity));
-        item->setText(0, severityName(p.severity));
+        item->setText(0, severityLabel(p.severity));
         item->setText(1, whereText(p));
         QString text = QString::fromStdString(p.message);
         if (!p.hint.empty()) text += QLatin1Char('\n') + QString::fromStdString(p.hint);
         item->setText(2, text);
-        item->setToolTip(2, text + QStringLiteral("\n[") + QString::fromStdString(p.code) + QLatin1Char(']'));
+        QString tip = text + QStringLiteral("\n[") + QString::fromStdString(p.code) + QLatin1Char(']');
+        if (const QString why = codeExplanation(p.code); !why.isEmpty()) tip += QLatin1Char(' ') + why;
+        item->setToolTip(2, tip);
     }
     if (problems_.empty()) summary_->setText(tr("No problems found: inputs are complete and consistent."));
     else

@@ -1,7 +1,9 @@
 // ChecksPanel: every current problem and rule-of-thumb warning of the scenario
 // (validation + the balance sheet), live. Each line shows its severity as an icon AND
 // a word, where it sits (compartment, parameter, prey or fleet) and the message; the
-// hint is the second line. Activating a line asks the window to select that cell.
+// hint is the second line; the tooltip adds the problem's code and the registry's
+// one-line explanation of it (core/model/problem_codes.h). Activating a line asks the
+// window to select that cell.
 #pragma once
 
 #include <QWidget>
@@ -36,5 +38,10 @@ private:
 
 // "Zooplankton · P/B", "Perch eats Zooplankton", "Gill nets · Perch" ...
 QString whereText(const tl::Problem& p);
+
+// The registry's explanation of `code`, or empty for an unknown code.
+QString codeExplanation(const std::string& code);
+// Help: a table of every problem code with its severity and explanation.
+QWidget* problemCodesTable(QWidget* parent = nullptr);
 
 }  // namespace tl::ui

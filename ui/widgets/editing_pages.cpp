@@ -1,5 +1,7 @@
 #include "ui/widgets/editing_pages.h"
 
+#include "ui/style/palette.h"
+
 #include <QCheckBox>
 #include <algorithm>
 #include <QHBoxLayout>
@@ -166,9 +168,8 @@ void DietPage::updateHiddenColumns()
 
 HarvestPage::HarvestPage(ProjectDocument* doc, QWidget* parent)
     : EditingPage(doc, tr("Harvest"), QStringLiteral("harvest"),
-                  tr("what each fleet lands and discards from each compartment. Dead discards go to detritus. "
-                     "Model output supports, and does not replace, stock assessment, local regulation and "
-                     "licensed professional judgement."),
+                  tr("what each fleet lands and discards from each compartment. Dead discards go to detritus. ") +
+                      decisionSupportNotice(),
                   parent)
 {
     model_ = new HarvestTableModel(doc, this);

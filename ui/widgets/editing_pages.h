@@ -8,6 +8,7 @@
 #include "ui/tables/compartment_table_model.h"
 #include "ui/tables/diet_table_model.h"
 #include "ui/tables/harvest_table_model.h"
+#include "ui/tables/routing_table_model.h"
 #include "ui/tables/ledger_table_view.h"
 
 class QCheckBox;

@@ -403,7 +403,7 @@ TEST(SolverProblems, NegativeSolvedValue)
     const BalanceSheet sheet = solveBalance(m);
     EXPECT_EQ(sheet.status, BalanceStatus::Unbalanced);
     EXPECT_NEAR(sheet.rows[0].ee, -0.25, 1e-12);
-    const Problem* p = findProblem(sheet, code::kNegativeValue, "Alga");
+    const Problem* p = findProblem(sheet, code::kNegativeSolvedValue, "Alga");
     ASSERT_NE(p, nullptr) << listProblems(sheet);
     EXPECT_EQ(p->parameter, "ee");
 }

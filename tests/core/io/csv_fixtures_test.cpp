@@ -4,18 +4,13 @@
 // (BOM, CRLF, quoted names, stray spaces, trailing blank rows) reads as the same model.
 #include <gtest/gtest.h>
 
-#include <unistd.h>
-
 #include <filesystem>
-#include <fstream>
-#include <sstream>
 
 #include "core/io/csv_model.h"
+#include "tests/support/test_support.h"
 
-namespace tl {
+namespace tl::testing {
 namespace {
-
-namespace fs = std::filesystem;
 
 fs::path pondFolder(std::string_view name) { return fs::path(TL_FIXTURES_DIR) / "csv_models" / name; }
 
@@ -33,28 +28,6 @@ Model readOrFail(const fs::path& folder)
     EXPECT_FALSE(hasErrors(r.problems)) << describeAll(r.problems);
     return r.model.value_or(Model{});
 }
-
-std::string slurp(const fs::path& p)
-{
-    std::ifstream in(p, std::ios::binary);
-    std::ostringstream s;
-    s << in.rdbuf();
-    return s.str();
-}
-
-struct ScratchDir {
-    fs::path path;
-    explicit ScratchDir(const std::string& tag)
-        : path(fs::temp_directory_path() / ("tl_csvfix_" + tag + "_" + std::to_string(::getpid())))
-    {
-        fs::remove_all(path);
-    }
-    ~ScratchDir()
-    {
-        std::error_code ec;
-        fs::remove_all(path, ec);
-    }
-};
 
 TEST(PondFixture, ReadsTheValuesOfItsFiles)
 {
@@ -90,26 +63,26 @@ TEST(PondFixture, RoundTripIsExactAndByteStable)
 {
     const Model original = readOrFail(pondFolder("pond"));
     ScratchDir first("first"), second("second");
-    const Problems w1 = writeCsvModel(original, first.path);
+    const Problems w1 = writeCsvModel(original, first.path());
     ASSERT_FALSE(hasErrors(w1)) << describeAll(w1);
-    const Model reread = readOrFail(first.path);
+    const Model reread = readOrFail(first.path());
     EXPECT_EQ(reread, original);
 
-    const Problems w2 = writeCsvModel(reread, second.path);
+    const Problems w2 = writeCsvModel(reread, second.path());
     ASSERT_FALSE(hasErrors(w2)) << describeAll(w2);
     std::size_t files = 0;
-    for (const auto& entry : fs::directory_iterator(first.path)) {
+    for (const auto& entry : fs::directory_iterator(first.path())) {
         ++files;
-        const fs::path twin = second.path / entry.path().filename();
+        const fs::path twin = second.path() / entry.path().filename();
         ASSERT_TRUE(fs::exists(twin)) << twin;
         EXPECT_EQ(slurp(entry.path()), slurp(twin)) << entry.path().filename();
         EXPECT_EQ(entry.path().filename().string().find(".tmp"), std::string::npos) << "temporary file left behind";
     }
     EXPECT_GE(files, 3u);  // compartments, diet, harvest at least
     // Writing again over the same folder changes nothing either.
-    const std::string before = slurp(first.path / "compartments.csv");
-    ASSERT_FALSE(hasErrors(writeCsvModel(reread, first.path)));
-    EXPECT_EQ(slurp(first.path / "compartments.csv"), before);
+    const std::string before = slurp(first.path() / "compartments.csv");
+    ASSERT_FALSE(hasErrors(writeCsvModel(reread, first.path())));
+    EXPECT_EQ(slurp(first.path() / "compartments.csv"), before);
 }
 
 TEST(PondFixture, SpreadsheetQuirksReadAsTheSameModel)
@@ -125,4 +98,4 @@ TEST(PondFixture, SpreadsheetQuirksReadAsTheSameModel)
 }
 
 }  // namespace
-}  // namespace tl
+}  // namespace tl::testing

@@ -2,23 +2,19 @@
 
 #include <gtest/gtest.h>
 
+#include "tests/support/small_models.h"
+
 namespace tl {
 namespace {
 
-Compartment make(std::string name, CompartmentKind kind)
-{
-    Compartment c;
-    c.name = std::move(name);
-    c.kind = kind;
-    return c;
-}
+using testing::makeCompartment;
 
 Model threeBoxModel()
 {
     Model m;
-    m.addCompartment(make("Algae", CompartmentKind::Producer));
-    m.addCompartment(make("Grazer", CompartmentKind::Consumer));
-    m.addCompartment(make("Detritus", CompartmentKind::Detritus));
+    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer));
+    m.addCompartment(makeCompartment("Grazer", CompartmentKind::Consumer));
+    m.addCompartment(makeCompartment("Detritus", CompartmentKind::Detritus));
     m.setDiet(1, 0, 0.7);
     m.setDiet(1, 2, 0.3);
     m.addFleet("Nets");
@@ -29,7 +25,7 @@ Model threeBoxModel()
 TEST(Model, InsertKeepsDietAndHarvestAligned)
 {
     Model m = threeBoxModel();
-    m.addCompartment(make("Snail", CompartmentKind::Consumer), 1);
+    m.addCompartment(makeCompartment("Snail", CompartmentKind::Consumer), 1);
     ASSERT_EQ(m.size(), 4u);
     EXPECT_EQ(m.compartment(2).name, "Grazer");
     EXPECT_DOUBLE_EQ(m.diet(2, 0), 0.7);
@@ -87,7 +83,7 @@ TEST(Model, DietRowListsNonZeroPreyInIndexOrder)
 TEST(Model, DefaultRoutingSendsEverythingToFirstPool)
 {
     Model m = threeBoxModel();
-    m.addCompartment(make("Dissolved", CompartmentKind::Detritus));
+    m.addCompartment(makeCompartment("Dissolved", CompartmentKind::Detritus));
     EXPECT_DOUBLE_EQ(m.effectiveRouting(1, 2), 1.0);
     EXPECT_DOUBLE_EQ(m.effectiveRouting(1, 3), 0.0);
     m.setRouting(1, 3, 0.25);
@@ -105,9 +101,9 @@ TEST(Model, CatchCountsDeadDiscardsOnly)
 
 TEST(Compartment, UnassimilatedDefaultsByKind)
 {
-    EXPECT_DOUBLE_EQ(make("a", CompartmentKind::Consumer).unassimilatedOrDefault(), 0.2);
-    EXPECT_DOUBLE_EQ(make("b", CompartmentKind::Producer).unassimilatedOrDefault(), 0.0);
-    Compartment c = make("c", CompartmentKind::Consumer);
+    EXPECT_DOUBLE_EQ(makeCompartment("a", CompartmentKind::Consumer).unassimilatedOrDefault(), 0.2);
+    EXPECT_DOUBLE_EQ(makeCompartment("b", CompartmentKind::Producer).unassimilatedOrDefault(), 0.0);
+    Compartment c = makeCompartment("c", CompartmentKind::Consumer);
     c.value(Param::Unassim) = 0.35;
     EXPECT_DOUBLE_EQ(c.unassimilatedOrDefault(), 0.35);
 }

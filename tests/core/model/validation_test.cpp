@@ -6,26 +6,22 @@
 
 #include <gtest/gtest.h>
 
+#include "tests/support/small_models.h"
+
 #include <algorithm>
 
 namespace tl {
 namespace {
 
-Compartment make(std::string name, CompartmentKind kind)
-{
-    Compartment c;
-    c.name = std::move(name);
-    c.kind = kind;
-    return c;
-}
+using testing::makeCompartment;
 
 // Invented three-box pond for tests: algae, a grazer eating algae and detritus, detritus.
 Model soundModel()
 {
     Model m;
-    m.addCompartment(make("Algae", CompartmentKind::Producer));
-    m.addCompartment(make("Grazer", CompartmentKind::Consumer));
-    m.addCompartment(make("Detritus", CompartmentKind::Detritus));
+    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer));
+    m.addCompartment(makeCompartment("Grazer", CompartmentKind::Consumer));
+    m.addCompartment(makeCompartment("Detritus", CompartmentKind::Detritus));
     m.compartment(0).value(Param::Biomass) = 10;
     m.compartment(0).value(Param::PB) = 100;
     m.compartment(1).value(Param::Biomass) = 2;
@@ -58,9 +54,9 @@ TEST(Validation, SoundModelHasNoProblems)
 TEST(Validation, EmptyAndDuplicateNames)
 {
     Model m = soundModel();
-    m.addCompartment(make("  ", CompartmentKind::Consumer));
-    m.addCompartment(make("Grazer ", CompartmentKind::Consumer));  // equal after trimming
-    m.addCompartment(make(" Grazer", CompartmentKind::Consumer));  // a third: paired with the first
+    m.addCompartment(makeCompartment("  ", CompartmentKind::Consumer));
+    m.addCompartment(makeCompartment("Grazer ", CompartmentKind::Consumer));  // equal after trimming
+    m.addCompartment(makeCompartment(" Grazer", CompartmentKind::Consumer));  // a third: paired with the first
     const Problems all = validateModel(m);
     const auto empty = withCode(all, check::kEmptyName);
     ASSERT_EQ(empty.size(), 1u);
@@ -171,7 +167,7 @@ TEST(Validation, DietSumCountsImportAndHonoursTolerance)
 TEST(Validation, ConsumerWithoutDiet)
 {
     Model m = soundModel();
-    m.addCompartment(make("Perch", CompartmentKind::Consumer));
+    m.addCompartment(makeCompartment("Perch", CompartmentKind::Consumer));
     const auto p = withCode(validateModel(m), check::kDietSum);
     ASSERT_EQ(p.size(), 1u);
     EXPECT_EQ(p[0].compartment, "Perch");
@@ -203,7 +199,7 @@ TEST(Validation, DetritusWithDietIsNotAConsumer)
 TEST(Validation, RoutingSumAndTarget)
 {
     Model m = soundModel();
-    m.addCompartment(make("Dissolved", CompartmentKind::Detritus));
+    m.addCompartment(makeCompartment("Dissolved", CompartmentKind::Detritus));
     m.setRouting(1, 2, 0.6);
     m.setRouting(1, 3, 0.3);  // sums to 0.9
     m.setRouting(0, 1, 1.0);  // Algae -> Grazer: not a pool
@@ -224,7 +220,7 @@ TEST(Validation, RoutingSumAndTarget)
 TEST(Validation, NegativeRoutingFraction)
 {
     Model m = soundModel();
-    m.addCompartment(make("Dissolved", CompartmentKind::Detritus));
+    m.addCompartment(makeCompartment("Dissolved", CompartmentKind::Detritus));
     m.setRouting(1, 2, 1.2);
     m.setRouting(1, 3, -0.2);  // sums to 1 but is nonsense
     const auto p = withCode(validateModel(m), check::kRoutingFraction);

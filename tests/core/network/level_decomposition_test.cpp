@@ -67,19 +67,7 @@ TEST(LevelDecomposition, TenPercentChainHasTenPercentAtEveryLevel)
 // level II, half at level III; the mean level equals its trophic level 2.5.
 TEST(LevelDecomposition, OmnivoreSplitsOverTwoLevels)
 {
-    FlowNetwork net;
-    net.names = {"Plants", "Herbivore", "Omnivore"};
-    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer};
-    net.stocks = {10, 4, 2};
-    net.imports = {100, 0, 0};
-    net.foodImport = {0, 0, 0};
-    net.exports = {0, 0, 0.5};
-    net.respiration = {60, 14, 3.5};
-    net.production = {100, 2, 0.5};
-    net.flows = Eigen::MatrixXd::Zero(3, 3);
-    net.flows(0, 1) = 20;
-    net.flows(0, 2) = 2;
-    net.flows(1, 2) = 2;
+    const FlowNetwork net = testing::omnivoreWeb(60, 14);
     const LevelDecomposition d = decomposeLevels(net);
     ASSERT_EQ(d.levelCount(), 3);
     EXPECT_DOUBLE_EQ(d.combined.share(2, 1), 0.5);

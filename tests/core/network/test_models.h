@@ -5,23 +5,10 @@
 #include <string>
 
 #include "core/model/model.h"
+#include "core/network/flow_network.h"
+#include "tests/support/small_models.h"
 
 namespace tl::testing {
-
-inline Compartment makeCompartment(std::string name, CompartmentKind kind, std::optional<double> b,
-                                   std::optional<double> pb, std::optional<double> qb,
-                                   std::optional<double> ee = std::nullopt, std::optional<double> u = std::nullopt)
-{
-    Compartment c;
-    c.name = std::move(name);
-    c.kind = kind;
-    c.value(Param::Biomass) = b;
-    c.value(Param::PB) = pb;
-    c.value(Param::QB) = qb;
-    c.value(Param::EE) = ee;
-    c.value(Param::Unassim) = u;
-    return c;
-}
 
 // A four-level chain with 10 % transfer at every step (common practice, no source):
 // algae P = 1000 -> grazers Q = 100, P = 10 -> predators Q = 10, P = 1 -> top Q = 1,
@@ -78,6 +65,27 @@ inline Model richWeb()
     m.fleet(f).discards[4] = 0.1;
     m.fleet(f).discardSurvival[4] = 0.5;
     return m;
+}
+
+// Invented three-node web: plants eaten by a herbivore and an omnivore, the omnivore
+// also eating the herbivore (half plants, half herbivore). The plants' and the
+// herbivore's respiration are the callers' (each test balances its own boundary).
+inline FlowNetwork omnivoreWeb(double plantRespiration, double herbivoreRespiration)
+{
+    FlowNetwork net;
+    net.names = {"Plants", "Herbivore", "Omnivore"};
+    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer};
+    net.stocks = {10, 4, 2};
+    net.imports = {100, 0, 0};
+    net.foodImport = {0, 0, 0};
+    net.exports = {0, 0, 0.5};
+    net.respiration = {plantRespiration, herbivoreRespiration, 3.5};
+    net.production = {100, 2, 0.5};
+    net.flows = Eigen::MatrixXd::Zero(3, 3);
+    net.flows(0, 1) = 20;
+    net.flows(0, 2) = 2;
+    net.flows(1, 2) = 2;
+    return net;
 }
 
 }  // namespace tl::testing

@@ -9,6 +9,7 @@
 
 #include "core/io/csv_model.h"
 #include "core/io/scor.h"
+#include "core/store/model_source.h"
 #include "core/store/project_file.h"
 #include "core/store/project_json.h"
 #include "tests/core/store/store_test_support.h"
@@ -85,7 +86,7 @@ TEST(ImportExport, CsvToProjectToCsvGivesIdenticalFiles)
     for (const std::string& name : filesIn(source))
         EXPECT_EQ(fileBytes(back / name), fileBytes(source / name)) << name << " changed on the way through the project";
     // And the model itself, compared field by field.
-    auto loaded = loadScenarioFromFile(project, std::string("baseline"));
+    auto loaded = readScenarioSource(project, std::string("baseline"));
     ASSERT_TRUE(loaded.value);
     EXPECT_EQ(loaded.value->model, *readCsvModel(source).model);
 }
@@ -97,12 +98,12 @@ TEST(ImportExport, ProjectToJsonMatchesTheProjectInMemory)
     Project original = testing::inventedProject();
     original.runs.push_back(StoredRun{0, "baseline", "ensemble", R"({"draws": 10})", R"({"balanced_share": 1})", "x"});
     ASSERT_TRUE(ProjectFile::create(path, original).file);
-    auto loaded = loadProjectFromFile(path);
-    ASSERT_TRUE(loaded.value);
-    original.runs[0].id = loaded.value->runs.at(0).id;
+    auto loaded = readModelSource(path);
+    ASSERT_TRUE(loaded.project);
+    original.runs[0].id = loaded.project->runs.at(0).id;
     ProjectJsonOptions noStamps;
     noStamps.timestamps = false;
-    const std::string fromFile = projectJson(*loaded.value, noStamps);
+    const std::string fromFile = projectJson(*loaded.project, noStamps);
     EXPECT_EQ(fromFile, projectJson(original, noStamps));
     EXPECT_NE(fromFile.find("\"more nets\""), std::string::npos);
     EXPECT_NE(fromFile.find("\"catch curve, \\\"rough\\\"\""), std::string::npos) << "quotes escaped";

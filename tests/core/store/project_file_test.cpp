@@ -220,46 +220,22 @@ TEST(ProjectFile, TriggersPlantedInAFileDoNotRun)
     EXPECT_EQ(back.value->findScenario("new one")->model, s.model) << "its diet rows were kept";
 }
 
-TEST(ProjectFile, ScenarioOperations)
+TEST(ProjectFile, CreateScenarioRefusesTakenAndEmptyNames)
 {
     TempDir dir;
     const auto path = dir / "ops.tledger";
     auto file = ProjectFile::create(path, inventedProject()).file;
     ASSERT_TRUE(file);
-
-    ASSERT_TRUE(file->duplicateScenario("baseline", "  stocking  ", "more pike stocked").empty());
-    auto copy = file->loadScenario("stocking");
-    ASSERT_TRUE(copy.value);
-    EXPECT_EQ(copy.value->parent, "baseline");
-    EXPECT_EQ(copy.value->description, "more pike stocked");
-    EXPECT_EQ(copy.value->model, inventedProject().scenarios[0].model);
-    EXPECT_EQ(copy.value->layout, inventedProject().scenarios[0].layout);
-    // Deep copy: editing the copy leaves the original alone.
-    copy.value->model.compartment(0).value(Param::Biomass) = 9.0;
-    ASSERT_TRUE(file->saveScenario(*copy.value).empty());
-    EXPECT_EQ(file->loadScenario("baseline").value->model.compartment(0).value(Param::Biomass), 0.8);
-
-    EXPECT_TRUE(hasCode(file->duplicateScenario("baseline", "more nets"), "store-duplicate-name"));
-    EXPECT_TRUE(hasCode(file->duplicateScenario("nope", "x"), "store-unknown-scenario"));
-    EXPECT_TRUE(hasCode(file->createScenario(*copy.value), "store-duplicate-name"));
-    EXPECT_TRUE(hasCode(file->renameScenario("baseline", "  "), "store-invalid-name"));
-
-    ASSERT_TRUE(file->renameScenario("baseline", "reference").empty());
-    auto list = file->listScenarios();
-    ASSERT_TRUE(list.value);
-    ASSERT_EQ(list.value->size(), 3u);
-    EXPECT_EQ((*list.value)[0].name, "reference");
-    EXPECT_EQ((*list.value)[0].compartments, 6u);
-    EXPECT_EQ((*list.value)[1].parent, "reference") << "children follow a renamed parent";
-    EXPECT_EQ((*list.value)[2].name, "stocking");
-    EXPECT_EQ((*list.value)[2].parent, "reference");
-
-    ASSERT_TRUE(file->deleteScenario("reference").empty());
-    EXPECT_TRUE(hasCode(file->deleteScenario("reference"), "store-unknown-scenario"));
-    EXPECT_EQ(file->load().value->scenarioNames(), (std::vector<std::string>{"more nets", "stocking"}));
-    EXPECT_EQ(rawInt(path, "SELECT count(*) FROM compartment"), 12) << "cascade removed the deleted scenario's rows";
-    EXPECT_EQ(rawInt(path, "SELECT count(*) FROM diet d JOIN compartment c ON c.id = d.predator_id"),
-              rawInt(path, "SELECT count(*) FROM diet"));
+    Scenario s = inventedProject().scenarios[0];
+    s.name = "  stocking  ";
+    ASSERT_TRUE(file->createScenario(s).empty());
+    auto added = file->loadScenario("stocking");
+    ASSERT_TRUE(added.value);
+    EXPECT_EQ(added.value->model, inventedProject().scenarios[0].model);
+    EXPECT_TRUE(hasCode(file->createScenario(s), "store-duplicate-name"));
+    s.name = "  ";
+    EXPECT_TRUE(hasCode(file->createScenario(s), "store-invalid-name"));
+    EXPECT_EQ(file->load().value->scenarioNames(), (std::vector<std::string>{"baseline", "more nets", "stocking"}));
 }
 
 TEST(ProjectFile, StoredRunsAreKeptAndGoWithTheirScenario)
@@ -291,7 +267,9 @@ TEST(ProjectFile, StoredRunsAreKeptAndGoWithTheirScenario)
         EXPECT_EQ(*copy.file->listRuns().value, *file->listRuns().value);
     }
 
-    ASSERT_TRUE(file->deleteScenario("more nets").empty());
+    Project fewer = *file->load().value;
+    fewer.scenarios.pop_back();  // "more nets": its stored runs go with it
+    ASSERT_TRUE(file->save(fewer).empty());
     runs = file->listRuns();
     ASSERT_EQ(runs.value->size(), 1u);
     EXPECT_EQ((*runs.value)[0].kind, "reconcile");
@@ -320,8 +298,10 @@ TEST(ProjectFile, HostileNamesAreStoredAsJustNames)
     p.scenarios[1].model.fleet(0).name = names[1];
     auto file = ProjectFile::create(path, p).file;
     ASSERT_TRUE(file);
-    ASSERT_TRUE(file->duplicateScenario(p.scenarios[1].name, names[2]).empty());
-    ASSERT_TRUE(file->renameScenario(names[2], names[3]).empty());
+    Scenario copy = p.scenarios[1];
+    copy.name = names[3];
+    copy.parent = p.scenarios[1].name;
+    ASSERT_TRUE(file->createScenario(copy).empty());
     auto back = file->load();
     ASSERT_TRUE(back.value) << allMessages(back.problems);
     EXPECT_TRUE(sameContent(p, Project{back.value->info, {back.value->scenarios[0], back.value->scenarios[1]}, {}}));
@@ -443,10 +423,10 @@ TEST(ProjectFileRefusal, NewerSchemaOpensReadOnlyAndStaysUnchanged)
         auto loaded = opened.file->load();
         ASSERT_TRUE(loaded.value) << allMessages(loaded.problems);
         EXPECT_TRUE(sameContent(inventedProject(), *loaded.value));
-        const Problems refused = opened.file->saveInfo(loaded.value->info);
+        const Problems refused = opened.file->save(*loaded.value);
         EXPECT_TRUE(hasCode(refused, "store-read-only"));
         EXPECT_NE(allMessages(refused).find("newer version"), std::string::npos);
-        EXPECT_TRUE(hasCode(opened.file->deleteScenario("baseline"), "store-read-only"));
+        EXPECT_TRUE(hasCode(opened.file->saveScenario(loaded.value->scenarios[0]), "store-read-only"));
         EXPECT_TRUE(hasCode(opened.file->addRun(StoredRun{0, "", "ensemble", "{}", "{}", ""}).problems, "store-read-only"));
     }
     EXPECT_EQ(fileBytes(path), before);

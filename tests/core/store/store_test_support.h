@@ -12,6 +12,7 @@
 
 #include "core/model/model.h"
 #include "core/store/project.h"
+#include "tests/support/test_support.h"
 
 namespace tl::testing {
 
@@ -96,38 +97,18 @@ inline Project inventedProject(const std::string& title = "invented test project
     return p;
 }
 
-// A fresh, empty folder under the system temporary directory; removed on destruction.
-class TempDir {
+// A fresh, empty folder (tests/support/test_support.h), by default under the system
+// temporary directory; removed on destruction.
+class TempDir : public ScratchDir {
 public:
-    explicit TempDir(std::filesystem::path base = std::filesystem::temp_directory_path())
+    explicit TempDir(const std::filesystem::path& base = std::filesystem::temp_directory_path())
+        : ScratchDir("store", base)
     {
-        std::random_device rd;
-        path_ = base / ("tl_store_test_" + std::to_string(rd()) + std::to_string(rd()));
-        std::filesystem::create_directories(path_);
     }
-    ~TempDir()
-    {
-        std::error_code ec;
-        std::filesystem::remove_all(path_, ec);
-    }
-    const std::filesystem::path& path() const { return path_; }
-    std::filesystem::path operator/(const std::string& name) const { return path_ / name; }
-
-private:
-    std::filesystem::path path_;
 };
 
-inline std::string fileBytes(const std::filesystem::path& path)
-{
-    std::ifstream in(path, std::ios::binary);
-    return std::string(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
-}
-
-inline void writeBytes(const std::filesystem::path& path, const std::string& bytes)
-{
-    std::ofstream out(path, std::ios::binary | std::ios::trunc);
-    out << bytes;
-}
+inline std::string fileBytes(const std::filesystem::path& path) { return slurp(path); }
+inline void writeBytes(const std::filesystem::path& path, const std::string& bytes) { writeText(path, bytes); }
 
 // The content a user cares about: scenarios and runs, without save timestamps.
 inline bool sameContent(const Project& a, const Project& b)

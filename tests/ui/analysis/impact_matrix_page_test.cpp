@@ -17,17 +17,13 @@
 #include "core/network/mixed_trophic_impact.h"
 #include "ui/analysis/impact_colour_map.h"
 #include "ui/analysis/impact_matrix_page.h"
+#include "tests/support/test_support.h"
 
 using namespace tl::ui;
 
 namespace {
 
-tl::Model readModel(const char* name)
-{
-    auto result = tl::readCsvModel(std::string(TL_FIXTURES_DIR "/analysis/") + name);
-    if (!result.model) qFatal("fixture %s does not read", name);
-    return *result.model;
-}
+tl::Model readModel(const char* name) { return tl::testing::fixtureModel(std::string("analysis/") + name); }
 
 bool purpleish(const QColor& c) { return c.red() > c.green() + 8 && c.blue() > c.green() + 8; }
 bool greenish(const QColor& c) { return c.green() > c.red() + 8 && c.green() > c.blue() + 8; }

@@ -22,18 +22,14 @@
 #include "core/network/mixed_trophic_impact.h"
 #include "ui/analysis/analysis_pages.h"
 #include "ui/analysis/indicators_page.h"
-#include "ui/results/results_palette.h"
+#include "ui/style/palette.h"
+#include "tests/support/test_support.h"
 
 using namespace tl::ui;
 
 namespace {
 
-tl::Model readModel(const char* name)
-{
-    auto result = tl::readCsvModel(std::string(TL_FIXTURES_DIR "/analysis/") + name);
-    if (!result.model) qFatal("fixture %s does not read", name);
-    return *result.model;
-}
+tl::Model readModel(const char* name) { return tl::testing::fixtureModel(std::string("analysis/") + name); }
 
 bool same(double a, double b) { return (std::isnan(a) && std::isnan(b)) || a == b; }
 

@@ -16,17 +16,13 @@
 #include "ui/results/figure_export.h"
 #include "ui/results/flow_map_page.h"
 #include "ui/results/level_bars_page.h"
+#include "tests/support/test_support.h"
 
 using namespace tl::ui;
 
 namespace {
 
-tl::Model readModel(const char* name)
-{
-    auto result = tl::readCsvModel(std::string(TL_FIXTURES_DIR "/results/") + name);
-    if (!result.model) qFatal("fixture %s does not read", name);
-    return *result.model;
-}
+tl::Model readModel(const char* name) { return tl::testing::fixtureModel(std::string("results/") + name); }
 
 // All character data of an SVG file; fails the XML parse loudly.
 QString svgText(const QString& path, QString* error)

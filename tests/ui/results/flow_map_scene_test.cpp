@@ -12,17 +12,13 @@
 #include "core/io/csv_model.h"
 #include "core/network/flow_network.h"
 #include "ui/results/flow_map_page.h"
+#include "tests/support/test_support.h"
 
 using namespace tl::ui;
 
 namespace {
 
-tl::Model readModel(const char* name)
-{
-    auto result = tl::readCsvModel(std::string(TL_FIXTURES_DIR "/results/") + name);
-    if (!result.model) qFatal("fixture %s does not read", name);
-    return *result.model;
-}
+tl::Model readModel(const char* name) { return tl::testing::fixtureModel(std::string("results/") + name); }
 
 // Flows counted straight from the core's network and the model's harvest table.
 std::vector<double> expectedFlows(const tl::Model& model, const tl::BalanceSheet& sheet)

@@ -12,17 +12,13 @@
 #include "core/network/flow_network.h"
 #include "core/network/level_decomposition.h"
 #include "ui/results/level_bars_page.h"
+#include "tests/support/test_support.h"
 
 using namespace tl::ui;
 
 namespace {
 
-tl::Model readModel(const char* name)
-{
-    auto result = tl::readCsvModel(std::string(TL_FIXTURES_DIR "/results/") + name);
-    if (!result.model) qFatal("fixture %s does not read", name);
-    return *result.model;
-}
+tl::Model readModel(const char* name) { return tl::testing::fixtureModel(std::string("results/") + name); }
 
 bool close(double a, double b, double rel = 1e-9) { return std::abs(a - b) <= rel * std::max({1.0, std::abs(a), std::abs(b)}); }
 

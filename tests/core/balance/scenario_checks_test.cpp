@@ -1,0 +1,53 @@
+// The Checks of a scenario (core/balance/scenario_checks.h): validation first, then the
+// solver's findings, the same problem once.
+#include <gtest/gtest.h>
+
+#include <algorithm>
+
+#include "core/balance/scenario_checks.h"
+#include "core/balance/solver.h"
+#include "core/model/problem_codes.h"
+#include "tests/support/small_models.h"
+
+namespace tl {
+namespace {
+
+using testing::makeCompartment;
+
+std::size_t countCode(const Problems& problems, std::string_view code)
+{
+    return static_cast<std::size_t>(
+        std::count_if(problems.begin(), problems.end(), [&](const Problem& p) { return p.code == code; }));
+}
+
+// Invented two-compartment web without a detritus pool: validation and the solver both
+// find the missing pool; the Checks list it once.
+TEST(ScenarioChecks, NoDetritusPoolIsReportedOnce)
+{
+    Model m;
+    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer, 10.0, 50.0, std::nullopt));
+    m.addCompartment(makeCompartment("Grazer", CompartmentKind::Consumer, 2.0, 5.0, 20.0));
+    m.setDiet(1, 0, 1.0);
+    const BalanceSheet sheet = solveBalance(m);
+    ASSERT_EQ(countCode(sheet.problems, code::kNoDetritusPool), 1u) << "the solver reports it too";
+    const Problems checks = scenarioChecks(m, sheet);
+    EXPECT_EQ(countCode(checks, code::kNoDetritusPool), 1u);
+}
+
+// A solved value below zero is the solver's own problem (not an input problem): it is
+// kept, under its own code, beside validation's findings.
+TEST(ScenarioChecks, SolverProblemsThatValidationDidNotFindAreKept)
+{
+    Model m;
+    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer, 100.0, 10.0, std::nullopt));
+    m.addCompartment(makeCompartment("Detritus", CompartmentKind::Detritus, std::nullopt, std::nullopt, std::nullopt));
+    m.compartment(0).value(Param::NetEmigration) = -1500;  // immigration beyond use: EE < 0
+    const BalanceSheet sheet = solveBalance(m);
+    const Problems checks = scenarioChecks(m, sheet);
+    EXPECT_EQ(countCode(checks, code::kNegativeSolvedValue), 1u);
+    EXPECT_EQ(countCode(checks, code::kNegativeValue), 0u);
+    EXPECT_EQ(checks.size(), sheet.problems.size());  // the inputs themselves are fine
+}
+
+}  // namespace
+}  // namespace tl
