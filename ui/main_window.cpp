@@ -198,6 +198,11 @@ void MainWindow::buildPages()
 #if TL_UI_HAVE_ANALYSIS
     for (ResultsPage* p : createAnalysisPages(stack_)) resultsPages_.push_back(p);
 #endif
+    // A results page off screen is brought up to date when it is shown (see onSolved).
+    connect(stack_, &QStackedWidget::currentChanged, this, [this](int) {
+        auto* page = qobject_cast<ResultsPage*>(stack_->currentWidget());
+        if (page && staleResults_.erase(page)) page->setScenario(doc_->model(), outcome_.sheet);
+    });
     for (ResultsPage* p : resultsPages_) {
         addPage(p, p->title(), p->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
         connect(p, &ResultsPage::compartmentActivated, this, [this](const QString& name) {
@@ -343,7 +348,13 @@ void MainWindow::onSolved(const SolveOutcome& outcome)
     checks_->setProblems(outcome.checks);
     for (EditingPage* p : editingPages_) p->tableModel()->setBalanceSheet(outcome.sheet);
 #if TL_UI_HAVE_RESULTS
-    for (ResultsPage* p : resultsPages_) p->setScenario(doc_->model(), outcome.sheet);
+    // Only the page on screen follows every edit at once: the analyses behind the others
+    // (flow-map layout, impacts, indicators) would multiply the time from an edit to its
+    // redraw. The others catch up when shown.
+    for (ResultsPage* p : resultsPages_) {
+        if (p == stack_->currentWidget()) p->setScenario(doc_->model(), outcome.sheet);
+        else staleResults_.insert(p);
+    }
 #endif
     const tl::BalanceStatus st = outcome.sheet.status;
     statusIcon_->setPixmap(statusIcon(st).pixmap(16, 16));

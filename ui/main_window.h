@@ -8,6 +8,8 @@
 #include <QMainWindow>
 #include <QStringList>
 #include <memory>
+#include <set>
+#include <vector>
 
 #include "core/balance/balance_sheet.h"
 #include "core/model/problem.h"
@@ -119,6 +121,7 @@ private:
     RoutingPage* routing_ = nullptr;
     std::vector<EditingPage*> editingPages_;
     std::vector<ResultsPage*> resultsPages_;
+    std::set<ResultsPage*> staleResults_;  // pages off screen that have not seen the latest solve
 
     ChecksPanel* checks_;
     ConfidencePanel* confidence_;

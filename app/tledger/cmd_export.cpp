@@ -14,6 +14,9 @@
 #include <cstdio>
 #include <iostream>
 #include <system_error>
+#include <vector>
+
+#include <unistd.h>  // execv: figures are drawn by the sibling program tledger-figures
 
 #include "app/tledger/commands.h"
 #include "app/tledger/options.h"
@@ -183,6 +186,27 @@ int exportFigure(const Scenario& scenario, const ParsedOptions& opts, const std:
 #endif
 }
 
+#ifndef TL_HAVE_FIGURES
+// tledger links no Qt (it would slow every start); figures are drawn by the sibling
+// program tledger-figures, which runs the same export command. Returns only when that
+// program cannot be started (then the caller reports that figures need the GUI build).
+void handOverToFigureProgram(const Args& args)
+{
+    std::error_code error;
+    const fs::path self = fs::read_symlink("/proc/self/exe", error);
+    if (error) return;
+    const fs::path figures = self.parent_path() / "tledger-figures";
+    if (!fs::exists(figures, error)) return;
+    std::vector<std::string> words{figures.string(), "export"};
+    words.insert(words.end(), args.begin(), args.end());
+    std::vector<char*> argv;
+    for (std::string& w : words) argv.push_back(w.data());
+    argv.push_back(nullptr);
+    std::cout.flush();
+    ::execv(figures.c_str(), argv.data());
+}
+#endif
+
 }  // namespace
 
 int cmdExport(const Args& args)
@@ -200,6 +224,9 @@ int cmdExport(const Args& args)
         std::cerr << "tledger export: unknown --format '" << *format << "' (expected csv, json, scor, html, svg, png or pdf)\n";
         return 2;
     }
+#ifndef TL_HAVE_FIGURES
+    if (isFigureFormat(*format)) handOverToFigureProgram(args);
+#endif
     const fs::path model = opts->positional[0];
     const auto project = loadProject(model, opts->value("--scenario"));
     if (!project) return 2;

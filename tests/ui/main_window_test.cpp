@@ -19,6 +19,7 @@
 
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"
+#include "ui/results/balance_sheet_page.h"
 #include "ui/tables/ledger_table_view.h"
 #include "ui/widgets/checks_panel.h"
 #include "ui/widgets/editing_pages.h"
@@ -85,6 +86,32 @@ private slots:
         w.runner()->waitForIdle();
         QVERIFY(w.isWindowModified());
         QCOMPARE(w.lastOutcome().sheet.rows[3].biomass, 0.9);
+    }
+
+    // Only the page on screen follows each edit at once (the time from an edit to its
+    // redraw); a results page off screen must catch up the moment it is shown.
+    void resultsPageOffScreenCatchesUpWhenShown()
+    {
+        QTemporaryDir dir;
+        tl::ui::MainWindow w(testOptions(dir));
+        QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
+        w.show();
+        w.showPage(QStringLiteral("balance-sheet"));
+        w.runner()->waitForIdle();
+        tl::ui::BalanceSheetPage* page = nullptr;
+        for (auto* p : w.findChildren<tl::ui::BalanceSheetPage*>()) page = p;
+        QVERIFY(page);
+        QCOMPARE(page->sheetModel()->sheet().rows[3].biomass, w.lastOutcome().sheet.rows[3].biomass);
+
+        w.showPage(QStringLiteral("compartments"));
+        auto* table = w.compartmentsPage()->compartments();
+        QVERIFY(table->setData(table->index(3, tl::ui::CompartmentTableModel::columnOf(tl::Param::Biomass)), QStringLiteral("0.9")));
+        w.runner()->waitForIdle();
+        QCOMPARE(w.lastOutcome().sheet.rows[3].biomass, 0.9);
+        QVERIFY(page->sheetModel()->sheet().rows[3].biomass != 0.9);  // off screen: not redrawn yet
+
+        w.showPage(QStringLiteral("balance-sheet"));
+        QCOMPARE(page->sheetModel()->sheet().rows[3].biomass, 0.9);
     }
 
     void clickingACheckSelectsTheOffendingCell()
