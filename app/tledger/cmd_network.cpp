@@ -1,5 +1,5 @@
-// tledger network MODEL [--scenario NAME] [--json]
-// tledger network --scor FILE [--json]
+// tledger network MODEL [--scenario NAME] [--json] [--keep-feeding-cycles]
+// tledger network --scor FILE [--producers A,B] [--json] [--keep-feeding-cycles]
 // Trophic structure, level decomposition, mixed trophic impact and system indicators
 // of a solved scenario or of a plain SCOR flow network (DESIGN 3.3-3.5, 5.2, 5.3).
 #include <iostream>
@@ -11,10 +11,32 @@
 #include "core/balance/solver.h"
 #include "core/io/network_report.h"
 #include "core/io/scor.h"
+#include "core/model/text.h"
 #include "core/network/network_analysis.h"
 
 namespace tl::cli {
 namespace {
+
+// --keep-feeding-cycles: the labelled alternative to the published aggregation;
+// --producers A,B: the producers of a SCOR network, when its flows cannot tell them.
+AnalysisOptions analysisOptions(const ParsedOptions& opts)
+{
+    AnalysisOptions options;
+    if (opts.has("--keep-feeding-cycles")) options.feedingCycles = FeedingCycles::Kept;
+    if (const auto list = opts.value("--producers")) {
+        std::string name;
+        for (char c : *list + ",") {
+            if (c != ',') {
+                name += c;
+                continue;
+            }
+            const std::string trimmed = std::string(trim(name));
+            if (!trimmed.empty()) options.producers.push_back(trimmed);
+            name.clear();
+        }
+    }
+    return options;
+}
 
 int fromModel(const ParsedOptions& opts)
 {
@@ -28,7 +50,7 @@ int fromModel(const ParsedOptions& opts)
                      "(run `tledger check` for all problems)\n";
         return 1;
     }
-    const NetworkAnalysis r = analyseNetwork(*model, sheet);
+    const NetworkAnalysis r = analyseNetwork(*model, sheet, analysisOptions(opts));
     if (!r.available()) {
         std::cerr << "tledger network: the scenario has no compartments, so it has no flow network\n";
         return 1;
@@ -48,7 +70,10 @@ int fromScor(const ParsedOptions& opts, const std::string& file)
     const ScorReadResult read = readScorFile(file);
     for (const Problem& p : read.problems) std::cerr << p.describe() << '\n';
     if (!read.network) return 2;
-    const NetworkAnalysis r = analyseNetwork(*read.network);
+    const NetworkAnalysis r = analyseNetwork(*read.network, analysisOptions(opts));
+    for (const std::string& name : r.unknownProducers)
+        std::cerr << "tledger network: --producers names '" << name << "', which is no living node of " << file << "\n";
+    if (!r.unknownProducers.empty()) return 2;
     if (!opts.has("--json")) std::cout << "Network: " << read.network->title << " (units as the title states)\n\n";
     std::cout << (opts.has("--json") ? networkReportJson(r) : networkReportTables(r));
     return 0;
@@ -58,8 +83,13 @@ int fromScor(const ParsedOptions& opts, const std::string& file)
 
 int cmdNetwork(const Args& args)
 {
-    const auto opts = parseOptions(args, {"--scenario", "--scor"}, {"--json"}, "network", std::cerr);
+    const auto opts = parseOptions(args, {"--scenario", "--scor", "--producers"}, {"--json", "--keep-feeding-cycles"},
+                                   "network", std::cerr);
     if (!opts) return 2;
+    if (opts->value("--producers") && !opts->value("--scor")) {
+        std::cerr << "tledger network: --producers is for SCOR networks; a scenario's producers are its compartments' kind\n";
+        return 2;
+    }
     if (const auto scor = opts->value("--scor")) {
         if (!opts->positional.empty() || opts->value("--scenario")) {
             std::cerr << "tledger network: --scor FILE takes no MODEL and no --scenario\n";

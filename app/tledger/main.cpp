@@ -14,7 +14,8 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
   solve     MODEL [--scenario NAME] [--json]   balance sheet of a scenario
   check     MODEL [--scenario NAME] [--json]   input problems and rule-of-thumb checks
   network   MODEL [--scenario NAME] [--json]   trophic structure, impacts, indicators
-            --scor FILE [--json]               the same indicators for a SCOR flow network
+            --scor FILE [--producers A,B] [--json]  the same for a SCOR flow network
+            [--keep-feeding-cycles]            level decomposition without removing feeding cycles
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH

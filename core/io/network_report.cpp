@@ -28,7 +28,9 @@ void writeLevels(JsonWriter& w, const ChainDecomposition& chains)
         w.field("production", bin.production);
         w.field("catch", bin.catchTotal);
         w.field("passed_up", bin.passedUp);
-        w.field("te", bin.te);
+        w.field("te", bin.te);  // null at level I: no transfer efficiency through detritus
+        w.field("production_ratio", bin.productionRatio);
+        w.field("biomass_detritus", bin.biomassDetritus);
         w.endObject();
     }
     w.endArray();
@@ -62,11 +64,23 @@ std::string networkReportJson(const NetworkAnalysis& r)
     w.field("tpp_over_r", s.tppOverR);
     w.field("tpp_over_b", s.tppOverB);
     w.field("total_biomass", s.totalLivingBiomass);
-    w.field("system_omnivory", s.systemOmnivory);
+    w.field("system_omnivory", s.systemOmnivory);  // published: log(Q) weights (Christensen & Pauly 1993)
+    w.field("omnivory_intake_weighted", s.omnivoryIntakeWeighted);
+    w.field("feeding_links", s.feedingLinks);
+    w.field("food_web_connectance", s.foodWebConnectance);
+    w.field("producers_identified", s.producersIdentified);
+    if (!s.producersIdentified)
+        w.field("tpp_note", std::string("no producer can be told apart from the flows: TPP and its ratios are undefined; "
+                                        "name the producers (tledger network --producers A,B)"));
     w.field("total_catch", s.totalCatch);
+    w.field("total_landings", s.totalLandings);
+    w.field("total_detritus_inflow", s.totalDetritusInflow);
     w.field("catch_ppr", s.catchPpr);
-    w.field("catch_ppr_share_of_tpp", s.catchPprShareOfTpp);
-    w.field("catch_mean_tl", s.catchMeanTl);
+    w.field("catch_ppr_share_of_tpp", s.catchPprShareOfTpp);  // over TPP + detritus inflow
+    w.field("catch_ppr_producers_only", s.catchPprProducersOnly);
+    w.field("catch_ppr_producers_only_share_of_tpp", s.catchPprProducersOnlyShare);
+    w.field("catch_mean_tl", s.catchMeanTl);  // on landings (Pauly et al. 1998)
+    w.field("catch_mean_tl_with_discards", s.catchMeanTlWithDiscards);
     if (r.hasCatch) w.field("notice", kDecisionSupportNotice);
 
     // Keys of "tl" and "oi" are the names; a repeated name (some published networks have
@@ -88,6 +102,17 @@ std::string networkReportJson(const NetworkAnalysis& r)
     for (std::size_t i = 0; i < net.size(); ++i) w.field(keys[i], r.oi[i]);
     w.endObject();
 
+    w.field("feeding_cycles", r.levels.cycles == FeedingCycles::Removed ? "removed" : "kept");
+    w.field("feeding_cycles_found", r.levels.cycleRemoval.cycles);
+    w.field("feeding_cycle_removal_complete", r.levels.cycleRemoval.complete);
+    w.field("primary_production_consumed", r.levels.primaryProductionConsumed);
+    w.field("detritus_inflow_consumed", r.levels.detritusInflowConsumed);
+    {
+        const Eigen::VectorXd etl = r.levels.effectiveTrophicLevels();
+        w.key("etl").beginObject();  // effective trophic levels of the aggregation
+        for (std::size_t i = 0; i < net.size(); ++i) w.field(keys[i], etl[static_cast<Eigen::Index>(i)]);
+        w.endObject();
+    }
     w.key("levels");
     writeLevels(w, r.levels.combined);
     w.field("mean_te", r.levels.combined.meanTe);
@@ -168,14 +193,21 @@ std::string networkReportTables(const NetworkAnalysis& r)
     row("Development capacity", s.capacity, r.flowUnit() + " bits");
     row("Overhead", s.overhead, r.flowUnit() + " bits");
     row("Links", static_cast<double>(s.links), "");
-    row("Connectance (links/n^2)", s.connectance, "");
+    row("Connectance, all internal flows (links/n^2)", s.connectance, "");
+    row("Food-web connectance, feeding links among living", s.foodWebConnectance, "");
     row("Total primary production", s.totalPrimaryProduction, r.flowUnit());
     row("Total respiration", s.totalRespiration, r.flowUnit());
     row("TPP / respiration", s.tppOverR, "");
     row("TPP / living biomass", s.tppOverB, "/time");
     row("Living biomass", s.totalLivingBiomass, r.stockUnit());
-    row("System omnivory index", s.systemOmnivory, "");
+    row("System omnivory index (log-intake weighted; depends on units)", s.systemOmnivory, "");
+    row("Omnivory, intake-weighted mean", s.omnivoryIntakeWeighted, "");
+    row("Primary production consumed", r.levels.primaryProductionConsumed, "share");
+    row("Detritus inflow consumed", r.levels.detritusInflowConsumed, "share");
     out += "Indicators\n" + ind.render() + "\n";
+    if (!s.producersIdentified)
+        out += "No producer can be told apart from the flows, so TPP and its ratios are undefined: name them with "
+               "--producers A,B.\n\n";
 
     TextTable nodes;
     nodes.addColumn("Compartment", TextTable::Align::Left);
@@ -200,7 +232,8 @@ std::string networkReportTables(const NetworkAnalysis& r)
     lv.addColumn("TE producer chains");
     lv.addColumn("TE detritus chains");
     lv.addColumn("TE all");
-    // Feeding cycles give every level a sliver; the table stops where they become
+    lv.addColumn("P(k+1)/P(k)");
+    // Feeding cycles (when kept) give every level a sliver; the table stops where they become
     // negligible (the JSON has all levels).
     double levelTotal = 0;
     for (const TrophicLevelBin& bin : r.levels.combined.levels) levelTotal += bin.throughput;
@@ -211,9 +244,19 @@ std::string networkReportTables(const NetworkAnalysis& r)
         lv.addRow({roman(bin.level), displayNumber(bin.throughput), displayNumber(bin.biomass),
                    displayNumber(bin.production), displayNumber(bin.catchTotal),
                    displayNumber(r.levels.fromProducers.levels[k].te), displayNumber(r.levels.fromDetritus.levels[k].te),
-                   displayNumber(bin.te)});
+                   displayNumber(bin.te), displayNumber(bin.productionRatio)});
     }
-    out += "Level decomposition (throughput in " + r.flowUnit() + ", biomass in " + r.stockUnit() + ")\n" + lv.render();
+    out += "Level decomposition, feeding cycles " +
+           std::string(r.levels.cycles == FeedingCycles::Removed ? "removed first (Ulanowicz 1995)" : "kept (option)") +
+           " (throughput in " + r.flowUnit() + ", biomass in " + r.stockUnit() + ")\n" + lv.render();
+    if (!r.levels.combined.levels.empty())
+        out += "Level I has no transfer efficiency (it mixes producers and detritus): consumers eat " +
+               displayNumber(100.0 * r.levels.primaryProductionConsumed) + " % of primary production and " +
+               displayNumber(100.0 * r.levels.detritusInflowConsumed) + " % of detritus inflow. Level I biomass: " +
+               displayNumber(r.levels.combined.levels[0].biomass - r.levels.combined.levels[0].biomassDetritus) +
+               " producers, " + displayNumber(r.levels.combined.levels[0].biomassDetritus) + " detritus.\n";
+    if (!r.levels.cycleRemoval.complete)
+        out += "The feeding cycles are too many to enumerate; only part of them was removed.\n";
     if (shown < r.levels.combined.levels.size())
         out += "Levels " + roman(static_cast<int>(shown) + 1) + " and above hold less than 0.001 % of the "
                "throughput and are left out here (--json lists them)\n";

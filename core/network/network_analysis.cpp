@@ -6,9 +6,9 @@ namespace tl {
 namespace {
 
 // The analyses both sources share, once the network, TL and OI are known.
-void analyseFlows(NetworkAnalysis& a)
+void analyseFlows(NetworkAnalysis& a, const AnalysisOptions& options)
 {
-    a.levels = decomposeLevels(a.network);
+    a.levels = decomposeLevels(a.network, 30, options.feedingCycles);
     a.mti = mixedTrophicImpact(a.network);
     a.keystone = keystoneIndices(a.network, a.mti);
     for (std::size_t i = 0; i < a.network.size(); ++i)
@@ -17,7 +17,7 @@ void analyseFlows(NetworkAnalysis& a)
 
 }  // namespace
 
-NetworkAnalysis analyseNetwork(const Model& model, const BalanceSheet& sheet)
+NetworkAnalysis analyseNetwork(const Model& model, const BalanceSheet& sheet, const AnalysisOptions& options)
 {
     NetworkAnalysis a;
     a.units = model.units;
@@ -39,20 +39,21 @@ NetworkAnalysis analyseNetwork(const Model& model, const BalanceSheet& sheet)
         a.tl.push_back(row.tl);
         a.oi.push_back(row.oi);
     }
-    analyseFlows(a);
+    analyseFlows(a, options);
     return a;
 }
 
-NetworkAnalysis analyseNetwork(const ScorNetwork& scor)
+NetworkAnalysis analyseNetwork(const ScorNetwork& scor, const AnalysisOptions& options)
 {
     NetworkAnalysis a;
     a.fromScor = true;
     a.network = flowNetworkFromScor(scor);
+    if (!options.producers.empty()) a.unknownProducers = assignProducers(a.network, options.producers);
     a.indicators = systemIndicators(a.network);
     FlowTrophicLevels levels = flowTrophicLevels(a.network);
     a.tl = std::move(levels.tl);
     a.oi = std::move(levels.omnivory);
-    analyseFlows(a);
+    analyseFlows(a, options);
     return a;
 }
 

@@ -31,6 +31,14 @@
 
 namespace tl {
 
+// Choices a user can make about the analyses.
+struct AnalysisOptions {
+    FeedingCycles feedingCycles = FeedingCycles::Removed;  // level decomposition (Ulanowicz 1995: removed)
+    // SCOR networks: the living nodes that are primary producers. Empty: told apart by
+    // their flows (living nodes with no intake from other nodes).
+    std::vector<std::string> producers;
+};
+
 // Why a scenario has no network analysis.
 enum class AnalysisGap {
     None,        // analysed
@@ -53,6 +61,7 @@ struct NetworkAnalysis {
     std::vector<KeystoneEntry> keystone;
     std::optional<DietOverlap> overlap;   // scenarios only (needs the diet matrix)
     bool hasCatch = false;                // some node is harvested: outputs carry the decision-support notice
+    std::vector<std::string> unknownProducers;  // names given in AnalysisOptions::producers that are no living node
 
     bool available() const { return gap == AnalysisGap::None; }
     std::string flowUnit() const { return fromScor ? "flow units" : units.flow(); }
@@ -61,8 +70,8 @@ struct NetworkAnalysis {
 
 // The analyses of a solved scenario (any thread). An Invalid sheet or an empty model
 // gives `gap` set and nothing else computed.
-NetworkAnalysis analyseNetwork(const Model& model, const BalanceSheet& sheet);
+NetworkAnalysis analyseNetwork(const Model& model, const BalanceSheet& sheet, const AnalysisOptions& options = {});
 // The analyses of a plain flow network read from a SCOR file.
-NetworkAnalysis analyseNetwork(const ScorNetwork& scor);
+NetworkAnalysis analyseNetwork(const ScorNetwork& scor, const AnalysisOptions& options = {});
 
 }  // namespace tl

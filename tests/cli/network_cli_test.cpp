@@ -38,6 +38,49 @@ TEST(NetworkCli, ScorJsonHasTheContractKeys)
     EXPECT_FALSE(j.contains("status"));  // a SCOR network has no balance status
 }
 
+// Issue conventions: TE is not defined at level I (consumed shares instead), TPP figures
+// are null when no producer can be told apart, and the user can name the producers.
+TEST(NetworkCli, ScorWithoutProducersHasNullTppUntilTheyAreNamed)
+{
+    // Lake Findley's living nodes (zooplankton, benthos) both feed on detritus.
+    const std::string file = shellQuoted(kScor + "lake_findley.scor");
+    const CliRun run = runNetwork("--scor " + file + " --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    const nlohmann::json j = run.json();
+    EXPECT_FALSE(j.at("producers_identified").get<bool>());
+    EXPECT_TRUE(j.at("total_primary_production").is_null());
+    EXPECT_TRUE(j.at("tpp_over_r").is_null());
+    EXPECT_TRUE(j.contains("tpp_note"));
+    EXPECT_TRUE(j.at("levels").at(0).at("te").is_null());
+    EXPECT_EQ(j.at("feeding_cycles").get<std::string>(), "removed");
+    for (const char* key : {"food_web_connectance", "omnivory_intake_weighted", "detritus_inflow_consumed", "etl"})
+        EXPECT_TRUE(j.contains(key)) << key;
+
+    const CliRun named = runNetwork("--scor " + file + " --producers ZOOPLANKTON --json");
+    ASSERT_EQ(named.exitCode, 0) << named.err;
+    EXPECT_TRUE(named.json().at("producers_identified").get<bool>());
+    // TPP is now defined: the named producer's boundary input, which the file gives as
+    // none (its inputs enter the two detritus nodes).
+    EXPECT_TRUE(named.json().at("total_primary_production").is_number());
+    EXPECT_EQ(named.json().at("total_primary_production").get<double>(), 0.0);
+
+    const CliRun wrong = runNetwork("--scor " + file + " --producers KELP");
+    EXPECT_EQ(wrong.exitCode, 2);
+    EXPECT_NE(wrong.err.find("'KELP'"), std::string::npos) << wrong.err;
+}
+
+TEST(NetworkCli, FeedingCyclesRemovedByDefaultAndKeptOnRequest)
+{
+    const std::string model = shellQuoted(std::string(TL_FIXTURES_DIR) + "/csv_models/pond");
+    const CliRun removed = runNetwork(model + " --json"), kept = runNetwork(model + " --json --keep-feeding-cycles");
+    ASSERT_LE(removed.exitCode, 1) << removed.err;
+    ASSERT_LE(kept.exitCode, 1) << kept.err;
+    EXPECT_EQ(removed.json().at("feeding_cycles").get<std::string>(), "removed");
+    EXPECT_EQ(kept.json().at("feeding_cycles").get<std::string>(), "kept");
+    EXPECT_TRUE(removed.json().at("levels").at(0).at("te").is_null());
+    EXPECT_EQ(runNetwork(model + " --producers Alga").exitCode, 2);  // --producers is for SCOR networks
+}
+
 TEST(NetworkCli, ScorTablesWithoutCatchHaveNoCatchSection)
 {
     const CliRun run = runNetwork("--scor " + shellQuoted(kScor + "oyster_reef.scor"));
