@@ -58,6 +58,10 @@ int main(int argc, char* argv[])
                                 QStringLiteral("dir"));
     QCommandLineOption asTemplate(QStringLiteral("template"), QStringLiteral("Open the project as a template (Save As to keep changes)."));
     parser.addOption(snapshot);
+    QCommandLineOption snapshotSize(QStringLiteral("snapshot-size"),
+                                    QStringLiteral("Window size for --snapshot, WIDTHxHEIGHT (default 1600x1000)."),
+                                    QStringLiteral("size"), QStringLiteral("1600x1000"));
+    parser.addOption(snapshotSize);
     parser.addOption(asTemplate);
     parser.process(app);
     const QStringList args = parser.positionalArguments();
@@ -78,6 +82,16 @@ int main(int argc, char* argv[])
             std::fprintf(stderr, "trophic-ledger: no project given and no sample project found\n");
             return 2;
         }
+        const QStringList wh = parser.value(snapshotSize).split(QLatin1Char('x'));
+        bool okW = false, okH = false;
+        const int width = wh.size() == 2 ? wh[0].toInt(&okW) : 0, height = wh.size() == 2 ? wh[1].toInt(&okH) : 0;
+        if (!okW || !okH || width < 320 || height < 240 || width > 8000 || height > 8000) {
+            std::fprintf(stderr, "trophic-ledger: --snapshot-size '%s' is not WIDTHxHEIGHT between 320x240 and 8000x8000\n",
+                         qPrintable(parser.value(snapshotSize)));
+            return 2;
+        }
+        window.resize(width, height);
+        window.show();
         QString error;
         if (!window.openPath(project, args.isEmpty() || parser.isSet(asTemplate), &error)) {
             std::fprintf(stderr, "trophic-ledger: %s\n", qPrintable(error));

@@ -33,10 +33,23 @@ std::vector<IndicatorRow> indicatorRows(const ScenarioAnalysis& a)
          tr("Biomass of producers and consumers; detritus pools left out (DESIGN.md 3.5)")},
         {"links", tr("Links"), static_cast<double>(s.links), tr("count"),
          tr("Non-zero flows between compartments, cannibal loops counted (DESIGN.md 3.5)")},
-        {"connectance", tr("Connectance"), s.connectance, none,
-         tr("Links / n², n compartments (DESIGN.md 3.5; common practice, no source)")},
+        {"connectance", tr("Connectance, all internal flows"), s.connectance, none,
+         tr("Links / n² over every internal flow, flows to detritus included (network analysis; DESIGN.md 3.5)")},
+        {"food_web_connectance", tr("Food-web connectance"), s.foodWebConnectance, none,
+         tr("Feeding links among living compartments / (living compartments)², cannibalism counted "
+            "(directed connectance of food-web studies, Martinez 1992, Am Nat 139:1208, recalled from memory)")},
         {"system_omnivory", tr("System omnivory index"), s.systemOmnivory, none,
-         tr("Intake-weighted mean of the consumers' omnivory index (Pauly et al. 1993; weighting: this project's)")},
+         tr("Consumers' omnivory index weighted by the logarithm of their intake (Christensen & Pauly 1993, "
+            "ICLARM Conf Proc 26). Depends on the units: log Q is negative when Q < 1")},
+        {"omnivory_intake_weighted", tr("Omnivory, intake-weighted mean"), s.omnivoryIntakeWeighted, none,
+         tr("Consumers' omnivory index (Pauly et al. 1993) weighted by their intake Q: this project's variant, "
+            "independent of units")},
+        {"primary_production_consumed", tr("Primary production consumed"), a.levels.primaryProductionConsumed, none,
+         tr("Share of the producers' production that consumers eat: shown at level I in place of a transfer "
+            "efficiency, which level I (producers and detritus together) does not have (DESIGN.md 3.3)")},
+        {"detritus_inflow_consumed", tr("Detritus inflow consumed"), a.levels.detritusInflowConsumed, none,
+         tr("Share of the detritus pools' inflow that consumers eat (level I, beside primary production consumed; "
+            "DESIGN.md 3.3)")},
         {"fci", tr("Finn cycling index (FCI)"), s.fci, none,
          tr("Share of the throughput that is recycled (Finn 1976)")},
         {"apl", tr("Average path length (APL)"), s.apl, none,
@@ -54,13 +67,26 @@ std::vector<IndicatorRow> indicatorRows(const ScenarioAnalysis& a)
             "(Lindeman 1942, Ecology 23:399; the mean: common practice, no source)")},
         {"total_catch", tr("Total catch"), s.totalCatch, flow,
          tr("Landings plus dead discards of every fleet (DESIGN.md 3.5; Model::totalCatch)"), true},
-        {"catch_ppr", tr("Primary production required by the catch (PPR)"), s.catchPpr, flow,
-         tr("Primary production (and detritus) needed to produce the catch (Pauly & Christensen 1995, Nature 374:255)"),
+        {"catch_ppr", tr("PPR of the catch, detritus counted as level-I supply"), s.catchPpr, flow,
+         tr("Primary production required to produce the catch (Pauly & Christensen 1995, Nature 374:255), each unit "
+            "of detritus eaten counted as one unit of level-I supply"),
          true},
-        {"catch_ppr_share_of_tpp", tr("PPR of the catch / TPP"), s.catchPprShareOfTpp, none,
-         tr("Share of the primary production that the catch requires (Pauly & Christensen 1995)"), true},
-        {"catch_mean_tl", tr("Mean trophic level of the catch"), s.catchMeanTl, tr("trophic level"),
-         tr("Catch-weighted mean trophic level of the harvested compartments (Pauly & Christensen 1995)"), true},
+        {"catch_ppr_share_of_tpp", tr("PPR (detritus counted) / (TPP + detritus inflow)"), s.catchPprShareOfTpp, none,
+         tr("The PPR above over its matching total: primary production plus the detritus pools' inflow (DESIGN.md 3.3)"),
+         true},
+        {"catch_ppr_producers_only", tr("PPR of the catch, producers only"), s.catchPprProducersOnly, flow,
+         tr("Primary production required, detritus eaten needing none further (Pauly & Christensen 1995; "
+            "the two readings are this project's labels)"),
+         true},
+        {"catch_ppr_producers_only_share_of_tpp", tr("PPR (producers only) / TPP"), s.catchPprProducersOnlyShare,
+         none, tr("The producers-only PPR over total primary production (DESIGN.md 3.3)"), true},
+        {"catch_mean_tl", tr("Mean trophic level of the catch (landings)"), s.catchMeanTl, tr("trophic level"),
+         tr("Landings-weighted mean trophic level, as in the analyses of fishing down food webs "
+            "(Pauly et al. 1998, Science 279:860)"),
+         true},
+        {"catch_mean_tl_with_discards", tr("Mean trophic level of landings + dead discards"),
+         s.catchMeanTlWithDiscards, tr("trophic level"),
+         tr("The same, weighted by everything the fleets kill: landings plus dead discards (DESIGN.md 3.3)"), true},
     };
 }
 

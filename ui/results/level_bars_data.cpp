@@ -45,6 +45,8 @@ LevelBarsData levelBarsData(const FlowNetwork& network, const LevelDecomposition
     const ChainDecomposition& c = chainsOf(decomposition, chains);
     LevelBarsData data;
     data.meanTe = c.meanTe;
+    data.primaryProductionConsumed = decomposition.primaryProductionConsumed;
+    data.detritusInflowConsumed = decomposition.detritusInflowConsumed;
     const auto levels = static_cast<Eigen::Index>(c.levels.size());
     const auto nodes = std::min<Eigen::Index>(c.share.rows(), static_cast<Eigen::Index>(network.size()));
     double largest = 0.0;

@@ -33,6 +33,8 @@ struct LevelStack {
 struct LevelBarsData {
     std::vector<LevelStack> stacks;  // level I first; trailing levels below the cut dropped
     double meanTe = 0.0;             // geometric mean TE of levels II-IV (core), or NaN
+    // Level I has no TE (core/network/level_decomposition.h); these stand in its place.
+    double primaryProductionConsumed = 0.0, detritusInflowConsumed = 0.0;
     double grandTotal = 0.0;         // sum over all levels of the decomposition (none dropped)
     int droppedLevels = 0;           // trailing levels whose total is below `cut` x the largest
 };

@@ -64,11 +64,14 @@ QString romanNumeral(int level)
 
 LevelBarsPage::LevelBarsPage(QWidget* parent)
     : ResultsPage(parent), plot_(new QCustomPlot(this)), quantityCombo_(new QComboBox(this)),
-      chainsCombo_(new QComboBox(this)), scaleCombo_(new QComboBox(this))
+      chainsCombo_(new QComboBox(this)), scaleCombo_(new QComboBox(this)), cyclesCombo_(new QComboBox(this))
 {
     quantityCombo_->addItems({tr("Throughput"), tr("Biomass"), tr("Production")});
     chainsCombo_->addItems({tr("All food chains"), tr("Chains from producers"), tr("Chains from detritus")});
     scaleCombo_->addItems({tr("Linear"), tr("Logarithmic")});
+    cyclesCombo_->addItems({tr("Cycles removed"), tr("Cycles kept")});
+    cyclesCombo_->setToolTip(tr("The aggregation into integer levels removes feeding cycles first (cycle analysis, "
+                                "Ulanowicz 1983, 1995). Keeping them follows every chain round its loops."));
 
     auto* controls = new QHBoxLayout;
     controls->addWidget(new QLabel(tr("Show"), this));
@@ -77,6 +80,12 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     controls->addWidget(chainsCombo_);
     controls->addWidget(new QLabel(tr("Bar length"), this));
     controls->addWidget(scaleCombo_);
+    controls->addWidget(new QLabel(tr("Feeding"), this));
+    controls->addWidget(cyclesCombo_);
+    for (QComboBox* combo : {quantityCombo_, chainsCombo_, scaleCombo_, cyclesCombo_}) {  // may shrink on small screens
+        combo->setSizeAdjustPolicy(QComboBox::AdjustToMinimumContentsLengthWithIcon);
+        combo->setMinimumContentsLength(combo == cyclesCombo_ ? 14 : 8);
+    }
     controls->addStretch(1);
     auto* layout = new QVBoxLayout(this);
     layout->addLayout(controls);
@@ -110,6 +119,11 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
             [this](int i) { setQuantity(static_cast<LevelQuantity>(i)); });
     connect(chainsCombo_, &QComboBox::currentIndexChanged, this, [this](int i) { setChains(static_cast<LevelChains>(i)); });
     connect(scaleCombo_, &QComboBox::currentIndexChanged, this, [this](int i) { setLogScale(i == 1); });
+    connect(cyclesCombo_, &QComboBox::currentIndexChanged, this, [this](int i) {
+        cycles_ = i == 1 ? FeedingCycles::Kept : FeedingCycles::Removed;
+        if (network_) decomposition_ = std::make_unique<LevelDecomposition>(decomposeLevels(*network_, 30, cycles_));
+        scheduleRebuild();
+    });
     connect(plot_, &QCustomPlot::mouseMove, this, &LevelBarsPage::onMouseMove);
     connect(plot_, &QWidget::customContextMenuRequested, this, [this](QPoint at) {
         QMenu menu(this);
@@ -134,7 +148,7 @@ void LevelBarsPage::setScenario(const tl::Model& model, const tl::BalanceSheet& 
                           "See the balance sheet for the problems.");
     } else {
         network_ = std::make_unique<FlowNetwork>(buildFlowNetwork(model, sheet));
-        decomposition_ = std::make_unique<LevelDecomposition>(decomposeLevels(*network_));
+        decomposition_ = std::make_unique<LevelDecomposition>(decomposeLevels(*network_, 30, cycles_));
         if (decomposition_->levelCount() == 0) unavailable_ = tr("The food web has no flows to decompose.");
     }
     scheduleRebuild();
@@ -233,6 +247,10 @@ void LevelBarsPage::rebuild()
         sub += tr("  ·  1 higher level below 0.01 % of the largest not drawn");
     else if (data_.droppedLevels > 1)
         sub += tr("  ·  %1 higher levels below 0.01 % of the largest not drawn").arg(data_.droppedLevels);
+    // Level I mixes producers and detritus: no transfer efficiency, the eaten shares instead.
+    sub += QLatin1Char('\n') + tr("Level I has no transfer efficiency: consumers eat %1 of primary production and %2 of "
+                                   "detritus inflow")
+                                    .arg(percent(data_.primaryProductionConsumed), percent(data_.detritusInflowConsumed));
     subheading->setText(sub);
 
     // Bar lengths: the total (linear) or log10(total / floor), floor a decade below the smallest.
@@ -300,7 +318,7 @@ void LevelBarsPage::rebuild()
         total->setFont(QFont(font().family(), 9));
     }
     // Transfer efficiency of level k, written left of the gap between bars k and k+1.
-    for (int k = 0; k + 1 < levels; ++k) {
+    for (int k = 1; k + 1 < levels; ++k) {  // from level II (level I: see the subheading)
         const auto& s = data_.stacks[static_cast<std::size_t>(k)];
         const double left = -std::max(lengthOf(s.total), lengthOf(data_.stacks[static_cast<std::size_t>(k + 1)].total)) / 2;
         auto* te = new QCPItemText(plot_);

@@ -72,6 +72,8 @@ private:
     QComboBox* quantityCombo_;
     QComboBox* chainsCombo_;
     QComboBox* scaleCombo_;
+    QComboBox* cyclesCombo_;
+    tl::FeedingCycles cycles_ = tl::FeedingCycles::Removed;
     std::unique_ptr<FlowNetwork> network_;
     std::unique_ptr<LevelDecomposition> decomposition_;
     std::vector<CompartmentKind> kinds_;

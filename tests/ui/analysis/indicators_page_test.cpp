@@ -63,7 +63,12 @@ void IndicatorsTest::everyIndicatorHasUnitDefinitionAndTheCoreValue()
         {"links", static_cast<double>(s.links)}, {"connectance", s.connectance}, {"system_omnivory", s.systemOmnivory},
         {"fci", s.fci}, {"apl", s.apl}, {"ami", s.ami}, {"ascendency", s.ascendency}, {"capacity", s.capacity},
         {"overhead", s.overhead}, {"mean_te", levels.combined.meanTe}, {"total_catch", s.totalCatch},
-        {"catch_ppr", s.catchPpr}, {"catch_ppr_share_of_tpp", s.catchPprShareOfTpp}, {"catch_mean_tl", s.catchMeanTl}};
+        {"catch_ppr", s.catchPpr}, {"catch_ppr_share_of_tpp", s.catchPprShareOfTpp}, {"catch_mean_tl", s.catchMeanTl},
+        {"food_web_connectance", s.foodWebConnectance}, {"omnivory_intake_weighted", s.omnivoryIntakeWeighted},
+        {"primary_production_consumed", levels.primaryProductionConsumed},
+        {"detritus_inflow_consumed", levels.detritusInflowConsumed}, {"catch_ppr_producers_only", s.catchPprProducersOnly},
+        {"catch_ppr_producers_only_share_of_tpp", s.catchPprProducersOnlyShare},
+        {"catch_mean_tl_with_discards", s.catchMeanTlWithDiscards}};
     QCOMPARE(page.rows().size(), expected.size());
     QSet<QString> seen;
     for (const IndicatorRow& r : page.rows()) {

@@ -117,7 +117,10 @@ void FigureExportTest::levelBarsSvgParsesAndCarriesItsLabels()
     const QString text = svgText(path, &parseError);
     QVERIFY2(parseError.isEmpty(), qPrintable(parseError));
     QVERIFY2(text.contains(page.figureTitle()), qPrintable(text.left(400)));
-    QVERIFY(text.contains("TE I→II"));
+    // No transfer efficiency at level I (producers and detritus together): the eaten shares.
+    QVERIFY(!text.contains("TE I→II"));
+    QVERIFY(text.contains("Level I has no transfer efficiency"));
+    QVERIFY(text.contains("TE II→III"));
     for (const char* level : {"I", "II", "III"}) QVERIFY(text.split('\n').contains(level));
     // The widest segment of level I is labelled with its compartment's name.
     const auto& first = page.data().stacks.front();
