@@ -1,7 +1,9 @@
 // Mixed trophic impact (Ulanowicz & Puccia 1990, Coenoses 5:7), DESIGN.md 3.4:
 //   Q_ij = d_ij - f_ij,   M = (I - Q)^-1 - I,   row i acts on column j,
 // d_ij: fraction of i in the food of j (j gains from its prey). For a consumer this is
-//       its diet fraction DC_ij = F_ij / (sum_k F_kj + food import_j); for a detritus pool
+//       its diet fraction DC_ij = F_ij / (sum_k F_kj + food import_j), so imported food
+//       dilutes what a consumer gains from its modelled prey (import is no row: nothing in
+//       the system can raise or lower it); for a detritus pool
 //       the composition of its inflow; for a fleet its catch composition.
 // f_ij: share of j's losses to predators and fleets that i takes,
 //       F_ji / (sum_{living k} F_jk + catch_j) (j loses to its predator i); flows into

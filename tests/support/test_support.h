@@ -15,6 +15,7 @@
 #include <optional>
 #include <sstream>
 #include <string>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
@@ -40,6 +41,23 @@ inline void writeText(const fs::path& p, const std::string& text)
 }
 
 // `s` in single quotes for /bin/sh.
+// Rows of a tab-separated file after its header line, each split into fields.
+inline std::vector<std::vector<std::string>> readTsv(const fs::path& path)
+{
+    std::ifstream in(path);
+    std::vector<std::vector<std::string>> rows;
+    std::string line;
+    std::getline(in, line);  // header
+    while (std::getline(in, line)) {
+        std::vector<std::string> fields;
+        std::stringstream ss(line);
+        std::string f;
+        while (std::getline(ss, f, '\t')) fields.push_back(f);
+        rows.push_back(fields);
+    }
+    return rows;
+}
+
 inline std::string shellQuoted(const std::string& s)
 {
     std::string q = "'";

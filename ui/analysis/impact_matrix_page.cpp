@@ -202,7 +202,9 @@ void ImpactMatrixPage::display(std::shared_ptr<const ScenarioAnalysis> analysis)
     status_->setText(message_.isEmpty()
                          ? tr("Each cell: effect of a small increase in the row group's biomass on the column group "
                               "(mixed trophic impact, Ulanowicz & Puccia 1990). |m| < %1 left blank; "
-                              "fleets in italics below the rule. Hover for exact values.")
+                              "fleets in italics below the rule. Hover for exact values. A consumer's gain from a prey "
+                              "is that prey's share of all its food, imported food included, so food from outside "
+                              "dilutes its dependence on modelled prey.")
                                .arg(ImpactMatrixModel::kBlankBelow) +
                                (unbalanced
                                     ? tr(" The scenario does not balance: impacts describe its flows as they stand.")

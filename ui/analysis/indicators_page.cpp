@@ -65,7 +65,9 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
     plot_->setContextMenuPolicy(Qt::CustomContextMenu);
     plot_->plotLayout()->insertRow(0);
     plot_->plotLayout()->addElement(0, 0, new QCPTextElement(plot_, figureTitle(), QFont(font().family(), 11, QFont::Bold)));
-    plot_->xAxis->setLabel(tr("Keystone index  log10(ε (1 − p))  (Libralato et al. 2006); higher = larger effect for its biomass"));
+    plot_->xAxis->setLabel(tr("Keystone index  log10(ε (1 − p))  (Libralato et al. 2006); higher = larger effect for its biomass\n"
+                              "ε sums the squared mixed trophic impacts on the other living compartments (detritus and "
+                              "fleets left out); p is the share of living biomass"));
     plot_->yAxis->grid()->setVisible(false);
     plot_->yAxis->setSubTicks(false);
     plot_->yAxis->setTickLength(0, 0);

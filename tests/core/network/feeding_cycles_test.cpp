@@ -16,6 +16,8 @@
 
 #include <gtest/gtest.h>
 
+#include "tests/support/test_support.h"
+
 #include "core/io/scor.h"
 #include "core/network/flow_network.h"
 #include "core/network/level_decomposition.h"
@@ -92,21 +94,7 @@ TEST(FeedingCycles, AcyclicWebIsUntouched)
     EXPECT_EQ(r.cycles, 0u);
 }
 
-std::vector<std::vector<std::string>> readTsv(const std::string& path)
-{
-    std::ifstream in(path);
-    std::vector<std::vector<std::string>> rows;
-    std::string line;
-    std::getline(in, line);  // header
-    while (std::getline(in, line)) {
-        std::vector<std::string> fields;
-        std::stringstream ss(line);
-        std::string f;
-        while (std::getline(ss, f, '\t')) fields.push_back(f);
-        rows.push_back(fields);
-    }
-    return rows;
-}
+using testing::readTsv;
 
 TEST(FeedingCycles, EffectiveTrophicLevelsMatchThePublishedAggregationOn44Networks)
 {
