@@ -35,6 +35,7 @@ public:
 
     void setScenario(const tl::Model& model, const tl::BalanceSheet& sheet);
     const tl::BalanceSheet& sheet() const { return sheet_; }
+    const tl::Model& model() const { return model_; }
 
     int rowCount(const QModelIndex& parent = {}) const override;
     int columnCount(const QModelIndex& parent = {}) const override;

@@ -1,5 +1,9 @@
 #include "ui/results/balance_sheet_page.h"
 
+#include <cmath>
+
+#include "core/balance/production_uses.h"
+
 #include <QAction>
 #include <QApplication>
 #include <QCheckBox>
@@ -140,12 +144,18 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     layout->addLayout(statusRow);
     layout->addLayout(filterRow);
     layout->addWidget(table_, 1);
+    uses_ = new QLabel(this);
+    uses_->setWordWrap(true);
+    uses_->setTextFormat(Qt::PlainText);
+    uses_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    layout->addWidget(uses_);
     layout->addLayout(legendRow);
     auto* notice = new QLabel(decisionSupportNotice(), this);
     notice->setWordWrap(true);
     notice->setStyleSheet(QStringLiteral("color: #555555;"));
     layout->addWidget(notice);
 
+    connect(table_->selectionModel(), &QItemSelectionModel::currentChanged, this, [this] { showProductionUses(); });
     auto* copyAction = new QAction(tr("&Copy"), this);
     copyAction->setShortcut(QKeySequence::Copy);
     copyAction->setShortcutContext(Qt::WidgetWithChildrenShortcut);
@@ -175,9 +185,40 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     });
 }
 
+QString BalanceSheetPage::productionUsesText() const
+{
+    const QModelIndex current = filter_->mapToSource(table_->currentIndex());
+    if (!current.isValid()) return tr("Select a compartment to see who takes its production.");
+    const auto i = static_cast<std::size_t>(current.row());
+    const tl::Model& model = model_->model();
+    const tl::BalanceSheet& sheet = model_->sheet();
+    if (i >= model.size() || i >= sheet.rows.size()) return {};
+    const QString name = QString::fromStdString(model.compartment(i).name);
+    if (!model.compartment(i).isLiving()) return tr("%1 is a detritus pool: it has no production of its own.").arg(name);
+    const std::vector<ProductionUse> uses = productionUses(model, sheet, i);
+    const QString flow = QString::fromStdString(model.units.flow());
+    if (uses.empty()) return tr("Nothing eats or catches %1.").arg(name);
+    QStringList parts;
+    for (const ProductionUse& u : uses) {
+        const QString who = u.kind == ProductionUse::Kind::NetEmigration         ? tr("net emigration")
+                            : u.kind == ProductionUse::Kind::BiomassAccumulation ? tr("biomass accumulation")
+                            : u.kind == ProductionUse::Kind::Fleet ? tr("%1 (fleet)").arg(QString::fromStdString(u.name))
+                                                                   : QString::fromStdString(u.name);
+        parts << (std::isfinite(u.shareOfProduction)
+                      ? tr("%1 %2 %").arg(who, QString::number(100.0 * u.shareOfProduction, 'f', 1))
+                      : tr("%1 %2 %3").arg(who, QString::number(u.amount, 'g', 4), flow));
+    }
+    return tr("Who takes the production of %1 (P = %2 %3), as shares of it: %4. Together they make EE = %5.")
+        .arg(name, QString::number(sheet.rows[i].production, 'g', 4), flow, parts.join(QStringLiteral(", ")),
+             QString::number(sheet.rows[i].ee, 'g', 4));
+}
+
+void BalanceSheetPage::showProductionUses() { uses_->setText(productionUsesText()); }
+
 void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceSheet& sheet)
 {
     model_->setScenario(model, sheet);
+    showProductionUses();
     std::optional<Severity> worst;
     int withProblems = 0;
     QStringList general;

@@ -48,6 +48,9 @@ public:
     BalanceSheetModel* sheetModel() const { return model_; }
     BalanceSheetFilter* filter() const { return filter_; }
     QTableView* table() const { return table_; }
+    // "Who takes its production": the uses of the current row's production (predators,
+    // fleets, E, BA, from core/balance/production_uses.h), shown under the table.
+    QString productionUsesText() const;
 
     // Selected rows (all visible rows when none is selected), in view order, as
     // tab-separated text with a header line; also put on the clipboard by copy().
@@ -59,6 +62,7 @@ public:
 private:
     void exportCsvInteractive();
     std::vector<int> chosenSourceRows(bool selectionOnly) const;
+    void showProductionUses();
 
     BalanceSheetModel* model_;
     BalanceSheetFilter* filter_;
@@ -68,6 +72,7 @@ private:
     QLineEdit* nameEdit_;
     QComboBox* kindCombo_;
     QCheckBox* problemsOnly_;
+    QLabel* uses_;
 };
 
 }  // namespace tl::ui

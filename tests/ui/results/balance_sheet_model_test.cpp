@@ -14,6 +14,7 @@
 #include <QtTest>
 #include <cmath>
 
+#include "core/balance/production_uses.h"
 #include "core/balance/solver.h"
 #include "core/io/csv_model.h"
 #include "ui/results/balance_sheet_page.h"
@@ -64,7 +65,36 @@ private slots:
     void copiesTabSeparatedText();
     void exportsCsvWithQuotingAndUnits();
     void exportToAnUnwritablePathSaysWhy();
+    void currentRowShowsWhoTakesItsProduction();
 };
+
+// The "who eats it" line under the table names every taker of the current row's
+// production with its share, as core/balance/production_uses.h computes them.
+void BalanceSheetTest::currentRowShowsWhoTakesItsProduction()
+{
+    const tl::Model model = readModel(fixture("invented_lake"));
+    const tl::BalanceSheet sheet = tl::solveBalance(model);
+    BalanceSheetPage page;
+    page.setScenario(model, sheet);
+    QVERIFY(page.productionUsesText().startsWith(QStringLiteral("Select a compartment")));
+    // The living compartment with the most takers.
+    std::size_t best = 0, most = 0;
+    for (std::size_t i = 0; i < model.size(); ++i)
+        if (const auto n = tl::productionUses(model, sheet, i).size(); n > most) most = n, best = i;
+    QVERIFY(most >= 2);
+    const QString name = QString::fromStdString(model.compartment(best).name);
+    const int row = rowOf(*page.sheetModel(), name);
+    QVERIFY(row >= 0);
+    page.table()->setCurrentIndex(page.filter()->mapFromSource(page.sheetModel()->index(row, 0)));
+    const QString text = page.productionUsesText();
+    QVERIFY2(text.contains(name), qPrintable(text));
+    for (const tl::ProductionUse& u : tl::productionUses(model, sheet, best)) {
+        if (u.kind != tl::ProductionUse::Kind::Predator) continue;
+        const QString expected = QStringLiteral("%1 %2 %").arg(QString::fromStdString(u.name))
+                                     .arg(QString::number(100.0 * u.shareOfProduction, 'f', 1));
+        QVERIFY2(text.contains(expected), qPrintable(text + " lacks " + expected));
+    }
+}
 
 void BalanceSheetTest::valuesEqualTheCliJson_data()
 {
