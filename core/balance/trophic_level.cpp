@@ -3,8 +3,11 @@
 
 #include <cmath>
 #include <limits>
+#include <span>
 
 #include <Eigen/SparseLU>
+
+#include "core/model/strong_components.h"
 
 namespace tl {
 namespace {
@@ -14,15 +17,15 @@ constexpr Eigen::Index kDenseBlock = 48;
 
 // One feeding loop (strongly connected component) of consumers, all of whose outside
 // prey already have their level: TL_j - sum_{i in loop} DC'_ij TL_i = 1 + sum_{i outside} DC'_ij TL_i.
-void solveLoop(const SparseColumns& share, const Eigen::Index* members, Eigen::Index k, std::vector<int>& local,
-               Eigen::VectorXd& tl)
+void solveLoop(const SparseColumns& share, std::span<const int> members, std::vector<int>& local, Eigen::VectorXd& tl)
 {
-    for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(members[r])] = static_cast<int>(r);
+    const auto k = static_cast<Eigen::Index>(members.size());
+    for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(members[static_cast<std::size_t>(r)])] = static_cast<int>(r);
     std::vector<Eigen::Triplet<double, int>> entries;
     Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
     for (Eigen::Index r = 0; r < k; ++r) {
         entries.emplace_back(static_cast<int>(r), static_cast<int>(r), 1.0);
-        for (SparseColumns::InnerIterator it(share, members[r]); it; ++it) {
+        for (SparseColumns::InnerIterator it(share, members[static_cast<std::size_t>(r)]); it; ++it) {
             const int c = local[static_cast<std::size_t>(it.index())];
             if (c >= 0) entries.emplace_back(static_cast<int>(r), c, -it.value());
             else b[r] += it.value() * tl[it.index()];
@@ -41,8 +44,8 @@ void solveLoop(const SparseColumns& share, const Eigen::Index* members, Eigen::I
         levels = lu.solve(b);
     }
     for (Eigen::Index r = 0; r < k; ++r) {
-        tl[members[r]] = levels[r];
-        local[static_cast<std::size_t>(members[r])] = -1;
+        tl[members[static_cast<std::size_t>(r)]] = levels[r];
+        local[static_cast<std::size_t>(members[static_cast<std::size_t>(r)])] = -1;
     }
 }
 
@@ -56,87 +59,48 @@ void solveLoop(const SparseColumns& share, const Eigen::Index* members, Eigen::I
 // and solves the levels of grounded, defined loops.
 void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, TrophicLevels& out)
 {
-    const Eigen::Index n = share.cols();
+    const auto n = static_cast<int>(share.cols());
     const auto sn = static_cast<std::size_t>(n);
     const int* outer = share.outerIndexPtr();
     const int* inner = share.innerIndexPtr();
-    std::vector<int> index(sn, -1), low(sn, 0), local;  // local: sized on the first loop of two or more
-    std::vector<char> onStack(sn, 0), grounded(sn, 0), undefined(sn, 0);
-    for (std::size_t j = 0; j < sn; ++j) grounded[j] = fixed[j];
-    std::vector<Eigen::Index> stack;
-    std::vector<std::pair<Eigen::Index, int>> calls;  // node, next entry of its column
-    stack.reserve(sn);
-    calls.reserve(sn);
-    int counter = 0;
-    for (Eigen::Index root = 0; root < n; ++root) {
-        if (fixed[static_cast<std::size_t>(root)] || index[static_cast<std::size_t>(root)] >= 0) continue;
-        calls.emplace_back(root, outer[root]);
-        while (!calls.empty()) {
-            const Eigen::Index v = calls.back().first;
-            int& next = calls.back().second;
-            const auto sv = static_cast<std::size_t>(v);
-            if (index[sv] < 0) {  // first visit
-                index[sv] = low[sv] = counter++;
-                stack.push_back(v);
-                onStack[sv] = 1;
-            }
-            bool descended = false;
-            while (next < outer[v + 1]) {
-                const auto sw = static_cast<std::size_t>(inner[next++]);
-                if (fixed[sw]) continue;
-                if (index[sw] < 0) {
-                    calls.emplace_back(static_cast<Eigen::Index>(sw), outer[sw]);
-                    descended = true;
-                    break;
-                }
-                if (onStack[sw]) low[sv] = std::min(low[sv], index[sw]);
-            }
-            if (descended) continue;
-            calls.pop_back();
-            if (!calls.empty()) {
-                const auto parent = static_cast<std::size_t>(calls.back().first);
-                low[parent] = std::min(low[parent], low[sv]);
-            }
-            if (low[sv] != index[sv]) continue;
-            // v roots a loop: the members are stack[first..end).
-            std::size_t first = stack.size();
-            do --first;
-            while (stack[first] != v);
-            const Eigen::Index* members = stack.data() + first;
-            const auto k = static_cast<Eigen::Index>(stack.size() - first);
-            for (Eigen::Index r = 0; r < k; ++r) onStack[static_cast<std::size_t>(members[r])] = 0;
+    std::vector<char> consumers(sn), grounded(sn, 0), undefined(sn, 0);
+    for (std::size_t j = 0; j < sn; ++j) {
+        consumers[j] = !fixed[j];
+        grounded[j] = fixed[j];
+    }
+    std::vector<int> local;  // sized on the first loop of two or more
+    forEachStrongComponent(
+        n, consumers, [&](int v) { return outer[v + 1] - outer[v]; }, [&](int v, int k) { return inner[outer[v] + k]; },
+        [&](std::span<const int> members) {
             bool isGrounded = false, eatsUndefined = false;
-            for (Eigen::Index r = 0; r < k; ++r)
-                for (int e = outer[members[r]]; e < outer[members[r] + 1]; ++e) {
+            for (int m : members)
+                for (int e = outer[m]; e < outer[m + 1]; ++e) {
                     // Members are neither grounded nor undefined yet; outside prey are final.
                     const auto prey = static_cast<std::size_t>(inner[e]);
                     isGrounded = isGrounded || grounded[prey];
                     eatsUndefined = eatsUndefined || undefined[prey];
                 }
             const bool isUndefined = !isGrounded || eatsUndefined;
-            for (Eigen::Index r = 0; r < k; ++r) {
-                const auto s = static_cast<std::size_t>(members[r]);
+            for (int m : members) {
+                const auto s = static_cast<std::size_t>(m);
                 grounded[s] = isGrounded;
                 undefined[s] = isUndefined;
                 if (isUndefined) out.note[s] = TrophicLevelNote::Undefined;
             }
-            if (!isUndefined) {
-                if (k == 1) {  // no loop, or cannibalism only
-                    const Eigen::Index j = members[0];
-                    double rhs = 1.0, self = 0.0;
-                    for (SparseColumns::InnerIterator it(share, j); it; ++it) {
-                        if (it.index() == j) self += it.value();
-                        else rhs += it.value() * out.tl[it.index()];
-                    }
-                    out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
-                } else {
-                    if (local.empty()) local.assign(sn, -1);
-                    solveLoop(share, members, k, local, out.tl);
+            if (isUndefined) return;
+            if (members.size() == 1) {  // no loop, or cannibalism only
+                const int j = members[0];
+                double rhs = 1.0, self = 0.0;
+                for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+                    if (it.index() == j) self += it.value();
+                    else rhs += it.value() * out.tl[it.index()];
                 }
+                out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
+                return;
             }
-            stack.resize(first);
-        }
-    }
+            if (local.empty()) local.assign(sn, -1);
+            solveLoop(share, members, local, out.tl);
+        });
 }
 
 }  // namespace

@@ -12,7 +12,10 @@
 #include "core/network/feeding_cycles.h"
 
 #include <algorithm>
+#include <span>
 #include <vector>
+
+#include "core/model/strong_components.h"
 
 namespace tl {
 namespace {
@@ -25,58 +28,24 @@ struct Arc {
 
 using Graph = std::vector<std::vector<Arc>>;  // out-arcs per compartment, by target
 
-// Strongly connected components over arcs with positive flow (Tarjan, without
-// recursion). component[v] numbers them; onCycle[v]: v's component has two or more
-// members or v eats itself.
+// Strongly connected components over arcs with positive flow (component[v] numbers
+// them), and the cycle arcs ending in each compartment (arcsBack).
 void components(const Graph& graph, std::vector<int>& component, std::vector<int>& arcsBack)
 {
     const int n = static_cast<int>(graph.size());
-    std::vector<int> index(static_cast<std::size_t>(n), -1), low(static_cast<std::size_t>(n), 0), stack;
-    std::vector<char> onStack(static_cast<std::size_t>(n), 0);
-    std::vector<std::pair<int, std::size_t>> calls;
     component.assign(static_cast<std::size_t>(n), -1);
-    int counter = 0, count = 0;
-    for (int root = 0; root < n; ++root) {
-        if (index[static_cast<std::size_t>(root)] >= 0) continue;
-        calls.emplace_back(root, 0);
-        while (!calls.empty()) {
-            const int v = calls.back().first;
-            std::size_t& next = calls.back().second;
-            const auto sv = static_cast<std::size_t>(v);
-            if (index[sv] < 0) {
-                index[sv] = low[sv] = counter++;
-                stack.push_back(v);
-                onStack[sv] = 1;
-            }
-            bool descended = false;
-            while (next < graph[sv].size()) {
-                const Arc& arc = graph[sv][next++];
-                if (!(arc.flow > 0.0)) continue;
-                const auto sw = static_cast<std::size_t>(arc.to);
-                if (index[sw] < 0) {
-                    calls.emplace_back(arc.to, 0);
-                    descended = true;
-                    break;
-                }
-                if (onStack[sw]) low[sv] = std::min(low[sv], index[sw]);
-            }
-            if (descended) continue;
-            calls.pop_back();
-            if (!calls.empty()) {
-                const auto parent = static_cast<std::size_t>(calls.back().first);
-                low[parent] = std::min(low[parent], low[sv]);
-            }
-            if (low[sv] != index[sv]) continue;
-            int w = -1;
-            do {
-                w = stack.back();
-                stack.pop_back();
-                onStack[static_cast<std::size_t>(w)] = 0;
-                component[static_cast<std::size_t>(w)] = count;
-            } while (w != v);
+    int count = 0;
+    forEachStrongComponent(
+        n, std::vector<char>(static_cast<std::size_t>(n), 1),
+        [&](int v) { return graph[static_cast<std::size_t>(v)].size(); },
+        [&](int v, int k) {
+            const Arc& arc = graph[static_cast<std::size_t>(v)][static_cast<std::size_t>(k)];
+            return arc.flow > 0.0 ? arc.to : -1;
+        },
+        [&](std::span<const int> members) {
+            for (int m : members) component[static_cast<std::size_t>(m)] = count;
             ++count;
-        }
-    }
+        });
     // Cycle arcs ending in each compartment: positive in-arcs from its own component
     // (a self-loop included); the published procedure searches compartments in
     // decreasing order of this count.
