@@ -15,5 +15,6 @@ int cmdCheck(const Args& args);
 int cmdNetwork(const Args& args);
 int cmdImport(const Args& args);
 int cmdExport(const Args& args);
+int cmdReconcile(const Args& args);
 
 }  // namespace tl::cli

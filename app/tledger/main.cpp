@@ -16,6 +16,15 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
   network   MODEL [--scenario NAME] [--json]   trophic structure, impacts, indicators
             --scor FILE [--producers A,B] [--json]  the same for a SCOR flow network
             [--keep-feeding-cycles]            level decomposition without removing feeding cycles
+  reconcile MODEL --scenario NAME [--save-as NEW] [--move b,pb,qb,diet,catch]
+            [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...] [--json]
+                                               the smallest confidence-weighted change that
+                                               balances the scenario, saved as a NEW scenario
+                                               (default "NAME reconciled"; for a CSV folder
+                                               --save-as names a new folder). --move: kinds of
+                                               input that may change (default b,pb,qb,diet);
+                                               PARAM: b, pb, qb, catch, diet. Exit 1 when only
+                                               a least-violating change exists.
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
@@ -31,7 +40,7 @@ int main(int argc, char** argv)
     using Command = int (*)(const tl::cli::Args&);
     const std::map<std::string, Command> commands = {
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
-        {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport},
+        {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
     };
     if (argc < 2) {
         std::cerr << kUsage;

@@ -1,0 +1,402 @@
+#include "core/reconcile/reconcile.h"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <set>
+#include <stdexcept>
+
+#include <nlopt.hpp>
+
+#include "core/balance/solver.h"
+#include "core/io/text_table.h"
+#include "core/model/text.h"
+
+namespace tl {
+namespace {
+
+// Inequalities are asked to hold with this much to spare, so that the balance's own
+// checks (kBoundTolerance) pass on the adjusted model after rounding (our choice).
+constexpr double kInequalityMargin = 1e-9;
+
+// One phase of the solve: the problem's variables, plus one slack per relaxed row in
+// the elastic phase. Caches the last evaluation (NLopt asks for f, g and h at one x).
+class Phase {
+public:
+    struct Row {
+        std::size_t constraint;
+        double sign;  // +1: g (or h); -1: -h (the other side of an elastic equality)
+        int slack;    // -1 outside the elastic phase
+    };
+
+    Phase(const ReconcileProblem& problem, bool elastic) : pr_(problem), nv_(problem.variableCount())
+    {
+        int slacks = 0;
+        for (std::size_t c : pr_.inequalities()) inequalityRows_.push_back({c, 1.0, elastic ? slacks++ : -1});
+        for (std::size_t c : pr_.equalities()) {
+            if (elastic && pr_.constraints()[c].kind == ConstraintKind::EEGiven) {
+                inequalityRows_.push_back({c, 1.0, slacks});
+                inequalityRows_.push_back({c, -1.0, slacks++});
+            } else {
+                equalityRows_.push_back({c, 1.0, -1});
+            }
+        }
+        slackCount_ = static_cast<std::size_t>(slacks);
+        jac_.resize(pr_.constraints().size() * nv_);
+    }
+
+    std::size_t dimension() const { return nv_ + slackCount_; }
+    std::size_t slackCount() const { return slackCount_; }
+    const std::vector<Row>& inequalityRows() const { return inequalityRows_; }
+    const std::vector<Row>& equalityRows() const { return equalityRows_; }
+    int evaluations() const { return evaluations_; }
+
+    double objective(const double* x, double* grad)
+    {
+        ++evaluations_;
+        const Eigen::Map<const Eigen::VectorXd> xv(x, static_cast<Eigen::Index>(nv_));
+        double f = pr_.objective(xv, grad);
+        for (std::size_t k = 0; k < slackCount_; ++k) {
+            f += kElasticPenalty * x[nv_ + k];
+            if (grad) grad[nv_ + k] = kElasticPenalty;
+        }
+        return f;
+    }
+
+    void rows(const std::vector<Row>& which, double margin, unsigned m, double* result, const double* x, double* grad)
+    {
+        refresh(x, grad != nullptr);
+        const std::size_t n = dimension();
+        for (unsigned r = 0; r < m; ++r) {
+            const Row& row = which[r];
+            result[r] = row.sign * values_[static_cast<Eigen::Index>(row.constraint)] + margin;
+            if (row.slack >= 0) result[r] -= x[nv_ + static_cast<std::size_t>(row.slack)];
+            if (!grad) continue;
+            double* out = grad + static_cast<std::size_t>(r) * n;
+            const double* in = jac_.data() + row.constraint * nv_;
+            for (std::size_t k = 0; k < nv_; ++k) out[k] = row.sign * in[k];
+            std::fill(out + nv_, out + n, 0.0);
+            if (row.slack >= 0) out[nv_ + static_cast<std::size_t>(row.slack)] = -1.0;
+        }
+    }
+
+private:
+    void refresh(const double* x, bool needJacobian)
+    {
+        const bool same = cachedX_.size() == nv_ && std::equal(cachedX_.begin(), cachedX_.end(), x);
+        if (same && (haveJacobian_ || !needJacobian)) return;
+        cachedX_.assign(x, x + nv_);
+        const Eigen::Map<const Eigen::VectorXd> xv(x, static_cast<Eigen::Index>(nv_));
+        pr_.evaluate(xv, values_, needJacobian ? jac_.data() : nullptr);
+        haveJacobian_ = needJacobian;
+    }
+
+    const ReconcileProblem& pr_;
+    std::size_t nv_;
+    std::size_t slackCount_ = 0;
+    std::vector<Row> inequalityRows_, equalityRows_;
+    std::vector<double> cachedX_;
+    Eigen::VectorXd values_;
+    std::vector<double> jac_;
+    bool haveJacobian_ = false;
+    int evaluations_ = 0;
+};
+
+double objectiveCallback(unsigned, const double* x, double* grad, void* data)
+{
+    return static_cast<Phase*>(data)->objective(x, grad);
+}
+void inequalityCallback(unsigned m, double* result, unsigned, const double* x, double* grad, void* data)
+{
+    auto* phase = static_cast<Phase*>(data);
+    phase->rows(phase->inequalityRows(), kInequalityMargin, m, result, x, grad);
+}
+void equalityCallback(unsigned m, double* result, unsigned, const double* x, double* grad, void* data)
+{
+    auto* phase = static_cast<Phase*>(data);
+    phase->rows(phase->equalityRows(), 0.0, m, result, x, grad);
+}
+
+// Runs SLSQP on one phase from x (updated in place); returns NLopt's result text.
+std::string runPhase(const ReconcileProblem& pr, Phase& phase, std::vector<double>& x)
+{
+    const std::size_t n = phase.dimension();
+    nlopt::opt opt(nlopt::LD_SLSQP, static_cast<unsigned>(n));
+    std::vector<double> lower(n, 0.0), upper(n, HUGE_VAL);
+    for (std::size_t k = 0; k < pr.variableCount(); ++k) {
+        lower[k] = pr.variables()[k].lower;
+        upper[k] = pr.variables()[k].upper;
+        x[k] = std::clamp(x[k], lower[k], upper[k]);
+    }
+    opt.set_lower_bounds(lower);
+    opt.set_upper_bounds(upper);
+    opt.set_min_objective(objectiveCallback, &phase);
+    if (!phase.inequalityRows().empty())
+        opt.add_inequality_mconstraint(inequalityCallback, &phase,
+                                       std::vector<double>(phase.inequalityRows().size(), 0.0));
+    if (!phase.equalityRows().empty())
+        opt.add_equality_mconstraint(equalityCallback, &phase, std::vector<double>(phase.equalityRows().size(), 1e-12));
+    opt.set_ftol_rel(1e-12);
+    opt.set_xtol_rel(1e-10);
+    opt.set_maxeval(20000);
+    double f = 0.0;
+    try {
+        const nlopt::result r = opt.optimize(x, f);
+        return nlopt_result_to_string(static_cast<nlopt_result>(r));
+    } catch (const nlopt::roundoff_limited&) {
+        return "ROUNDOFF_LIMITED";  // x holds the last point reached
+    } catch (const std::runtime_error& e) {
+        return std::string("FAILURE: ") + e.what();
+    } catch (const std::invalid_argument& e) {
+        return std::string("INVALID_ARGS: ") + e.what();
+    }
+}
+
+std::string inputName(const Model& model, std::size_t i, AdjustParam p)
+{
+    return model.compartment(i).name + "." + std::string(adjustKey(p));
+}
+
+bool isPinned(const ReconcileOptions& options, std::size_t i, AdjustParam p)
+{
+    return std::find(options.pins.begin(), options.pins.end(), std::pair{i, p}) != options.pins.end();
+}
+
+bool kindMoves(const ReconcileOptions& o, AdjustParam p)
+{
+    switch (p) {
+    case AdjustParam::Biomass: return o.moveBiomass;
+    case AdjustParam::PB: return o.movePB;
+    case AdjustParam::QB: return o.moveQB;
+    case AdjustParam::Catch: return o.moveCatch;
+    case AdjustParam::Diet: return o.moveDiet;
+    }
+    return false;
+}
+
+// What holds a violated constraint in place: the inputs it involves that are pinned,
+// of a kind not allowed to move, or at a bound; an EE given or an EE bound.
+std::vector<std::string> relaxSuggestions(const Model& model, const ReconcileProblem& pr, const ReconcileOptions& options,
+                                          const ReconcileConstraint& con, const Eigen::VectorXd& x)
+{
+    std::vector<std::pair<std::size_t, AdjustParam>> inputs;
+    const std::size_t i = con.compartment;
+    switch (con.kind) {
+    case ConstraintKind::EEMax:
+    case ConstraintKind::EEMin:
+    case ConstraintKind::EEGiven:
+    case ConstraintKind::DetritusSupply:
+        if (model.compartment(i).isLiving()) {
+            inputs.push_back({i, AdjustParam::Biomass});
+            inputs.push_back({i, AdjustParam::PB});
+            if (model.totalCatch(i) > 0.0) inputs.push_back({i, AdjustParam::Catch});
+        }
+        for (std::size_t j = 0; j < model.size(); ++j)
+            if (model.diet(j, i) > 0.0) {
+                inputs.push_back({j, AdjustParam::Biomass});
+                inputs.push_back({j, AdjustParam::QB});
+                inputs.push_back({j, AdjustParam::Diet});
+            }
+        break;
+    case ConstraintKind::PQMin:
+    case ConstraintKind::PQMax:
+    case ConstraintKind::RespirationNonNegative:
+        inputs.push_back({i, AdjustParam::PB});
+        inputs.push_back({i, AdjustParam::QB});
+        break;
+    case ConstraintKind::DietSum: break;
+    }
+    std::vector<std::string> out;
+    auto note = [&](std::string s) {
+        if (std::find(out.begin(), out.end(), s) == out.end()) out.push_back(std::move(s));
+    };
+    switch (con.kind) {
+    case ConstraintKind::EEMax: note("raise the EE maximum of " + model.compartment(i).name); break;
+    case ConstraintKind::EEGiven: note("leave the EE of " + model.compartment(i).name + " unknown"); break;
+    case ConstraintKind::PQMin:
+    case ConstraintKind::PQMax: note("widen the P/Q range of " + model.compartment(i).name); break;
+    default: break;
+    }
+    for (const auto& [c, p] : inputs) {
+        if (isPinned(options, c, p)) {
+            note("unpin " + inputName(model, c, p));
+        } else if (!kindMoves(options, p)) {
+            note("let " + std::string(adjustKey(p)) + " move (--move)");
+        } else if (const int var = pr.variableOf(c, p); var >= 0) {
+            const ReconcileVariable& v = pr.variables()[static_cast<std::size_t>(var)];
+            const double xv = x[var];
+            if (!v.solved && (xv <= v.lower + 1e-9 || xv >= v.upper - 1e-9))
+                note("widen the bound on " + inputName(model, c, p));
+        }
+    }
+    return out;
+}
+
+}  // namespace
+
+std::string_view reconcileStatusKey(ReconcileStatus s)
+{
+    switch (s) {
+    case ReconcileStatus::Unchanged: return "unchanged";
+    case ReconcileStatus::Balanced: return "balanced";
+    case ReconcileStatus::LeastViolating: return "least_violating";
+    case ReconcileStatus::Invalid: return "invalid";
+    }
+    return "";
+}
+
+ReconcileResult reconcile(const Model& model, const ReconcileOptions& options)
+{
+    const auto t0 = std::chrono::steady_clock::now();
+    ReconcileResult result;
+    result.adjusted = model;
+    const ReconcileProblem pr = ReconcileProblem::build(model, options);
+    result.problems = pr.problems();
+    if (!pr.ok()) return result;
+    result.variableCount = pr.variableCount();
+    result.constraintCount = pr.constraints().size();
+
+    const Eigen::VectorXd x0 = pr.startPoint();
+    result.eeBefore = pr.ecotrophicEfficiencies(x0);
+    Eigen::VectorXd values;
+    pr.evaluate(x0, values, nullptr);
+
+    Eigen::VectorXd x = x0;
+    if (pr.largestViolation(values) <= 0.0) {
+        result.status = ReconcileStatus::Unchanged;
+        result.solverResult = "start satisfies every constraint";
+    } else {
+        std::vector<double> xs(x0.data(), x0.data() + x0.size());
+        Phase plain(pr, false);
+        result.solverResult = runPhase(pr, plain, xs);
+        result.evaluations = plain.evaluations();
+        x = Eigen::Map<const Eigen::VectorXd>(xs.data(), x0.size());
+        pr.evaluate(x, values, nullptr);
+        if (pr.largestViolation(values) > kReconcileTolerance) {
+            // 3. Elastic phase from the best point so far, slacks starting feasible.
+            Phase elastic(pr, true);
+            std::vector<double> xe(elastic.dimension(), 0.0);
+            std::copy(xs.begin(), xs.end(), xe.begin());
+            for (const Phase::Row& row : elastic.inequalityRows()) {
+                if (row.slack < 0) continue;
+                auto& t = xe[pr.variableCount() + static_cast<std::size_t>(row.slack)];
+                t = std::max(t, row.sign * values[static_cast<Eigen::Index>(row.constraint)] + 1e-6);
+            }
+            result.solverResult = runPhase(pr, elastic, xe);
+            result.evaluations += elastic.evaluations();
+            result.elastic = true;
+            x = Eigen::Map<const Eigen::VectorXd>(xe.data(), x0.size());
+            pr.evaluate(x, values, nullptr);
+        }
+        result.status = pr.largestViolation(values) > kReconcileTolerance ? ReconcileStatus::LeastViolating
+                                                                          : ReconcileStatus::Balanced;
+    }
+
+    result.objective = pr.objective(x, nullptr);
+    result.largestViolation = std::max(0.0, pr.largestViolation(values));
+    result.adjusted = pr.applyTo(model, x);
+    const BalanceSheet after = solveBalance(result.adjusted);
+    result.balanceAfter = after.status;
+    result.eeAfter.resize(model.size());
+    for (std::size_t i = 0; i < model.size(); ++i) result.eeAfter[i] = after.rows[i].ee;
+
+    // Ranked changes.
+    for (std::size_t k = 0; k < pr.variableCount(); ++k) {
+        const ReconcileVariable& v = pr.variables()[k];
+        const double xk = x[static_cast<Eigen::Index>(k)];
+        const double z = (xk - v.start) / v.scale;
+        if (v.solved || std::abs(z) <= 1e-9) continue;
+        ReconcileChange ch;
+        ch.compartment = v.compartment;
+        ch.param = v.param;
+        ch.prey = v.prey;
+        ch.before = v.value0;
+        ch.after = v.param == AdjustParam::Diet ? std::max(0.0, xk) : v.value0 * std::exp(xk);
+        ch.percent = 100.0 * (ch.after - ch.before) / ch.before;
+        ch.confidence = v.confidence;
+        ch.cv = v.cv;
+        ch.objectiveShare = result.objective > 0.0 ? v.weight * z * z / result.objective : 0.0;
+        result.changes.push_back(std::move(ch));
+    }
+    std::stable_sort(result.changes.begin(), result.changes.end(),
+                     [](const ReconcileChange& a, const ReconcileChange& b) { return a.objectiveShare > b.objectiveShare; });
+
+    // Binding constraints and bounds; conflicts.
+    for (std::size_t c = 0; c < pr.constraints().size(); ++c) {
+        const ReconcileConstraint& con = pr.constraints()[c];
+        const double g = values[static_cast<Eigen::Index>(c)];
+        const bool violated = con.equality ? std::abs(g) > kReconcileTolerance : g > kReconcileTolerance;
+        if (result.status == ReconcileStatus::LeastViolating && violated) {
+            ReconcileConflict conflict;
+            conflict.constraint = con.describe(model);
+            conflict.compartment = model.compartment(con.compartment).name;
+            conflict.kind = con.kind;
+            conflict.violation = con.equality ? std::abs(g) : g;
+            conflict.relax = relaxSuggestions(model, pr, options, con, x);
+            result.conflicts.push_back(std::move(conflict));
+        } else if (!con.equality && result.status != ReconcileStatus::Unchanged && g >= -1e-6) {
+            result.binding.push_back(con.describe(model));
+        }
+    }
+    if (result.status != ReconcileStatus::Unchanged)
+        for (std::size_t k = 0; k < pr.variableCount(); ++k) {
+            const ReconcileVariable& v = pr.variables()[k];
+            const double xk = x[static_cast<Eigen::Index>(k)];
+            const std::string& name = model.compartment(v.compartment).name;
+            if (v.param == AdjustParam::Diet) {
+                if (xk <= 1e-9) result.binding.push_back(name + " no longer eats " + model.compartment(v.prey).name);
+            } else if (xk <= v.lower + 1e-9 || xk >= v.upper - 1e-9) {
+                result.binding.push_back(std::string(adjustSymbol(v.param)) + " of " + name + " at its " +
+                                         (xk <= v.lower + 1e-9 ? "lower" : "upper") + " bound");
+            }
+        }
+    for (const ReconcileConflict& conflict : result.conflicts) {
+        Problem p;
+        p.code = "reconcile-conflict";
+        p.compartment = conflict.compartment;
+        p.message = conflict.constraint + " cannot hold within the pins and bounds";
+        for (const std::string& s : conflict.relax) p.hint += (p.hint.empty() ? "" : "; ") + s;
+        result.problems.push_back(std::move(p));
+    }
+    result.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+    return result;
+}
+
+std::string reconcileSourceNote(const std::string& date, double before, const std::string& previous)
+{
+    std::string note = "reconciled " + date + " (smallest confidence-weighted change, SLSQP); before: " +
+                       formatNumber(before);
+    if (!previous.empty()) note += "; earlier source: " + previous;
+    return note;
+}
+
+Model annotatedReconcileModel(const Model& original, const ReconcileResult& result, const std::string& date)
+{
+    Model out = result.adjusted;
+    for (const ReconcileChange& ch : result.changes) {
+        if (ch.param == AdjustParam::Diet || ch.param == AdjustParam::Catch) continue;
+        const Param p = ch.param == AdjustParam::Biomass ? Param::Biomass : ch.param == AdjustParam::PB ? Param::PB : Param::QB;
+        if (!original.compartment(ch.compartment).value(p)) continue;  // given through P/Q: not written
+        Confidence& conf = out.compartment(ch.compartment).confidenceOf(p);
+        conf.source = reconcileSourceNote(date, ch.before, original.compartment(ch.compartment).confidenceOf(p).source);
+    }
+    return out;
+}
+
+std::string reconcileDescription(const Model& original, const ReconcileResult& result, const std::string& fromScenario)
+{
+    std::string text = "reconciled from '" + fromScenario + "': smallest confidence-weighted change (SLSQP), " +
+                       std::to_string(result.changes.size()) + " inputs changed, objective " +
+                       displayNumber(result.objective);
+    if (result.status == ReconcileStatus::LeastViolating) text += "; NOT balanced: least-violating solution";
+    for (const ReconcileChange& ch : result.changes) {
+        if (ch.param != AdjustParam::Diet && ch.param != AdjustParam::Catch) continue;
+        const std::string& name = original.compartment(ch.compartment).name;
+        text += "; " + (ch.param == AdjustParam::Diet ? "diet of " + name + " on " + original.compartment(ch.prey).name
+                                                      : "catch of " + name) +
+                " before: " + formatNumber(ch.before);
+    }
+    return text;
+}
+
+}  // namespace tl

@@ -1,0 +1,291 @@
+// Reconcile (core/reconcile): the smallest confidence-weighted change that balances a
+// scenario (DESIGN.md 3.6). Models are invented (reconcile_test_models.h) or the
+// project's invented samples (sample_projects/).
+#include <cmath>
+#include <random>
+
+#include <gtest/gtest.h>
+
+#include "core/balance/solver.h"
+#include "core/io/csv_model.h"
+#include "core/reconcile/reconcile.h"
+#include "tests/core/reconcile/reconcile_test_models.h"
+#include "tests/support/test_support.h"
+
+namespace tl {
+namespace {
+
+using testing::overEatingModel;
+using testing::randomFoodWeb;
+
+double ee(const BalanceSheet& s, const Model& m, const std::string& name) { return s.rows[*m.indexOf(name)].ee; }
+
+// Every constraint of the problem at the answer, recomputed from the adjusted model by
+// the balance solver (not by the problem's own evaluation).
+void expectAllConstraintsHold(const Model& adjusted, double tolerance)
+{
+    const BalanceSheet s = solveBalance(adjusted);
+    ASSERT_NE(s.status, BalanceStatus::Invalid);
+    for (std::size_t i = 0; i < adjusted.size(); ++i) {
+        const CompartmentBalance& r = s.rows[i];
+        if (adjusted.compartment(i).isLiving()) {
+            EXPECT_LE(r.ee, adjusted.rules.eeMax + tolerance) << r.name;
+            EXPECT_GE(r.ee, -tolerance) << r.name;
+        } else if (r.detritusInflow > 0.0) {
+            EXPECT_LE(r.detritusConsumption, r.detritusInflow * (1.0 + tolerance)) << r.name;
+        }
+        if (adjusted.compartment(i).kind == CompartmentKind::Consumer) {
+            const double pq = r.pb / r.qb;
+            EXPECT_GE(pq, adjusted.rules.pqMin - tolerance) << r.name;
+            EXPECT_LE(pq, adjusted.rules.pqMax + tolerance) << r.name;
+            EXPECT_GE(r.respiration, -tolerance * r.consumption) << r.name;
+        }
+    }
+}
+
+TEST(Reconcile, BalancedModelComesBackUnchanged)
+{
+    Model m = overEatingModel();
+    m.compartment(3).value(Param::Biomass) = 0.2;  // pike now eats 0.8 x 0.2 x 5 = 0.8 < 2
+    ASSERT_EQ(solveBalance(m).status, BalanceStatus::Balanced);
+    const ReconcileResult r = reconcile(m);
+    EXPECT_EQ(r.status, ReconcileStatus::Unchanged);
+    EXPECT_EQ(r.objective, 0.0);
+    EXPECT_TRUE(r.changes.empty());
+    EXPECT_EQ(r.adjusted, m);
+    EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced);
+}
+
+TEST(Reconcile, OverEatingPredatorBeatsAHandMadeAdjustment)
+{
+    const Model m = overEatingModel();
+    ASSERT_NEAR(ee(solveBalance(m), m, "small fish"), 3.0, 1e-12);
+    const ReconcileResult r = reconcile(m);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced) << r.solverResult;
+    EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced);
+    EXPECT_LE(r.largestViolation, 1e-6);
+    expectAllConstraintsHold(r.adjusted, 1e-6);
+
+    // Hand-made feasible adjustment: pike biomass divided by 3 (EE of small fish exactly
+    // 1). No grade given: grade C, CV 0.5 (BalanceRules::cvByGrade). Its objective is
+    // (ln 3 / 0.5)^2 = 4.83.
+    Model hand = m;
+    hand.compartment(3).value(Param::Biomass) = 0.5;
+    ASSERT_EQ(solveBalance(hand).status, BalanceStatus::Balanced);
+    const double handObjective = std::pow(std::log(3.0) / 0.5, 2);
+    EXPECT_LE(r.objective, handObjective);
+    EXPECT_GT(r.objective, 0.0);
+    // The answer spreads the change: more than one input moves, shares sum to 1.
+    EXPECT_GT(r.changes.size(), 1u);
+    double shares = 0.0;
+    for (const ReconcileChange& c : r.changes) shares += c.objectiveShare;
+    EXPECT_NEAR(shares, 1.0, 1e-9);
+    for (std::size_t k = 1; k < r.changes.size(); ++k)
+        EXPECT_GE(r.changes[k - 1].objectiveShare, r.changes[k].objectiveShare);
+    // EE of small fish is the binding constraint.
+    EXPECT_NE(std::find(r.binding.begin(), r.binding.end(), "EE of small fish <= 1"), r.binding.end());
+}
+
+TEST(Reconcile, ConfidenceSteersWhichInputMoves)
+{
+    // Pike's biomass known to 10 % (grade A), the small fish's P/B poorly (grade D): the
+    // small fish's P/B should carry more of the change than pike's B.
+    Model m = overEatingModel();
+    m.compartment(3).confidenceOf(Param::Biomass).grade = Confidence::Grade::A;
+    m.compartment(2).confidenceOf(Param::PB).grade = Confidence::Grade::D;
+    const ReconcileResult r = reconcile(m);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced);
+    double pikeB = 0.0, fishPB = 0.0;
+    for (const ReconcileChange& c : r.changes) {
+        if (c.compartment == 3 && c.param == AdjustParam::Biomass) pikeB = std::abs(std::log(c.after / c.before));
+        if (c.compartment == 2 && c.param == AdjustParam::PB) fishPB = std::abs(std::log(c.after / c.before));
+    }
+    EXPECT_GT(fishPB, 5.0 * pikeB);
+}
+
+TEST(Reconcile, PinsNeverMoveAndBoundsHold)
+{
+    const Model m = overEatingModel();
+    ReconcileOptions o;
+    o.pins = {{3, AdjustParam::Biomass}, {2, AdjustParam::PB}};
+    o.bounds[{3, AdjustParam::QB}] = ValueBounds{4.0, std::nullopt};  // pike Q/B at least 4
+    o.bounds[{2, AdjustParam::Biomass}] = ValueBounds{std::nullopt, 1.3};
+    const ReconcileResult r = reconcile(m, o);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced) << r.solverResult;
+    EXPECT_EQ(r.adjusted.compartment(3).value(Param::Biomass), m.compartment(3).value(Param::Biomass));
+    EXPECT_EQ(r.adjusted.compartment(2).value(Param::PB), m.compartment(2).value(Param::PB));
+    EXPECT_GE(*r.adjusted.compartment(3).value(Param::QB), 4.0 * (1.0 - 1e-12));
+    EXPECT_LE(*r.adjusted.compartment(2).value(Param::Biomass), 1.3 * (1.0 + 1e-12));
+    for (const ReconcileChange& c : r.changes) {
+        EXPECT_FALSE(c.compartment == 3 && c.param == AdjustParam::Biomass);
+        EXPECT_FALSE(c.compartment == 2 && c.param == AdjustParam::PB);
+    }
+    expectAllConstraintsHold(r.adjusted, 1e-6);
+}
+
+TEST(Reconcile, KindsThatMayNotMoveStay)
+{
+    const Model m = overEatingModel();
+    ReconcileOptions o;
+    o.moveBiomass = false;
+    o.moveDiet = false;
+    const ReconcileResult r = reconcile(m, o);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced);
+    for (std::size_t i = 0; i < m.size(); ++i) {
+        EXPECT_EQ(r.adjusted.compartment(i).value(Param::Biomass), m.compartment(i).value(Param::Biomass));
+        for (std::size_t j = 0; j < m.size(); ++j) EXPECT_EQ(r.adjusted.diet(i, j), m.diet(i, j));
+    }
+}
+
+TEST(Reconcile, PinnedPreyEatenBeyondItsProductionNamesTheConflict)
+{
+    // Pike's consumption of small fish is fixed (B, Q/B and diet pinned), and so is the
+    // small fish's production: EE of small fish stays 3 whatever else moves.
+    const Model m = overEatingModel();
+    ReconcileOptions o;
+    o.pins = {{2, AdjustParam::Biomass}, {2, AdjustParam::PB}, {3, AdjustParam::Biomass},
+              {3, AdjustParam::QB},      {3, AdjustParam::Diet}};
+    const ReconcileResult r = reconcile(m, o);
+    ASSERT_EQ(r.status, ReconcileStatus::LeastViolating);
+    EXPECT_TRUE(r.elastic);
+    EXPECT_NE(r.balanceAfter, BalanceStatus::Balanced);
+    ASSERT_EQ(r.conflicts.size(), 1u);
+    const ReconcileConflict& c = r.conflicts.front();
+    EXPECT_EQ(c.constraint, "EE of small fish <= 1");
+    EXPECT_NEAR(c.violation, 2.0 / 3.0, 1e-6);  // (D - P) / max(P, D) = (6 - 2) / 6
+    for (const char* pin : {"unpin small fish.b", "unpin small fish.pb", "unpin pike.b", "unpin pike.qb", "unpin pike.diet"})
+        EXPECT_NE(std::find(c.relax.begin(), c.relax.end(), pin), c.relax.end()) << pin;
+    EXPECT_TRUE(std::any_of(r.problems.begin(), r.problems.end(),
+                            [](const Problem& p) { return p.code == "reconcile-conflict" && p.compartment == "small fish"; }));
+}
+
+TEST(Reconcile, UnknownBiomassIsSolvedNotWeighted)
+{
+    // Small fish with B unknown and EE given 0.9: the balance solves B; reconcile keeps
+    // it unknown in the result and never counts it in the objective.
+    Model m = overEatingModel();
+    m.compartment(2).value(Param::Biomass).reset();
+    m.compartment(2).value(Param::EE) = 0.9;
+    m.compartment(1).value(Param::Biomass) = 2.0;  // grazers: EE now above 1
+    ASSERT_EQ(solveBalance(m).status, BalanceStatus::Unbalanced);
+    const ReconcileResult r = reconcile(m);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced) << r.solverResult;
+    EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced);
+    EXPECT_FALSE(r.adjusted.compartment(2).value(Param::Biomass).has_value());
+    EXPECT_NEAR(solveBalance(r.adjusted).rows[2].ee, 0.9, 1e-12);
+    for (const ReconcileChange& c : r.changes) EXPECT_FALSE(c.compartment == 2 && c.param == AdjustParam::Biomass);
+    expectAllConstraintsHold(r.adjusted, 1e-6);
+}
+
+// Analytic gradients of the objective and every constraint against central differences.
+TEST(ReconcileProblem, AnalyticGradientsMatchCentralDifferences)
+{
+    std::mt19937 rng(7);
+    std::normal_distribution<double> noise(0.0, 0.2);
+    int checked = 0;
+    for (std::uint32_t seed = 1; seed <= 12; ++seed) {
+        const Model m = randomFoodWeb(seed, 6 + seed % 7);
+        ReconcileOptions o;
+        o.moveCatch = true;
+        o.eeMin[2] = 0.2;
+        const ReconcileProblem pr = ReconcileProblem::build(m, o);
+        ASSERT_TRUE(pr.ok()) << seed << ": " << pr.problems().front().message;
+        const auto nv = static_cast<Eigen::Index>(pr.variableCount());
+        const auto nc = static_cast<Eigen::Index>(pr.constraints().size());
+        for (int point = 0; point < 3; ++point) {
+            Eigen::VectorXd x = pr.startPoint();
+            for (Eigen::Index k = 0; k < nv; ++k) {
+                const auto& v = pr.variables()[static_cast<std::size_t>(k)];
+                x[k] += v.param == AdjustParam::Diet ? 0.2 * v.start * noise(rng) : noise(rng);
+            }
+            std::vector<double> grad(static_cast<std::size_t>(nv));
+            std::vector<double> jac(static_cast<std::size_t>(nv * nc));
+            Eigen::VectorXd values, plus, minus;
+            pr.objective(x, grad.data());
+            pr.evaluate(x, values, jac.data());
+            for (Eigen::Index k = 0; k < nv; ++k) {
+                const double h = 1e-6 * std::max(1.0, std::abs(x[k]));
+                Eigen::VectorXd xp = x, xm = x;
+                xp[k] += h;
+                xm[k] -= h;
+                const double df = (pr.objective(xp, nullptr) - pr.objective(xm, nullptr)) / (2 * h);
+                EXPECT_NEAR(grad[static_cast<std::size_t>(k)], df, 1e-6 * std::max(1.0, std::abs(df)));
+                pr.evaluate(xp, plus, nullptr);
+                pr.evaluate(xm, minus, nullptr);
+                for (Eigen::Index c = 0; c < nc; ++c) {
+                    const double dc = (plus[c] - minus[c]) / (2 * h);
+                    EXPECT_NEAR(jac[static_cast<std::size_t>(c * nv + k)], dc, 1e-6 * std::max(1.0, std::abs(dc)))
+                        << "seed " << seed << " constraint " << pr.constraints()[static_cast<std::size_t>(c)].describe(m)
+                        << " variable " << k;
+                    ++checked;
+                }
+            }
+        }
+    }
+    EXPECT_GT(checked, 10000);
+}
+
+TEST(Reconcile, RandomWebsReconcileToBalancedScenarios)
+{
+    int changed = 0;
+    for (std::uint32_t seed = 1; seed <= 10; ++seed) {
+        const Model m = randomFoodWeb(seed, 6 + seed % 7);
+        const ReconcileResult r = reconcile(m);
+        ASSERT_NE(r.status, ReconcileStatus::Invalid) << seed;
+        if (r.status == ReconcileStatus::Unchanged) continue;
+        ++changed;
+        EXPECT_EQ(r.status, ReconcileStatus::Balanced) << "seed " << seed << ": " << r.solverResult;
+        EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced) << seed;
+        expectAllConstraintsHold(r.adjusted, 1e-6);
+    }
+    EXPECT_GE(changed, 8);  // the webs are drawn to need changes
+}
+
+TEST(Reconcile, SourceNoteNamesMethodDateAndValueBefore)
+{
+    const Model m = overEatingModel();
+    const ReconcileResult r = reconcile(m);
+    const Model annotated = annotatedReconcileModel(m, r, "2026-12-02T15:00:00Z");
+    int notes = 0;
+    for (const ReconcileChange& c : r.changes) {
+        if (c.param == AdjustParam::Diet) continue;
+        const Param p = c.param == AdjustParam::Biomass ? Param::Biomass : c.param == AdjustParam::PB ? Param::PB : Param::QB;
+        const std::string& note = annotated.compartment(c.compartment).confidenceOf(p).source;
+        EXPECT_NE(note.find("reconciled 2026-12-02T15:00:00Z"), std::string::npos) << note;
+        EXPECT_NE(note.find("SLSQP"), std::string::npos);
+        EXPECT_NE(note.find("before: "), std::string::npos);
+        ++notes;
+    }
+    EXPECT_GT(notes, 0);
+}
+
+TEST(Reconcile, SampleReservoirReconcilesToABalancedScenario)
+{
+    const Model m = testing::fixtureModel(std::filesystem::path(TL_SAMPLES_DIR) / "reservoir");
+    const ReconcileResult r = reconcile(m);
+    ASSERT_NE(r.status, ReconcileStatus::Invalid) << (r.problems.empty() ? "" : r.problems.front().message);
+    ASSERT_NE(r.status, ReconcileStatus::LeastViolating);
+    EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced);
+    if (r.status == ReconcileStatus::Balanced) expectAllConstraintsHold(r.adjusted, 1e-6);
+}
+
+TEST(Reconcile, SampleLagoonReconcilesAfterADeliberateImbalance)
+{
+    Model m = testing::fixtureModel(std::filesystem::path(TL_SAMPLES_DIR) / "lagoon");
+    const std::size_t eel = *m.indexOf("eel");
+    m.compartment(eel).value(Param::Biomass) = *m.compartment(eel).value(Param::Biomass) * 6.0;
+    ASSERT_EQ(solveBalance(m).status, BalanceStatus::Unbalanced);
+    const ReconcileResult r = reconcile(m);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced) << r.solverResult;
+    EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced);
+    expectAllConstraintsHold(r.adjusted, 1e-6);
+    // Eel's biomass is among the inputs that move back down.
+    const auto it = std::find_if(r.changes.begin(), r.changes.end(), [&](const ReconcileChange& c) {
+        return c.compartment == eel && c.param == AdjustParam::Biomass;
+    });
+    ASSERT_NE(it, r.changes.end());
+    EXPECT_LT(it->after, it->before);
+}
+
+}  // namespace
+}  // namespace tl
