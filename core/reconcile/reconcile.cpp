@@ -17,7 +17,12 @@ namespace {
 
 // Inequalities are asked to hold with this much to spare, so that the balance's own
 // checks (kBoundTolerance) pass on the adjusted model after rounding (our choice).
-constexpr double kInequalityMargin = 1e-9;
+// NLopt's feasibility tolerance must cover the margin: NLopt 2.7 returns the last point
+// it deems feasible, and with a tolerance below the margin that is an early iterate,
+// not the optimum SLSQP converged to.
+constexpr double kInequalityMargin = 1e-8;
+constexpr double kInequalityTolerance = 1.5e-8;
+constexpr double kEqualityTolerance = 1e-10;
 
 // One phase of the solve: the problem's variables, plus one slack per relaxed row in
 // the elastic phase. Caches the last evaluation (NLopt asks for f, g and h at one x).
@@ -133,11 +138,11 @@ std::string runPhase(const ReconcileProblem& pr, Phase& phase, std::vector<doubl
     opt.set_min_objective(objectiveCallback, &phase);
     if (!phase.inequalityRows().empty())
         opt.add_inequality_mconstraint(inequalityCallback, &phase,
-                                       std::vector<double>(phase.inequalityRows().size(), 0.0));
+                                       std::vector<double>(phase.inequalityRows().size(), kInequalityTolerance));
     if (!phase.equalityRows().empty())
-        opt.add_equality_mconstraint(equalityCallback, &phase, std::vector<double>(phase.equalityRows().size(), 1e-12));
+        opt.add_equality_mconstraint(equalityCallback, &phase, std::vector<double>(phase.equalityRows().size(), kEqualityTolerance));
     opt.set_ftol_rel(1e-12);
-    opt.set_xtol_rel(1e-10);
+    opt.set_xtol_rel(1e-12);
     opt.set_maxeval(20000);
     double f = 0.0;
     try {
