@@ -63,6 +63,8 @@ struct ReconcileResult {
     double largestViolation = 0.0;        // scaled constraints (relative to production)
     double seconds = 0.0;                 // wall time of build + solve
     std::size_t variableCount = 0, constraintCount = 0;
+    std::size_t freeVariables = 0;        // variables in the final working set
+    int workingSetRounds = 0;             // SLSQP runs until the working set stopped growing
     std::vector<ReconcileChange> changes;        // ranked: largest share of the objective first
     std::vector<std::string> binding;            // active constraints and bounds at the answer
     std::vector<ReconcileConflict> conflicts;    // LeastViolating only

@@ -396,18 +396,20 @@ double ReconcileProblem::objective(const Eigen::VectorXd& x, double* grad) const
     return sum;
 }
 
-void ReconcileProblem::evaluate(const Eigen::VectorXd& x, Eigen::VectorXd& values, double* jac) const
+void ReconcileProblem::evaluate(const Eigen::VectorXd& x, Eigen::VectorXd& values, double* jac,
+                                const std::vector<int>* columnOf, std::size_t width) const
 {
     Flows f;
     computeFlows(x, f);
-    const std::size_t nv = vars_.size();
+    const std::size_t nv = columnOf ? width : vars_.size();
     values.resize(static_cast<Eigen::Index>(cons_.size()));
     if (jac) std::fill(jac, jac + cons_.size() * nv, 0.0);
 
     // Gradient helpers: each adds coef x d(quantity)/dx into one Jacobian row. A value
     // v0 exp(x_k) has derivative itself; tied P/B and Q/B share a variable, so their
     // contributions add up as the chain rule wants.
-    auto addTo = [](double* row, int var, double amount) {
+    auto addTo = [columnOf](double* row, int var, double amount) {
+        if (var >= 0 && columnOf) var = (*columnOf)[static_cast<std::size_t>(var)];
         if (var >= 0) row[var] += amount;
     };
     auto addConsumption = [&](double* row, std::size_t j, double coef) {  // Q_j = B_j Q/B_j
@@ -497,7 +499,7 @@ void ReconcileProblem::evaluate(const Eigen::VectorXd& x, Eigen::VectorXd& value
             for (const DietEntry& e : dietByPredator_[i])
                 if (e.var >= 0) {
                     sum += x[e.var];
-                    if (row) row[e.var] += 1.0;
+                    if (row) addTo(row, e.var, 1.0);
                 }
             g = sum - con.bound;
             break;

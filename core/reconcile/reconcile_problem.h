@@ -133,8 +133,11 @@ public:
     // f(x) and, when grad is non-null, its gradient (size variableCount()).
     double objective(const Eigen::VectorXd& x, double* grad) const;
     // Every constraint value (in constraints() order; <= 0 or = 0 when satisfied) and,
-    // when jac is non-null, the row-major Jacobian (constraints() x variables()).
-    void evaluate(const Eigen::VectorXd& x, Eigen::VectorXd& values, double* jac) const;
+    // when jac is non-null, the row-major Jacobian (constraints() x variables()). With
+    // columnOf (one entry per variable: its column, or -1 to leave it out) the Jacobian
+    // has `width` columns instead: the solver's working set of variables.
+    void evaluate(const Eigen::VectorXd& x, Eigen::VectorXd& values, double* jac,
+                  const std::vector<int>* columnOf = nullptr, std::size_t width = 0) const;
     // Largest violation of the scaled constraints: max(g, 0) and |h|.
     double largestViolation(const Eigen::VectorXd& values) const;
 
