@@ -4,7 +4,14 @@
 //
 //   1. A start that already satisfies every constraint is the answer: the objective is
 //      never negative and is 0 there. Nothing is changed.
-//   2. Otherwise SLSQP on f(x) under g(x) <= 0, h(x) = 0 and the bounds.
+//   2. Otherwise SLSQP on f(x) under g(x) <= 0, h(x) = 0 and the bounds, over a working
+//      set: the variables of the constraints violated at the start, then, round by
+//      round, of every constraint active at the answer, until the set stops growing. A
+//      variable in no active constraint keeps its start value at a local optimum (its
+//      objective gradient is 0 there), so the answer is a KKT point of the whole
+//      problem while SLSQP (dense, cost ~ cube of the variable count) sees only the
+//      inputs near the imbalance. SLSQP works on scaled variables y = (x - x0) / (CV s),
+//      in which the objective is sum y^2.
 //   3. When that ends with a constraint still violated (the model is infeasible within
 //      its pins and bounds, or SLSQP stalled), the elastic form: every model constraint
 //      gets a slack t_k >= 0 (g_k - t_k <= 0; for an equality, |h_k| <= t_k) and the

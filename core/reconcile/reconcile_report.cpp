@@ -1,5 +1,6 @@
 #include "core/reconcile/reconcile_report.h"
 
+#include <cmath>
 #include <cstdio>
 
 #include "core/io/balance_report.h"
@@ -8,6 +9,10 @@
 
 namespace tl {
 namespace {
+
+// The readable table leaves out changes smaller than this (they are applied, noted and
+// in the JSON; SLSQP spreads tiny adjustments over many inputs).
+constexpr double kSmallestListedPercent = 0.05;
 
 std::string parameterLabel(const Model& model, const ReconcileChange& ch)
 {
@@ -115,11 +120,14 @@ std::string reconcileText(const Model& original, const ReconcileResult& r, const
         t.addColumn("Change");
         t.addColumn("Confidence", TextTable::Align::Left);
         t.addColumn("Share of objective");
+        std::size_t small = 0;
         for (const ReconcileChange& ch : r.changes)
-            t.addRow({original.compartment(ch.compartment).name, parameterLabel(original, ch), displayNumber(ch.before),
+            if (std::abs(ch.percent) < kSmallestListedPercent) ++small; else t.addRow({original.compartment(ch.compartment).name, parameterLabel(original, ch), displayNumber(ch.before),
                       displayNumber(ch.after), percentText(ch.percent), ch.confidence,
                       percentText(100.0 * ch.objectiveShare).substr(1)});
         out += "\nChanges, largest share of the objective first:\n" + t.render();
+        if (small > 0)
+            out += "and " + std::to_string(small) + " changes under 0.05 % (all are listed by --json)\n";
     }
     if (!r.binding.empty()) {
         out += "\nBinding at the answer:\n";
