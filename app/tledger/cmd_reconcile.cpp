@@ -1,5 +1,7 @@
 // tledger reconcile MODEL --scenario NAME [--save-as NEW] [--move b,pb,qb,diet,catch]
-//                   [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...] [--json]
+//                   [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...]
+//                   [--ee-max COMPARTMENT=V ...] [--ee-min COMPARTMENT=V ...]
+//                   [--pq-range COMPARTMENT=LOW:HIGH ...] [--json]
 // (DESIGN 3.6, 5.2): the smallest confidence-weighted change to a scenario's inputs that
 // balances it (core/reconcile), written as a NEW scenario, never over the old one.
 //
@@ -29,7 +31,9 @@ namespace {
 
 constexpr const char* kUsage =
     "usage: tledger reconcile MODEL --scenario NAME [--save-as NEW] [--move b,pb,qb,diet,catch]\n"
-    "                         [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...] [--json]\n";
+    "                         [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...]\n"
+    "                         [--ee-max COMPARTMENT=V ...] [--ee-min COMPARTMENT=V ...]\n"
+    "                         [--pq-range COMPARTMENT=LOW:HIGH ...] [--json]\n";
 
 // Pulls every `--name value` of a repeatable option out of args.
 std::vector<std::string> takeRepeated(Args& args, const std::string& name, bool& missingValue)
@@ -135,8 +139,11 @@ int cmdReconcile(const Args& rawArgs)
     bool missing = false;
     const std::vector<std::string> pins = takeRepeated(args, "--pin", missing);
     const std::vector<std::string> bounds = takeRepeated(args, "--bound", missing);
+    const std::vector<std::string> eeMax = takeRepeated(args, "--ee-max", missing);
+    const std::vector<std::string> eeMin = takeRepeated(args, "--ee-min", missing);
+    const std::vector<std::string> pqRange = takeRepeated(args, "--pq-range", missing);
     if (missing) {
-        std::cerr << "tledger reconcile: --pin and --bound need a value\n" << kUsage;
+        std::cerr << "tledger reconcile: --pin, --bound, --ee-max, --ee-min and --pq-range need a value\n" << kUsage;
         return 2;
     }
     const auto opts = parseOptions(args, {"--scenario", "--save-as", "--move"}, {"--json"}, "reconcile", std::cerr);
@@ -192,6 +199,45 @@ int cmdReconcile(const Args& rawArgs)
             return 2;
         }
         o.bounds[*input] = vb;
+    }
+
+    // COMPARTMENT=V or COMPARTMENT=LOW:HIGH, split at the last '='.
+    auto perCompartment = [&](const std::string& text, const char* option, bool range, double& low, double& high) {
+        const auto eq = text.rfind('=');
+        const auto index = eq == std::string::npos ? std::nullopt : model.indexOf(trim(text.substr(0, eq)));
+        std::optional<double> a, b;
+        if (eq != std::string::npos) {
+            const std::string rest = text.substr(eq + 1);
+            const auto colon = rest.find(':');
+            if (range && colon != std::string::npos) {
+                a = parseNumber(trim(rest.substr(0, colon)));
+                b = parseNumber(trim(rest.substr(colon + 1)));
+            } else if (!range) {
+                a = b = parseNumber(trim(rest));
+            }
+        }
+        if (!index || !a || !b || !(*a > 0.0) || !(*b >= *a)) {
+            std::cerr << "tledger reconcile: " << option << " '" << text << "': expected COMPARTMENT="
+                      << (range ? "LOW:HIGH (0 < LOW <= HIGH)" : "V (V > 0)") << " naming a compartment of the scenario\n";
+            return std::optional<std::size_t>{};
+        }
+        low = *a;
+        high = *b;
+        return std::optional<std::size_t>{*index};
+    };
+    for (const auto& [list, option] : {std::pair{&eeMax, "--ee-max"}, std::pair{&eeMin, "--ee-min"}}) {
+        for (const std::string& text : *list) {
+            double low = 0.0, high = 0.0;
+            const auto i = perCompartment(text, option, false, low, high);
+            if (!i) return 2;
+            (std::string(option) == "--ee-max" ? o.eeMax : o.eeMin)[*i] = low;
+        }
+    }
+    for (const std::string& text : pqRange) {
+        double low = 0.0, high = 0.0;
+        const auto i = perCompartment(text, "--pq-range", true, low, high);
+        if (!i) return 2;
+        o.pqRange[*i] = {low, high};
     }
 
     const ReconcileResult result = reconcile(model, o);

@@ -17,7 +17,8 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
             --scor FILE [--producers A,B] [--json]  the same for a SCOR flow network
             [--keep-feeding-cycles]            level decomposition without removing feeding cycles
   reconcile MODEL --scenario NAME [--save-as NEW] [--move b,pb,qb,diet,catch]
-            [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...] [--json]
+            [--pin COMPARTMENT.PARAM ...] [--bound COMPARTMENT.PARAM=LOW:HIGH ...]
+            [--ee-max C=V ...] [--ee-min C=V ...] [--pq-range C=LOW:HIGH ...] [--json]
                                                the smallest confidence-weighted change that
                                                balances the scenario, saved as a NEW scenario
                                                (default "NAME reconciled"; for a CSV folder

@@ -319,8 +319,15 @@ ReconcileResult reconcile(const Model& model, const ReconcileOptions& options)
     Eigen::VectorXd values;
     pr.evaluate(x0, values, nullptr);
 
+    // The start holds when every inequality does and every equality closes to rounding
+    // (an unknown B solved by the balance leaves its equation at ~1e-16, not 0).
+    bool startHolds = true;
+    for (std::size_t c = 0; c < pr.constraints().size(); ++c) {
+        const double g = values[static_cast<Eigen::Index>(c)];
+        startHolds &= pr.constraints()[c].equality ? std::abs(g) <= 1e-12 : g <= 0.0;
+    }
     Eigen::VectorXd x = x0;
-    if (pr.largestViolation(values) <= 0.0) {
+    if (startHolds) {
         result.status = ReconcileStatus::Unchanged;
         result.solverResult = "start satisfies every constraint";
     } else {

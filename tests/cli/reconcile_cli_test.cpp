@@ -101,6 +101,28 @@ TEST(ReconcileCli, InfeasiblePinsExitOneAndNameTheConflict)
     EXPECT_NE(std::find(relax.begin(), relax.end(), "unpin pike.qb"), relax.end());
 }
 
+TEST(ReconcileCli, PerCompartmentPqRangeIsHonoured)
+{
+    // The cormorant's P/Q (0.3 / 70) lies far below the default consumer range; a range of
+    // its own for a bird (0.002-0.02, the project's choice for this test) keeps its P/B
+    // and Q/B where they are.
+    const ScratchDir dir("reconcile_cli");
+    const fs::path out = dir.path() / "out";
+    const CliRun run = runTledger("reconcile " + shellQuoted(kSamples + "reservoir") + " --scenario base --save-as " +
+                                  shellQuoted(out.string()) + " --pq-range 'Great cormorant=0.002:0.02' --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    for (const auto& change : run.json().at("changes")) {
+        if (change.at("compartment") == "Great cormorant") {
+            EXPECT_EQ(change.at("parameter"), "diet") << change.dump();
+        }
+    }
+    const CliRun bad = runTledger("reconcile " + shellQuoted(kSamples + "reservoir") + " --scenario base --save-as " +
+                                  shellQuoted((dir.path() / "bad").string()) + " --pq-range 'Great cormorant=0.3:0.1'");
+    EXPECT_EQ(bad.exitCode, 2);
+    EXPECT_NE(bad.err.find("--pq-range 'Great cormorant=0.3:0.1'"), std::string::npos) << bad.err;
+    EXPECT_FALSE(fs::exists(dir.path() / "bad"));
+}
+
 TEST(ReconcileCli, BadArgumentsAreNamed)
 {
     const std::string project = shellQuoted(kSamples + "reservoir.tledger");

@@ -56,6 +56,21 @@ TEST(Reconcile, BalancedModelComesBackUnchanged)
     EXPECT_EQ(r.balanceAfter, BalanceStatus::Balanced);
 }
 
+TEST(Reconcile, BalancedModelWithUnknownBiomassComesBackUnchanged)
+{
+    // Small fish's B solved by the balance (EE given): its equation closes to rounding
+    // only, which must not count as a violation.
+    Model m = overEatingModel();
+    m.compartment(3).value(Param::Biomass) = 0.2;
+    m.compartment(2).value(Param::Biomass).reset();
+    m.compartment(2).value(Param::EE) = 0.7;
+    ASSERT_EQ(solveBalance(m).status, BalanceStatus::Balanced);
+    const ReconcileResult r = reconcile(m);
+    EXPECT_EQ(r.status, ReconcileStatus::Unchanged);
+    EXPECT_TRUE(r.changes.empty());
+    EXPECT_EQ(r.adjusted, m);
+}
+
 TEST(Reconcile, OverEatingPredatorBeatsAHandMadeAdjustment)
 {
     const Model m = overEatingModel();
