@@ -18,9 +18,11 @@
 #include <QHeaderView>
 #include <QTemporaryDir>
 #include <QTest>
+#include <memory>
 #include <qcustomplot.h>
 
 #include "ui/main_window.h"
+#include "tests/ui/workbench_test_support.h"
 #include "ui/results/flow_map_page.h"
 #include "ui/results/level_bars_page.h"
 #include "ui/widgets/checks_panel.h"
@@ -32,13 +34,17 @@ namespace {
 
 constexpr QSize kSmall(1024, 700);
 
-MainWindowOptions testOptions(const QTemporaryDir& dir)
+MainWindowOptions testOptions(const QTemporaryDir& dir) { return tl::testing::workbenchTestOptions(dir); }
+
+// The window at 1024 x 700 with `project` open (as a template) and solved.
+std::unique_ptr<MainWindow> openSmall(const QTemporaryDir& dir, const QString& project, QString* error)
 {
-    MainWindowOptions o;
-    o.recoveryDirectory = dir.path() + QStringLiteral("/recovery");
-    o.useSettings = false;
-    o.askBeforeClosing = false;
-    return o;
+    auto w = std::make_unique<MainWindow>(testOptions(dir));
+    w->resize(kSmall);
+    w->show();
+    if (!w->openPath(project, true, error)) return nullptr;
+    w->runner()->waitForIdle();
+    return w;
 }
 
 void settle()
@@ -97,12 +103,10 @@ void SmallWindowTest::everyPageFitsAndNothingIsCut()
 {
     QFETCH(QString, project);
     QTemporaryDir dir;
-    MainWindow w(testOptions(dir));
-    w.resize(kSmall);
-    w.show();
     QString error;
-    QVERIFY2(w.openPath(project, true, &error), qPrintable(error));
-    w.runner()->waitForIdle();
+    const auto window = openSmall(dir, project, &error);
+    QVERIFY2(window, qPrintable(error));
+    MainWindow& w = *window;
     QStringList widest;  // for the message: what asks for the width
     for (int i = 0; i < w.pageCount(); ++i) widest << QStringLiteral("%1 %2").arg(w.pageKey(i)).arg(w.page(i)->minimumSizeHint().width());
     for (auto* d : w.findChildren<QDockWidget*>()) widest << QStringLiteral("%1 %2").arg(d->objectName()).arg(d->minimumSizeHint().width());
@@ -143,11 +147,10 @@ void SmallWindowTest::everyPageFitsAndNothingIsCut()
 void SmallWindowTest::compartmentsTableShowsItsMainColumns()
 {
     QTemporaryDir dir;
-    MainWindow w(testOptions(dir));
-    w.resize(kSmall);
-    w.show();
     QString error;
-    QVERIFY2(w.openPath(QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger"), true, &error), qPrintable(error));
+    const auto window = openSmall(dir, QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger"), &error);
+    QVERIFY2(window, qPrintable(error));
+    MainWindow& w = *window;
     w.showPage(QStringLiteral("compartments"));
     settle();
     QTableView* view = w.compartmentsPage()->view();
@@ -163,12 +166,10 @@ void SmallWindowTest::compartmentsTableShowsItsMainColumns()
 void SmallWindowTest::checksPanelShrinksWhenEmpty()
 {
     QTemporaryDir dir;
-    MainWindow w(testOptions(dir));
-    w.resize(kSmall);
-    w.show();
     QString error;
-    QVERIFY2(w.openPath(QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger"), true, &error), qPrintable(error));
-    w.runner()->waitForIdle();
+    const auto window = openSmall(dir, QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger"), &error);
+    QVERIFY2(window, qPrintable(error));
+    MainWindow& w = *window;
     settle();
     auto* dock = w.findChild<QDockWidget*>(QStringLiteral("checksDock"));
     QVERIFY(dock && dock->isVisible());

@@ -23,6 +23,7 @@
 #include "core/model/problem_codes.h"
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"
+#include "tests/ui/workbench_test_support.h"
 #include "ui/results/flow_map_page.h"
 #include "ui/widgets/help_window.h"
 #include "ui/widgets/project_settings_dialog.h"
@@ -34,14 +35,7 @@ namespace {
 
 const QString kReservoir = QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger");
 
-MainWindowOptions testOptions(const QTemporaryDir& dir)
-{
-    MainWindowOptions o;
-    o.recoveryDirectory = dir.path() + QStringLiteral("/recovery");
-    o.useSettings = false;
-    o.askBeforeClosing = false;
-    return o;
-}
+MainWindowOptions testOptions(const QTemporaryDir& dir) { return tl::testing::workbenchTestOptions(dir); }
 
 // Every action reachable from the menu bar, submenus followed.
 QList<QAction*> allActions(const QList<QAction*>& top)
@@ -52,6 +46,14 @@ QList<QAction*> allActions(const QList<QAction*>& top)
         if (a->menu()) out << allActions(a->menu()->actions());
     }
     return out;
+}
+
+// With TL_SNAPSHOT_DIR set, keeps a picture of `widget` there for a look.
+void keepSnapshot(QWidget& widget, const QString& name)
+{
+    if (qEnvironmentVariableIsEmpty("TL_SNAPSHOT_DIR")) return;
+    QDir().mkpath(qEnvironmentVariable("TL_SNAPSHOT_DIR"));
+    widget.grab().save(qEnvironmentVariable("TL_SNAPSHOT_DIR") + "/" + name + ".png");
 }
 
 QAction* menuAction(MainWindow& w, const QString& menu, const QString& text)
@@ -103,9 +105,7 @@ void WorkbenchMenusTest::fileMenuAndToolbarExportTheFigureOfTheResultsPage()
     w.showPage(QStringLiteral("balance-sheet"));
     QVERIFY(!exportFigure->isEnabled());
     // The figures carry the scenario and the project; a scenario switch follows.
-    FlowMapPage* flow = nullptr;
-    for (int i = 0; i < w.pageCount(); ++i)
-        if (w.pageKey(i) == QStringLiteral("flow-map")) flow = qobject_cast<FlowMapPage*>(w.page(i));
+    auto* flow = tl::testing::workbenchPage<FlowMapPage>(w, QStringLiteral("flow-map"));
     QVERIFY(flow);
     const QString first = QString::fromStdString(w.document()->scenario().name);
     QVERIFY2(flow->figureTitle().contains(first) && flow->figureTitle().contains("reservoir.tledger"),
@@ -174,6 +174,9 @@ void WorkbenchMenusTest::userGuideShipsWithTheProgram()
     auto* window = w.findChild<HelpWindow*>();
     QVERIFY(window && window->isVisible() && !window->isModal());
     QVERIFY(window->browser()->toPlainText().contains("Building a model"));
+    keepSnapshot(*window, "user-guide");
+    window->showSection("keys");
+    keepSnapshot(*window, "user-guide-keys");
     guide->trigger();
     QCOMPARE(w.findChildren<HelpWindow*>().size(), qsizetype(1));  // raised again, not a second one
 }
@@ -201,6 +204,8 @@ void WorkbenchMenusTest::projectSettingsAreUndoableAndSaved()
     dialog.pqMaxEdit()->setText("0.35");
     const std::size_t lastPool = m.detritusPools().back();
     dialog.poolCombos().front()->setCurrentIndex(dialog.poolCombos().front()->count() - 1);
+    dialog.show();
+    keepSnapshot(dialog, "project-settings");
     dialog.accept();
     QCOMPARE(dialog.result(), int(QDialog::Accepted));
     QCOMPARE(doc->undoStack()->count(), 1);  // one edit for the whole dialog
@@ -298,9 +303,7 @@ void WorkbenchMenusTest::flowMapDragsAreUndoableAndSaved()
     w.runner()->waitForIdle();
     w.showPage(QStringLiteral("flow-map"));
     QApplication::processEvents();
-    FlowMapPage* page = nullptr;
-    for (int i = 0; i < w.pageCount(); ++i)
-        if (w.pageKey(i) == QStringLiteral("flow-map")) page = qobject_cast<FlowMapPage*>(w.page(i));
+    auto* page = tl::testing::workbenchPage<FlowMapPage>(w, QStringLiteral("flow-map"));
     QVERIFY(page);
     ProjectDocument* doc = w.document();
     QVERIFY(doc->scenario().layout.empty());
@@ -331,9 +334,8 @@ void WorkbenchMenusTest::flowMapDragsAreUndoableAndSaved()
     QVERIFY2(again.openPath(path, false, &error), qPrintable(error));
     again.runner()->waitForIdle();
     again.showPage(QStringLiteral("flow-map"));
-    FlowMapPage* page2 = nullptr;
-    for (int i = 0; i < again.pageCount(); ++i)
-        if (again.pageKey(i) == QStringLiteral("flow-map")) page2 = qobject_cast<FlowMapPage*>(again.page(i));
+    auto* page2 = tl::testing::workbenchPage<FlowMapPage>(again, QStringLiteral("flow-map"));
+    QVERIFY(page2);
     QTRY_COMPARE(page2->positions().value(name), start + QPointF(80, 40));
 }
 
