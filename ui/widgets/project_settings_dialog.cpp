@@ -175,6 +175,7 @@ ProjectSettingsDialog::ProjectSettingsDialog(ProjectDocument* doc, QWidget* pare
     scroll->setWidget(content);
     scroll->setWidgetResizable(true);
     scroll->setFrameShape(QFrame::NoFrame);
+    scroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);  // the fields follow the dialog's width
 
     auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel, this);
     connect(buttons, &QDialogButtonBox::accepted, this, &ProjectSettingsDialog::accept);
