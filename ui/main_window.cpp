@@ -3,6 +3,7 @@
 #include <QAction>
 #include <QApplication>
 #include <QCloseEvent>
+#include <QResizeEvent>
 #include <QDateTime>
 #include <QDialog>
 #include <QDialogButtonBox>
@@ -36,8 +37,12 @@
 #include "ui/widgets/checks_panel.h"
 #include "ui/widgets/confidence_panel.h"
 #include "ui/widgets/editing_pages.h"
+#include "ui/widgets/help_window.h"
+#include "ui/widgets/project_settings_dialog.h"
 #include "ui/widgets/scenario_shelf.h"
+#include "ui/workbench_actions.h"
 #if TL_UI_HAVE_RESULTS
+#include "ui/results/figure_export.h"
 #include "ui/results/results_pages.h"
 #endif
 #if TL_UI_HAVE_ANALYSIS
@@ -65,6 +70,7 @@ bool looksLikeCsvFolder(const QString& path)
 MainWindow::MainWindow(const MainWindowOptions& options, QWidget* parent) : QMainWindow(parent), options_(options)
 {
     initResources();
+    initGuideResources();
     setObjectName(QStringLiteral("workbench"));
     setWindowIcon(QIcon(QStringLiteral(":/tl/icons/app.svg")));
     setAcceptDrops(true);
@@ -92,6 +98,7 @@ MainWindow::MainWindow(const MainWindowOptions& options, QWidget* parent) : QMai
         stack_->setCurrentIndex(i);
         // Data confidence belongs to the Compartments table; other pages get the room.
         if (confidenceDock_) confidenceDock_->setVisible(stack_->currentWidget() == compartments_);
+        if (exportFigureAct_) exportFigureAct_->setEnabled(figureOf(stack_->currentWidget()) != nullptr);
     });
 
     checks_ = new ChecksPanel(this);
@@ -144,8 +151,10 @@ MainWindow::~MainWindow()
 void MainWindow::addPage(QWidget* page, const QString& title, const QString& key, const QIcon& icon)
 {
     stack_->addWidget(page);
-    auto* item = new QListWidgetItem(icon, title, rail_);
-    item->setSizeHint(QSize(160, 34));
+    auto* item = new QListWidgetItem(icon, rail_->width() < 100 ? QString() : title, rail_);
+    item->setData(Qt::UserRole, title);
+    item->setToolTip(title);
+    item->setSizeHint(QSize(rail_->width() < 100 ? 40 : 160, 34));
     pageKeys_ << key;
     if (viewMenu_) {
         const int i = pageCount() - 1;
@@ -156,7 +165,51 @@ void MainWindow::addPage(QWidget* page, const QString& title, const QString& key
 
 int MainWindow::pageCount() const { return stack_->count(); }
 QString MainWindow::pageKey(int i) const { return pageKeys_.value(i); }
-QString MainWindow::pageTitle(int i) const { return rail_->item(i) ? rail_->item(i)->text() : QString(); }
+QString MainWindow::pageTitle(int i) const { return rail_->item(i) ? rail_->item(i)->data(Qt::UserRole).toString() : QString(); }
+
+// Below 1200 px the rail shows icons only (titles in tooltips): on a 1024 px screen its
+// 130 px go to the tables.
+void MainWindow::setCompactRail(bool compact)
+{
+    const int width = compact ? 42 : 178;
+    if (rail_->width() == width) return;
+    rail_->setFixedWidth(width);
+    for (int i = 0; i < rail_->count(); ++i) {
+        QListWidgetItem* item = rail_->item(i);
+        item->setText(compact ? QString() : item->data(Qt::UserRole).toString());
+        item->setSizeHint(QSize(compact ? 36 : 160, 34));
+    }
+}
+
+// Polish comes before the first layout of a shown window: a window shown at 1024 px is
+// laid out compact from the start (else the wide rail would set its minimum width).
+bool MainWindow::event(QEvent* event)
+{
+    if (event->type() == QEvent::Polish) fitToWidth();
+    return QMainWindow::event(event);
+}
+
+void MainWindow::resizeEvent(QResizeEvent* event)
+{
+    QMainWindow::resizeEvent(event);
+    fitToWidth();
+}
+
+void MainWindow::fitToWidth()
+{
+    const bool compact = width() < 1200;
+    if (compact == (rail_->width() < 100)) return;
+    setCompactRail(compact);
+    if (!compact) return;
+    // The docks give up some room to the tables (the user may widen them again); after the
+    // window's layout is in place, which it is not yet at Polish.
+    QTimer::singleShot(0, this, [this] {
+        const QList<QDockWidget*> sides = {findChild<QDockWidget*>(QStringLiteral("scenarioDock")), confidenceDock_};
+        resizeDocks(sides, {120, 160}, Qt::Horizontal);
+        auto* checksDock = findChild<QDockWidget*>(QStringLiteral("checksDock"));
+        if (checks_->maximumHeight() == QWIDGETSIZE_MAX) resizeDocks({checksDock}, {150}, Qt::Vertical);
+    });
+}
 
 void MainWindow::showPage(int i)
 {
@@ -166,6 +219,8 @@ void MainWindow::showPage(int i)
 }
 
 void MainWindow::showPage(const QString& key) { showPage(int(pageKeys_.indexOf(key))); }
+QWidget* MainWindow::currentPage() const { return stack_->currentWidget(); }
+QWidget* MainWindow::page(int i) const { return stack_->widget(i); }
 
 void MainWindow::buildPages()
 {
@@ -205,6 +260,7 @@ void MainWindow::buildPages()
     });
     for (ResultsPage* p : resultsPages_) {
         addPage(p, p->title(), p->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+        bindFlowMapLayout(p, doc_);  // box positions: saved in the scenario, drags undoable
         connect(p, &ResultsPage::compartmentActivated, this, [this](const QString& name) {
             const auto i = doc_->model().indexOf(name.toStdString());
             if (!i) return;
@@ -231,6 +287,19 @@ void MainWindow::buildDocks()
     resizeDocks({shelfDock}, {180}, Qt::Horizontal);
     resizeDocks({confDock}, {220}, Qt::Horizontal);
     resizeDocks({checksDock}, {210}, Qt::Vertical);
+    // An empty Checks panel is one line high; problems bring back the list.
+    connect(checks_, &ChecksPanel::emptinessChanged, this, [this, checksDock](bool empty) {
+        const bool wasCompact = checks_->maximumHeight() < QWIDGETSIZE_MAX;
+        if (empty == wasCompact) return;
+        if (empty) {
+            const auto* summary = checks_->findChild<QLabel*>(QStringLiteral("checksSummary"));
+            const QMargins m = checks_->layout()->contentsMargins();
+            checks_->setMaximumHeight(summary->sizeHint().height() + m.top() + m.bottom());
+        } else {
+            checks_->setMaximumHeight(QWIDGETSIZE_MAX);
+            resizeDocks({checksDock}, {std::min(210, height() / 4)}, Qt::Vertical);
+        }
+    });
 }
 
 // --- actions and menus ---------------------------------------------------------------------
@@ -255,6 +324,13 @@ void MainWindow::buildActions()
     file->addSeparator();
     file->addAction(tr("&Import CSV folder as scenario…"), this, &MainWindow::importCsvDialog);
     file->addAction(tr("&Export scenario as CSV folder…"), this, &MainWindow::exportCsvDialog);
+    exportFigureAct_ = file->addAction(icon("export-figure"), tr("Export &figure…"), this, &MainWindow::exportFigureDialog);
+    exportFigureAct_->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_E));
+    exportFigureAct_->setToolTip(tr("Export the chart of this page as PNG, SVG or PDF (results pages)"));
+    exportFigureAct_->setEnabled(false);
+    reportAct_ = file->addAction(icon("report"), tr("&Report…"), this, &MainWindow::reportDialog);
+    reportAct_->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_R));
+    reportAct_->setToolTip(tr("Write an HTML report of every scenario of the project"));
     file->addSeparator();
     QAction* quitAct = file->addAction(tr("&Quit"), this, &QWidget::close);
     quitAct->setShortcut(QKeySequence::Quit);
@@ -288,6 +364,13 @@ void MainWindow::buildActions()
         a->setShortcutContext(Qt::WidgetShortcut);
     }
 
+    QMenu* project = menuBar()->addMenu(tr("&Project"));
+    settingsAct_ = project->addAction(tr("Project &settings…"), this, [this] {
+        ProjectSettingsDialog dialog(doc_, this);
+        dialog.exec();
+    });
+    settingsAct_->setToolTip(tr("Units, check rules and the fleets' discard pools"));
+
     QMenu* scenario = menuBar()->addMenu(tr("&Scenario"));
     scenario->addAction(tr("&New scenario…"), shelf_, &ScenarioShelf::askNew);
     scenario->addAction(tr("&Duplicate scenario…"), shelf_, &ScenarioShelf::askDuplicate);
@@ -303,6 +386,9 @@ void MainWindow::buildActions()
     for (QDockWidget* d : findChildren<QDockWidget*>()) viewMenu_->addAction(d->toggleViewAction());
 
     QMenu* help = menuBar()->addMenu(tr("&Help"));
+    guideAct_ = help->addAction(tr("&User guide"), this, [this] { showUserGuide(QString()); });
+    guideAct_->setShortcut(QKeySequence::HelpContents);
+    help->addAction(tr("&Keyboard shortcuts"), this, [this] { showUserGuide(QStringLiteral("keys")); });
     help->addAction(tr("&Problem codes"), this, [this] {
         QDialog dialog(this);
         dialog.setWindowTitle(tr("Problem codes"));
@@ -332,6 +418,9 @@ void MainWindow::buildActions()
     bar->addSeparator();
     bar->addAction(undoAct);
     bar->addAction(redoAct);
+    bar->addSeparator();
+    bar->addAction(exportFigureAct_);
+    bar->addAction(reportAct_);
 }
 
 // --- model changes and solving -------------------------------------------------------------
@@ -383,6 +472,9 @@ void MainWindow::updateTitle()
     if (doc_->origin() == ProjectDocument::Origin::Template) title += tr(" (template)");
     setWindowTitle(title + QStringLiteral(" — Trophic Ledger"));
     setWindowModified(doc_->isModified());
+    QList<QWidget*> pages;
+    for (int i = 0; i < pageCount(); ++i) pages << page(i);
+    setFigureContexts(pages, qs(doc_->scenario().name), doc_->displayName());
     if (doc_->origin() == ProjectDocument::Origin::Template)
         templateNote_->setText(tr("Template (%1): use Save As to keep changes").arg(doc_->templateReason()));
     else if (doc_->origin() == ProjectDocument::Origin::CsvFolder)
@@ -549,6 +641,48 @@ void MainWindow::exportCsvDialog()
     QString why;
     if (!doc_->exportCsv(folder, &why)) QMessageBox::warning(this, tr("Export CSV"), why);
     else message(tr("Scenario %1 written to %2").arg(qs(doc_->scenario().name), QDir::toNativeSeparators(folder)));
+}
+
+void MainWindow::exportFigureDialog()
+{
+    FigureSource* figure = figureOf(currentPage());
+    if (!figure) {
+        message(tr("This page has no figure: open Level bars, Flow map, Impact matrix or Indicators."));
+        return;
+    }
+#if TL_UI_HAVE_RESULTS
+    const QString path = exportFigureInteractively(*figure, this);
+    if (!path.isEmpty()) message(tr("Figure written to %1").arg(QDir::toNativeSeparators(path)));
+#endif
+}
+
+bool MainWindow::writeReport(const QString& path, QString* error)
+{
+    return writeProjectReport(doc_->project(), QFileInfo(doc_->displayName()).completeBaseName(), path, error);
+}
+
+void MainWindow::reportDialog()
+{
+    const QString suggested = QDir::home().filePath(QFileInfo(doc_->displayName()).completeBaseName() + QStringLiteral("-report.html"));
+    QString path = QFileDialog::getSaveFileName(this, tr("Write project report"), suggested, tr("HTML report (*.html)"));
+    if (path.isEmpty()) return;
+    if (!path.endsWith(QStringLiteral(".html"), Qt::CaseInsensitive)) path += QStringLiteral(".html");
+    QString why;
+    if (!writeReport(path, &why)) QMessageBox::warning(this, tr("Report"), why);
+    else message(tr("Report written to %1").arg(QDir::toNativeSeparators(path)));
+}
+
+void MainWindow::showUserGuide(const QString& section)
+{
+    // One guide window, kept and raised again; its shortcut table is read from the menus now.
+    auto* guide = findChild<HelpWindow*>();
+    if (!guide) {
+        guide = new HelpWindow(menuBar()->actions(), this);
+        guide->setModal(false);
+    }
+    guide->show();
+    guide->raise();
+    if (!section.isEmpty()) guide->showSection(section);
 }
 
 bool MainWindow::maybeSave()

@@ -66,6 +66,15 @@ public:
     QString pageTitle(int i) const;
     void showPage(int i);
     void showPage(const QString& key);
+    QWidget* currentPage() const;
+    QWidget* page(int i) const;
+
+    // File > Export figure / Report, Project > Project settings, Help > User guide.
+    QAction* exportFigureAction() const { return exportFigureAct_; }
+    QAction* reportAction() const { return reportAct_; }
+    QAction* settingsAction() const { return settingsAct_; }
+    QAction* userGuideAction() const { return guideAct_; }
+    bool writeReport(const QString& path, QString* error);
 
     // Files. Each returns false (after telling the user, unless quiet) on failure.
     bool openPath(const QString& path, bool asTemplate = false, QString* error = nullptr);
@@ -86,9 +95,13 @@ protected:
     void closeEvent(QCloseEvent* event) override;
     void dragEnterEvent(QDragEnterEvent* event) override;
     void dropEvent(QDropEvent* event) override;
+    void resizeEvent(QResizeEvent* event) override;
+    bool event(QEvent* event) override;
 
 private:
     void buildActions();
+    void setCompactRail(bool compact);
+    void fitToWidth();  // compact rail and narrower side docks below 1200 px
     void buildDocks();
     void buildPages();
     void onModelChanged();
@@ -102,6 +115,9 @@ private:
     void openDialog();
     void importCsvDialog();
     void exportCsvDialog();
+    void exportFigureDialog();
+    void reportDialog();
+    void showUserGuide(const QString& section);
     void addRecent(const QString& path);
     void rebuildRecentMenu();
     void message(const QString& text, int ms = 6000);
@@ -134,6 +150,10 @@ private:
     QLabel* solveNote_;
     QMenu* recentMenu_ = nullptr;
     QMenu* viewMenu_ = nullptr;
+    QAction* exportFigureAct_ = nullptr;
+    QAction* reportAct_ = nullptr;
+    QAction* settingsAct_ = nullptr;
+    QAction* guideAct_ = nullptr;
 };
 
 }  // namespace tl::ui

@@ -164,6 +164,8 @@ int exportFigure(const Scenario& scenario, const ParsedOptions& opts, const std:
     request.view = *view;
     request.format = format;
     request.path = out.string();
+    request.scenario = scenario.name;  // the figure's title names scenario and project
+    request.project = fs::path(opts.positional.at(0)).filename().string();
     if (const auto dpi = opts.value("--dpi")) {
         const auto parsed = parseNumber(*dpi);
         if (!parsed || *parsed < 30 || *parsed > 2400 || *parsed != std::floor(*parsed)) {

@@ -59,7 +59,10 @@ std::string htmlReport(const Project& project)
         const BalanceSheet sheet = solveBalance(s.model);
         out += "<h2>Scenario: " + html(s.name) + "</h2>\n";
         if (!s.description.empty()) out += "<p>" + html(s.description) + "</p>\n";
-        if (!s.parent.empty()) out += "<p>Derived from scenario " + html(s.parent) + ".</p>\n";
+        // A duplicate is a frozen copy: say so, with the day it was made (ISO date).
+        if (!s.parent.empty())
+            out += "<p>Copied from scenario " + html(s.parent) + (s.created.size() >= 10 ? " on " + html(s.created.substr(0, 10)) : "") +
+                   "; later edits of either do not reach the other.</p>\n";
         out += "<p>Balance status: <strong>" + html(statusKey(sheet.status)) + "</strong></p>\n";
         out += "<table>\n<tr><th>Compartment</th><th>Kind</th><th>TL</th><th>B</th><th>P/B</th><th>Q/B</th><th>EE</th>"
                "<th>P/Q</th><th>P</th><th>Q</th><th>R</th><th>Catch</th></tr>\n";

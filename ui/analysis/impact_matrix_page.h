@@ -53,7 +53,7 @@ public:
 
     QSize figureSize() const override;
     void renderFigure(QPaintDevice& device, QSize size, double scale) override;
-    QString figureTitle() const override { return tr("Mixed trophic impact (row acts on column)"); }
+    QString figureTitle() const override { return titled(tr("Mixed trophic impact (row acts on column)")); }
 
 private:
     void display(std::shared_ptr<const ScenarioAnalysis> analysis);

@@ -22,19 +22,22 @@ std::vector<IndicatorRow> indicatorRows(const ScenarioAnalysis& a)
         {"boundary_input", tr("Boundary input"), s.boundaryInput, flow,
          tr("All imports into the system, primary production of producers included (Finn 1976)")},
         {"total_primary_production", tr("Total primary production (TPP)"), s.totalPrimaryProduction, flow,
-         tr("Net production of the producers, P (DESIGN.md 3.5)")},
+         tr("Net production of all producers (their P), the food the web is built on (Odum 1969, Science 164:262)")},
         {"total_respiration", tr("Total respiration (R)"), s.totalRespiration, flow,
-         tr("Respiration of the consumers, Q (1 − U) − P; producers enter with net production (DESIGN.md 3.5)")},
+         tr("What the consumers burn: consumption minus egestion minus production, Q (1 − U) − P, summed over consumers; "
+            "producers enter with their net production, so they add none (Odum 1969)")},
         {"tpp_over_r", tr("TPP / R"), s.tppOverR, none,
          tr("Primary production over respiration; tends towards 1 as systems mature (Odum 1969, Science 164:262)")},
         {"tpp_over_b", tr("TPP / B"), s.tppOverB, rate,
          tr("Primary production over living biomass; falls as systems mature (Odum 1969)")},
         {"total_biomass", tr("Total living biomass (B)"), s.totalLivingBiomass, stock,
-         tr("Biomass of producers and consumers; detritus pools left out (DESIGN.md 3.5)")},
+         tr("Biomass of producers and consumers together; detritus pools are left out (this program's definition)")},
         {"links", tr("Links"), static_cast<double>(s.links), tr("count"),
-         tr("Non-zero flows between compartments, cannibal loops counted (DESIGN.md 3.5)")},
+         tr("Number of flows between compartments (feeding and flows to detritus), a compartment eating its own kind "
+            "counted once (network analysis, Ulanowicz 1986)")},
         {"connectance", tr("Connectance, all internal flows"), s.connectance, none,
-         tr("Links / n² over every internal flow, flows to detritus included (network analysis; DESIGN.md 3.5)")},
+         tr("Links divided by the number of compartments squared, over every flow between compartments, flows to "
+            "detritus included (network analysis, Ulanowicz 1986)")},
         {"food_web_connectance", tr("Food-web connectance"), s.foodWebConnectance, none,
          tr("Feeding links among living compartments / (living compartments)², cannibalism counted "
             "(directed connectance of food-web studies, Martinez 1992, Am Nat 139:1208, recalled from memory)")},
@@ -45,11 +48,11 @@ std::vector<IndicatorRow> indicatorRows(const ScenarioAnalysis& a)
          tr("Consumers' omnivory index (Pauly et al. 1993) weighted by their intake Q: this project's variant, "
             "independent of units")},
         {"primary_production_consumed", tr("Primary production consumed"), a.levels.primaryProductionConsumed, none,
-         tr("Share of the producers' production that consumers eat: shown at level I in place of a transfer "
-            "efficiency, which level I (producers and detritus together) does not have (DESIGN.md 3.3)")},
+         tr("Share of the producers' production that consumers eat. Level I mixes producers and detritus and has no "
+            "transfer efficiency, so this share stands in its place (Lindeman 1942, Ecology 23:399)")},
         {"detritus_inflow_consumed", tr("Detritus inflow consumed"), a.levels.detritusInflowConsumed, none,
-         tr("Share of the detritus pools' inflow that consumers eat (level I, beside primary production consumed; "
-            "DESIGN.md 3.3)")},
+         tr("Share of what flows into the detritus pools that consumers eat; shown at level I beside primary "
+            "production consumed (this program's definition)")},
         {"fci", tr("Finn cycling index (FCI)"), s.fci, none,
          tr("Share of the throughput that is recycled (Finn 1976)")},
         {"apl", tr("Average path length (APL)"), s.apl, none,
@@ -66,27 +69,29 @@ std::vector<IndicatorRow> indicatorRows(const ScenarioAnalysis& a)
          tr("Geometric mean of the transfer efficiency of levels II, III and IV, all food chains "
             "(Lindeman 1942, Ecology 23:399; the mean: common practice, no source)")},
         {"total_catch", tr("Total catch"), s.totalCatch, flow,
-         tr("Landings plus dead discards of every fleet (DESIGN.md 3.5; Model::totalCatch)"), true},
+         tr("Everything the fleets kill: landings plus the discards that do not survive, summed over fleets and "
+            "compartments (common practice, no source)"), true},
         {"catch_ppr", tr("PPR of the catch, detritus counted as level-I supply"), s.catchPpr, flow,
          tr("Primary production required to produce the catch (Pauly & Christensen 1995, Nature 374:255), each unit "
             "of detritus eaten counted as one unit of level-I supply"),
          true},
         {"catch_ppr_share_of_tpp", tr("PPR (detritus counted) / (TPP + detritus inflow)"), s.catchPprShareOfTpp, none,
-         tr("The PPR above over its matching total: primary production plus the detritus pools' inflow (DESIGN.md 3.3)"),
+         tr("The PPR above divided by its matching total, primary production plus the detritus pools' inflow "
+            "(Pauly & Christensen 1995)"),
          true},
         {"catch_ppr_producers_only", tr("PPR of the catch, producers only"), s.catchPprProducersOnly, flow,
          tr("Primary production required, detritus eaten needing none further (Pauly & Christensen 1995; "
             "the two readings are this project's labels)"),
          true},
         {"catch_ppr_producers_only_share_of_tpp", tr("PPR (producers only) / TPP"), s.catchPprProducersOnlyShare,
-         none, tr("The producers-only PPR over total primary production (DESIGN.md 3.3)"), true},
+         none, tr("The producers-only PPR divided by total primary production (Pauly & Christensen 1995)"), true},
         {"catch_mean_tl", tr("Mean trophic level of the catch (landings)"), s.catchMeanTl, tr("trophic level"),
          tr("Landings-weighted mean trophic level, as in the analyses of fishing down food webs "
             "(Pauly et al. 1998, Science 279:860)"),
          true},
         {"catch_mean_tl_with_discards", tr("Mean trophic level of landings + dead discards"),
          s.catchMeanTlWithDiscards, tr("trophic level"),
-         tr("The same, weighted by everything the fleets kill: landings plus dead discards (DESIGN.md 3.3)"), true},
+         tr("The same mean, weighted by everything the fleets kill: landings plus dead discards (Pauly et al. 1998)"), true},
     };
 }
 

@@ -65,6 +65,7 @@ IndicatorsPage::IndicatorsPage(QWidget* parent)
     plot_->setContextMenuPolicy(Qt::CustomContextMenu);
     plot_->plotLayout()->insertRow(0);
     plot_->plotLayout()->addElement(0, 0, new QCPTextElement(plot_, figureTitle(), QFont(font().family(), 11, QFont::Bold)));
+    static_cast<QCPTextElement*>(plot_->plotLayout()->element(0, 0))->setObjectName(QStringLiteral("keystoneTitle"));
     plot_->xAxis->setLabel(tr("Keystone index  log10(ε (1 − p))  (Libralato et al. 2006); higher = larger effect for its biomass\n"
                               "ε sums the squared mixed trophic impacts on the other living compartments (detritus and "
                               "fleets left out); p is the share of living biomass"));
@@ -234,6 +235,12 @@ void IndicatorsPage::renderFigure(QPaintDevice& device, QSize size, double scale
     }
     plot_->resize(old);
     plot_->setViewport(QRect(QPoint(0, 0), old));
+    plot_->replot();
+}
+
+void IndicatorsPage::figureContextChanged()
+{
+    if (auto* heading = qobject_cast<QCPTextElement*>(plot_->plotLayout()->element(0, 0))) heading->setText(figureTitle());
     plot_->replot();
 }
 

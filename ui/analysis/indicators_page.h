@@ -56,7 +56,10 @@ public:
 
     QSize figureSize() const override;
     void renderFigure(QPaintDevice& device, QSize size, double scale) override;
-    QString figureTitle() const override { return tr("Keystone index by compartment"); }
+    QString figureTitle() const override { return titled(tr("Keystone index by compartment")); }
+
+protected:
+    void figureContextChanged() override;
 
 private:
     void display(std::shared_ptr<const ScenarioAnalysis> analysis);

@@ -26,6 +26,7 @@
 #include <set>
 
 #include "ui/style/palette.h"
+#include "ui/style/wrapping_row.h"
 
 namespace tl::ui {
 
@@ -126,15 +127,16 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     legendIcon->setPixmap(solvedIcon().pixmap(12, 12));
     auto* legend = new QLabel(tr("%1; bold. Columns marked (input) show what was entered, empty = unknown.")
                                   .arg(solvedLegend()), this);
+    legend->setWordWrap(true);  // a long line would set the window's minimum width
 
     auto* statusRow = new QHBoxLayout;
     statusRow->addWidget(statusIcon_);
     statusRow->addWidget(statusLabel_, 1);
-    auto* filterRow = new QHBoxLayout;
-    filterRow->addWidget(nameEdit_, 2);
+    auto* filterRow = new WrappingRow;  // continues on a second line in a narrow window
+    nameEdit_->setMinimumWidth(200);
+    filterRow->addWidget(nameEdit_);
     filterRow->addWidget(kindCombo_);
     filterRow->addWidget(problemsOnly_);
-    filterRow->addStretch(1);
     filterRow->addWidget(copyButton);
     filterRow->addWidget(exportButton);
     auto* legendRow = new QHBoxLayout;

@@ -39,6 +39,28 @@ std::optional<QString> writeAtomically(const QString& path, const QByteArray& by
 
 }  // namespace
 
+void FigureSource::setFigureContext(const QString& scenario, const QString& project)
+{
+    if (scenario == scenario_ && project == project_) return;
+    scenario_ = scenario;
+    project_ = project;
+    figureContextChanged();
+}
+
+QString FigureSource::figureContext() const
+{
+    QStringList parts;
+    if (!scenario_.isEmpty()) parts << QObject::tr("scenario %1").arg(scenario_);
+    if (!project_.isEmpty()) parts << QObject::tr("project %1").arg(project_);
+    return parts.join(QStringLiteral(" · "));
+}
+
+QString FigureSource::titled(const QString& what) const
+{
+    const QString context = figureContext();
+    return context.isEmpty() ? what : what + QStringLiteral(" — ") + context;
+}
+
 std::optional<FigureFormat> parseFigureFormat(const QString& text)
 {
     const QString t = text.trimmed().toLower();
@@ -138,16 +160,51 @@ void addFigureExportActions(QMenu& menu, FigureSource& source, QWidget* dialogPa
                                                    QObject::tr("Resolution (dots per inch):"), 300, 72, 1200, 1, &ok);
                 if (!ok) return;
             }
-            QString name = source.figureTitle().toLower();
-            name.replace(QRegularExpression("[^a-z0-9]+"), "_");
             const QString path = QFileDialog::getSaveFileName(
-                dialogParent, QObject::tr("Export figure"), QDir::home().filePath(name + "." + suffix),
+                dialogParent, QObject::tr("Export figure"), QDir::home().filePath(suggestedFigureFileName(source, format)),
                 QObject::tr("%1 files (*.%2)").arg(suffix.toUpper(), suffix));
             if (path.isEmpty()) return;
             if (auto error = exportFigure(source, format, path, options))
                 QMessageBox::warning(dialogParent, QObject::tr("Export figure"), *error);
         });
     }
+}
+
+QString suggestedFigureFileName(const FigureSource& source, FigureFormat format)
+{
+    QString name = source.figureTitle().toLower();
+    name.replace(QRegularExpression(QStringLiteral("[^\\w]+"), QRegularExpression::UseUnicodePropertiesOption), QStringLiteral("_"));
+    name.remove(QRegularExpression(QStringLiteral("^_+|_+$")));
+    if (name.isEmpty()) name = QStringLiteral("figure");
+    return name.left(120) + QLatin1Char('.') + figureSuffix(format);
+}
+
+QString exportFigureInteractively(FigureSource& source, QWidget* dialogParent)
+{
+    const QString png = QObject::tr("PNG image (*.png)"), svg = QObject::tr("SVG drawing (*.svg)"),
+                  pdf = QObject::tr("PDF document (*.pdf)");
+    QString filter = png;
+    QString path = QFileDialog::getSaveFileName(dialogParent, QObject::tr("Export figure"),
+                                                QDir::home().filePath(suggestedFigureFileName(source, FigureFormat::Png)),
+                                                QStringList{png, svg, pdf}.join(QStringLiteral(";;")), &filter);
+    if (path.isEmpty()) return {};
+    auto format = parseFigureFormat(QFileInfo(path).suffix());
+    if (!format) {  // no or unknown suffix: take the chosen filter's and add it
+        format = filter == svg ? FigureFormat::Svg : filter == pdf ? FigureFormat::Pdf : FigureFormat::Png;
+        path += QLatin1Char('.') + figureSuffix(*format);
+    }
+    FigureOptions options;
+    if (*format == FigureFormat::Png) {
+        bool ok = false;
+        options.dpi = QInputDialog::getInt(dialogParent, QObject::tr("Export as PNG"),
+                                           QObject::tr("Resolution (dots per inch):"), 300, 72, 1200, 1, &ok);
+        if (!ok) return {};
+    }
+    if (auto error = exportFigure(source, *format, path, options)) {
+        QMessageBox::warning(dialogParent, QObject::tr("Export figure"), *error);
+        return {};
+    }
+    return path;
 }
 
 void ensureGuiApplication()
@@ -180,12 +237,14 @@ std::optional<QString> exportScenarioFigure(const tl::Model& model, const tl::Ba
         else if (c == "detritus") page.setChains(LevelChains::FromDetritus);
         else return QObject::tr("Unknown chains '%1'; expected combined, producers or detritus.").arg(request.chains);
         page.setLogScale(request.logScale);
+        page.setFigureContext(request.scenario, request.project);
         return exportFigure(page, request.format, request.path, request.options);
     }
     if (request.view == "flow-map") {
         FlowMapPage page;
         page.setScenario(model, sheet);
         if (!page.scene()->unavailableReason().isEmpty()) return page.scene()->unavailableReason();
+        page.setFigureContext(request.scenario, request.project);
         return exportFigure(page, request.format, request.path, request.options);
     }
     return QObject::tr("Unknown view '%1'; expected level-bars or flow-map.").arg(request.view);
@@ -212,6 +271,8 @@ std::string exportFigureForCli(const tl::Model& model, const tl::BalanceSheet& s
     r.quantity = QString::fromStdString(request.quantity);
     r.chains = QString::fromStdString(request.chains);
     r.logScale = request.logScale;
+    r.scenario = QString::fromStdString(request.scenario);
+    r.project = QString::fromStdString(request.project);
     const auto error = exportScenarioFigure(model, sheet, r);
     return error ? error->toStdString() : std::string();
 }

@@ -28,6 +28,20 @@ public:
     // scaled by `scale` (device pixels per logical pixel). Opens its own painter.
     virtual void renderFigure(QPaintDevice& device, QSize size, double scale) = 0;
     virtual QString figureTitle() const = 0;
+
+    // The scenario and project the figure shows ("Dry year", "reservoir.tledger"). Every
+    // figure title carries them (titled()), so an exported file says where it came from.
+    void setFigureContext(const QString& scenario, const QString& project);
+    QString figureContext() const;  // "scenario Dry year · project reservoir.tledger", or empty
+
+protected:
+    // `what` followed by the context: "Flow map — scenario Dry year · project reservoir.tledger".
+    QString titled(const QString& what) const;
+    // Called after the context changed (a page redraws the title it shows).
+    virtual void figureContextChanged() {}
+
+private:
+    QString scenario_, project_;
 };
 
 enum class FigureFormat { Png, Svg, Pdf };
@@ -45,6 +59,12 @@ std::optional<QString> exportFigure(FigureSource& source, FigureFormat format, c
 
 // Adds "Export as PNG… / SVG… / PDF…" entries (file dialog, DPI prompt for PNG).
 void addFigureExportActions(QMenu& menu, FigureSource& source, QWidget* dialogParent);
+// The whole interactive export: asks for a file (its type chosen by the filter or the
+// suffix, PNG by default) and, for PNG, a resolution; reports a failure in a message
+// box. Returns the path written, or empty when cancelled or failed.
+QString exportFigureInteractively(FigureSource& source, QWidget* dialogParent);
+// A file name for the figure: its title in lower case, words joined by '_'.
+QString suggestedFigureFileName(const FigureSource& source, FigureFormat format);
 
 // Offscreen rendering of one view of a scenario ("level-bars" or "flow-map").
 struct ScenarioFigureRequest {
@@ -55,6 +75,7 @@ struct ScenarioFigureRequest {
     QString quantity = QStringLiteral("throughput");  // level bars: throughput|biomass|production
     QString chains = QStringLiteral("combined");      // level bars: combined|producers|detritus
     bool logScale = false;                            // level bars
+    QString scenario, project;                        // carried in the figure's title
 };
 std::optional<QString> exportScenarioFigure(const tl::Model& model, const tl::BalanceSheet& sheet,
                                             const ScenarioFigureRequest& request);

@@ -22,6 +22,7 @@ struct CliFigureRequest {
     std::string quantity = "throughput";  // level bars: throughput | biomass | production
     std::string chains = "combined";      // level bars: combined | producers | detritus
     bool logScale = false;                // level bars
+    std::string scenario, project;        // named in the figure's title (empty: left out)
 };
 
 // Empty on success; otherwise one sentence saying what is wrong (unknown view or

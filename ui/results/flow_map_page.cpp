@@ -12,6 +12,7 @@
 namespace tl::ui {
 namespace {
 constexpr int kSliderSteps = 1000;
+constexpr int kTitleBand = 34;  // exported figures: the title above the map, in logical pixels
 }
 
 FlowMapView::FlowMapView(QGraphicsScene* scene, QWidget* parent) : QGraphicsView(scene, parent)
@@ -36,6 +37,7 @@ void FlowMapView::wheelEvent(QWheelEvent* event)
     const double steps = event->angleDelta().y() / 120.0;
     if (steps == 0) return QGraphicsView::wheelEvent(event);
     zoomBy(std::pow(1.15, steps));
+    emit zoomedByUser();
     event->accept();
 }
 
@@ -45,7 +47,7 @@ FlowMapPage::FlowMapPage(QWidget* parent)
 {
     slider_->setRange(0, kSliderSteps);
     slider_->setToolTip(tr("Hide flows below a threshold (logarithmic)"));
-    thresholdLabel_->setMinimumWidth(260);
+    thresholdLabel_->setMinimumWidth(150);
     auto* fit = new QPushButton(tr("Fit"), this);
     fit->setToolTip(tr("Zoom to show the whole map"));
     auto* reset = new QPushButton(tr("Reset layout"), this);
@@ -70,7 +72,11 @@ FlowMapPage::FlowMapPage(QWidget* parent)
         menu.exec(view_->viewport()->mapToGlobal(at));
     });
     connect(slider_, &QSlider::valueChanged, this, &FlowMapPage::applySlider);
-    connect(fit, &QPushButton::clicked, this, &FlowMapPage::fitToView);
+    connect(fit, &QPushButton::clicked, this, [this] {
+        autoFit_ = true;
+        fitToView();
+    });
+    connect(view_, &FlowMapView::zoomedByUser, this, [this] { autoFit_ = false; });
     connect(reset, &QPushButton::clicked, this, [this] {
         scene_->resetLayout();
         applySlider(slider_->value());
@@ -85,19 +91,21 @@ void FlowMapPage::setScenario(const tl::Model& model, const tl::BalanceSheet& sh
 {
     scene_->setScenario(model, sheet);
     applySlider(slider_->value());
-    if (!fitted_ && isVisible()) {
-        fitToView();
-        fitted_ = true;
-    }
+    if (autoFit_ && isVisible()) fitToView();
 }
 
+// Until the user zooms with the wheel, the whole map stays in view: when first shown,
+// after every change of scenario and when the window is resized.
 void FlowMapPage::showEvent(QShowEvent* event)
 {
     ResultsPage::showEvent(event);
-    if (!fitted_) {  // the first time the map is seen, show all of it
-        fitToView();
-        fitted_ = true;
-    }
+    if (autoFit_) fitToView();
+}
+
+void FlowMapPage::resizeEvent(QResizeEvent* event)
+{
+    ResultsPage::resizeEvent(event);
+    if (autoFit_ && isVisible()) fitToView();
 }
 
 void FlowMapPage::applySlider(int value)
@@ -112,6 +120,13 @@ void FlowMapPage::applySlider(int value)
                                            : tr("all %1 flows shown").arg(scene_->visibleRibbonCount()));
 }
 
+void FlowMapPage::replaceMovedPositions(const QHash<QString, QPointF>& moved)
+{
+    scene_->replaceMovedPositions(moved);
+    applySlider(slider_->value());
+    if (autoFit_ && isVisible()) fitToView();
+}
+
 void FlowMapPage::fitToView()
 {
     view_->fitInView(scene_->figureRect(), Qt::KeepAspectRatio);
@@ -120,7 +135,7 @@ void FlowMapPage::fitToView()
 QSize FlowMapPage::figureSize() const
 {
     const QRectF r = scene_->figureRect();
-    return QSize(static_cast<int>(std::ceil(r.width())), static_cast<int>(std::ceil(r.height())));
+    return QSize(static_cast<int>(std::ceil(r.width())), static_cast<int>(std::ceil(r.height())) + kTitleBand);
 }
 
 void FlowMapPage::renderFigure(QPaintDevice& device, QSize size, double scale)
@@ -131,7 +146,17 @@ void FlowMapPage::renderFigure(QPaintDevice& device, QSize size, double scale)
     painter.setRenderHints(QPainter::Antialiasing | QPainter::TextAntialiasing);
     painter.scale(scale, scale);
     painter.fillRect(QRectF(QPointF(0, 0), QSizeF(size)), Qt::white);
-    scene_->render(&painter, QRectF(QPointF(0, 0), QSizeF(size)), scene_->figureRect(), Qt::KeepAspectRatio);
+    // Title band on top (what, which scenario, which project), the map below it.
+    QFont heading = font();
+    heading.setPointSizeF(11);
+    heading.setBold(true);
+    painter.setFont(heading);
+    painter.setPen(Qt::black);
+    const QRectF band(12, 4, size.width() - 24, kTitleBand - 8);
+    painter.drawText(band, Qt::AlignLeft | Qt::AlignVCenter | Qt::TextSingleLine,
+                     QFontMetricsF(heading).elidedText(figureTitle(), Qt::ElideRight, band.width()));
+    const QRectF map(0, kTitleBand, size.width(), std::max(1, size.height() - kTitleBand));
+    scene_->render(&painter, map, scene_->figureRect(), Qt::KeepAspectRatio);
     painter.end();
     scene_->highlight(highlighted);
 }

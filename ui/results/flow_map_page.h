@@ -20,6 +20,9 @@ public:
     explicit FlowMapView(QGraphicsScene* scene, QWidget* parent = nullptr);
     void zoomBy(double factor);
 
+signals:
+    void zoomedByUser();  // the wheel zoomed: the page stops fitting the map by itself
+
 protected:
     void wheelEvent(QWheelEvent* event) override;
 };
@@ -40,18 +43,21 @@ public:
     // Box positions, for the workbench to store with the project (see FlowMapScene).
     QHash<QString, QPointF> positions() const { return scene_->positions(); }
     void setPositions(const QHash<QString, QPointF>& p) { scene_->setPositions(p); }
+    QHash<QString, QPointF> movedPositions() const { return scene_->movedPositions(); }
+    void replaceMovedPositions(const QHash<QString, QPointF>& moved);
 
     void fitToView();
 
     QSize figureSize() const override;
     void renderFigure(QPaintDevice& device, QSize size, double scale) override;
-    QString figureTitle() const override { return tr("Flow map"); }
+    QString figureTitle() const override { return titled(tr("Flow map")); }
 
 signals:
     void positionsChanged();
 
 protected:
     void showEvent(QShowEvent* event) override;
+    void resizeEvent(QResizeEvent* event) override;
 
 private:
     void applySlider(int value);
@@ -60,7 +66,7 @@ private:
     FlowMapView* view_;
     QSlider* slider_;
     QLabel* thresholdLabel_;
-    bool fitted_ = false;
+    bool autoFit_ = true;  // fit the whole map after every change until the user zooms
 };
 
 }  // namespace tl::ui

@@ -514,6 +514,13 @@ void FlowMapScene::setPositions(const QHash<QString, QPointF>& positions)
     updateRibbons();
 }
 
+void FlowMapScene::replaceMovedPositions(const QHash<QString, QPointF>& moved)
+{
+    if (moved == overrides_) return;
+    overrides_ = moved;
+    rebuild();
+}
+
 void FlowMapScene::resetLayout()
 {
     overrides_.clear();

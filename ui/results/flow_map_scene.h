@@ -59,6 +59,11 @@ public:
     QHash<QString, QPointF> positions() const;
     void setPositions(const QHash<QString, QPointF>& positions);
     void resetLayout();
+    // The boxes placed by hand (a subset of positions()): what a project stores.
+    QHash<QString, QPointF> movedPositions() const { return overrides_; }
+    // Exactly `moved` placed by hand, every other box where the automatic layout puts it
+    // (undo of a drag, a scenario's stored layout). Emits nothing.
+    void replaceMovedPositions(const QHash<QString, QPointF>& moved);
 
     // Hover: the node, its prey and its predators stay bright, the rest fades.
     void highlight(std::optional<std::size_t> node);

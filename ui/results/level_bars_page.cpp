@@ -15,6 +15,7 @@
 #include "core/balance/balance_sheet.h"
 #include "core/model/model.h"
 #include "ui/style/palette.h"
+#include "ui/style/wrapping_row.h"
 
 namespace tl::ui {
 namespace {
@@ -30,6 +31,28 @@ QColor tint(const QColor& c)
 {
     return QColor::fromRgbF(c.redF() + (1 - c.redF()) * 0.4f, c.greenF() + (1 - c.greenF()) * 0.4f,
                             c.blueF() + (1 - c.blueF()) * 0.4f);
+}
+
+// `text` broken at spaces into lines no wider than `width` pixels (its own line breaks
+// kept): the chart's titles follow the window instead of setting its minimum width.
+QString wrapped(const QString& text, const QFont& font, int width)
+{
+    const QFontMetricsF fm(font);
+    QStringList lines;
+    for (const QString& paragraph : text.split(QLatin1Char('\n'))) {
+        QString line;
+        for (const QString& word : paragraph.split(QLatin1Char(' '))) {
+            const QString candidate = line.isEmpty() ? word : line + QLatin1Char(' ') + word;
+            if (!line.isEmpty() && fm.horizontalAdvance(candidate) > width) {
+                lines << line;
+                line = word;
+            } else {
+                line = candidate;
+            }
+        }
+        lines << line;
+    }
+    return lines.join(QLatin1Char('\n'));
 }
 
 bool darkText(const QColor& c) { return 0.299 * c.redF() + 0.587 * c.greenF() + 0.114 * c.blueF() > 0.55; }
@@ -73,20 +96,23 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     cyclesCombo_->setToolTip(tr("The aggregation into integer levels removes feeding cycles first (cycle analysis, "
                                 "Ulanowicz 1983, 1995). Keeping them follows every chain round its loops."));
 
-    auto* controls = new QHBoxLayout;
-    controls->addWidget(new QLabel(tr("Show"), this));
-    controls->addWidget(quantityCombo_);
-    controls->addWidget(new QLabel(tr("of"), this));
-    controls->addWidget(chainsCombo_);
-    controls->addWidget(new QLabel(tr("Bar length"), this));
-    controls->addWidget(scaleCombo_);
-    controls->addWidget(new QLabel(tr("Feeding"), this));
-    controls->addWidget(cyclesCombo_);
+    auto* controls = new WrappingRow;  // continues on a second line in a narrow window
+    auto labelled = [this, controls](const QString& text, QComboBox* combo) {  // a label stays with its box
+        auto* pair = new QWidget(this);
+        auto* row = new QHBoxLayout(pair);
+        row->setContentsMargins(0, 0, 0, 0);
+        row->addWidget(new QLabel(text, pair));
+        row->addWidget(combo);
+        controls->addWidget(pair);
+    };
+    labelled(tr("Show"), quantityCombo_);
+    labelled(tr("of"), chainsCombo_);
+    labelled(tr("Bar length"), scaleCombo_);
+    labelled(tr("Feeding"), cyclesCombo_);
     for (QComboBox* combo : {quantityCombo_, chainsCombo_, scaleCombo_, cyclesCombo_}) {  // may shrink on small screens
         combo->setSizeAdjustPolicy(QComboBox::AdjustToMinimumContentsLengthWithIcon);
         combo->setMinimumContentsLength(combo == cyclesCombo_ ? 14 : 8);
     }
-    controls->addStretch(1);
     auto* layout = new QVBoxLayout(this);
     layout->addLayout(controls);
     layout->addWidget(plot_, 1);
@@ -99,9 +125,11 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     auto* subheading = new QCPTextElement(plot_, QString(), QFont(font().family(), 9));
     subheading->setMargins(QMargins(4, 0, 4, 10));
     plot_->plotLayout()->addElement(1, 0, subheading);
+    for (QCPTextElement* text : {heading, subheading}) text->setMinimumSize(QSize(160, 0));  // wrapped in rebuild()
     auto* notice = new QCPTextElement(plot_, decisionSupportNotice(), QFont(font().family(), 8));
     notice->setTextColor(QColor(0x55, 0x55, 0x55));
     notice->setMargins(QMargins(4, 6, 4, 4));
+    notice->setMinimumSize(QSize(160, 0));  // wrapped in rebuild()
     plot_->plotLayout()->addElement(3, 0, notice);
     plot_->xAxis->setTicks(false);
     plot_->xAxis->setTickLabels(false);
@@ -109,9 +137,14 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
     plot_->yAxis->grid()->setVisible(false);
     plot_->yAxis->setLabel(tr("Trophic level"));
     plot_->yAxis->setSubTicks(false);
-    plot_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignRight);
-    plot_->legend->setBorderPen(QPen(QColor(0x99, 0x99, 0x99)));
-    plot_->legend->setMargins(QMargins(8, 5, 18, 5));
+    // Legend in a row of its own under the bars (never over the values at their right).
+    plot_->axisRect()->insetLayout()->take(plot_->legend);
+    plot_->plotLayout()->insertRow(3);
+    plot_->plotLayout()->addElement(3, 0, plot_->legend);
+    plot_->plotLayout()->setRowStretchFactor(3, 0.001);
+    plot_->legend->setFillOrder(QCPLegend::foColumnsFirst);
+    plot_->legend->setBorderPen(Qt::NoPen);
+    plot_->legend->setMargins(QMargins(4, 2, 4, 2));
     plot_->axisRect()->setMinimumMargins(QMargins(10, 10, 24, 10));
     plot_->setContextMenuPolicy(Qt::CustomContextMenu);
 
@@ -216,18 +249,22 @@ QString LevelBarsPage::unitLabel() const { return quantity_ == LevelQuantity::Bi
 QString LevelBarsPage::figureTitle() const
 {
     static const char* chains[] = {"all food chains", "chains from producers", "chains from detritus"};
-    return tr("%1 by trophic level, %2").arg(quantityLabel(), tr(chains[static_cast<int>(chains_)]));
+    return titled(tr("%1 by trophic level, %2").arg(quantityLabel(), tr(chains[static_cast<int>(chains_)])));
 }
 
 void LevelBarsPage::rebuild()
 {
     dirty_ = false;
     drawn_.clear();
+    labels_.clear();
     plot_->clearItems();
     plot_->clearPlottables();
     auto* heading = qobject_cast<QCPTextElement*>(plot_->plotLayout()->element(0, 0));
     auto* subheading = qobject_cast<QCPTextElement*>(plot_->plotLayout()->element(1, 0));
-    heading->setText(figureTitle());
+    const int textWidth = std::max(160, plot_->width() - 24);
+    heading->setText(wrapped(figureTitle(), heading->font(), textWidth));
+    if (auto* notice = qobject_cast<QCPTextElement*>(plot_->plotLayout()->element(4, 0)))
+        notice->setText(wrapped(decisionSupportNotice(), notice->font(), textWidth));
 
     if (data_.stacks.empty()) {
         subheading->setText(QString());
@@ -251,7 +288,7 @@ void LevelBarsPage::rebuild()
     sub += QLatin1Char('\n') + tr("Level I has no transfer efficiency: consumers eat %1 of primary production and %2 of "
                                    "detritus inflow")
                                     .arg(percent(data_.primaryProductionConsumed), percent(data_.detritusInflowConsumed));
-    subheading->setText(sub);
+    subheading->setText(wrapped(sub, subheading->font(), textWidth));
 
     // Bar lengths: the total (linear) or log10(total / floor), floor a decade below the smallest.
     double minPositive = 0, maxTotal = 0;
@@ -343,25 +380,83 @@ void LevelBarsPage::rebuild()
     barText->setText(log_ ? tr("one decade (×10)") : number(scale) + " " + unitLabel());
     barText->setFont(QFont(font().family(), 8));
 
-    // Names inside segments wide enough to hold them.
     plot_->replot(QCustomPlot::rpImmediateRefresh);  // lays out the axis rect for coordToPixel
+    addSegmentLabels();
+    plot_->replot();
+}
+
+std::vector<QRectF> LevelBarsPage::segmentPixelRects() const
+{
+    std::vector<QRectF> out;
+    for (const auto& d : drawn_)
+        out.push_back(QRectF(QPointF(plot_->xAxis->coordToPixel(d.left), plot_->yAxis->coordToPixel(d.top)),
+                             QPointF(plot_->xAxis->coordToPixel(d.right), plot_->yAxis->coordToPixel(d.bottom)))
+                          .normalized());
+    return out;
+}
+
+// Names inside segments wide enough to hold them; a narrower segment gets its name just
+// above its bar (under it for the lowest bar) when that room is inside the chart and
+// clear of bars, other names and the value and TE texts.
+void LevelBarsPage::addSegmentLabels()
+{
+    labels_.clear();
     const QFont labelFont(font().family(), 8);
     const QFontMetricsF fm(labelFont);
-    for (const auto& d : drawn_) {
+    const std::vector<QRectF> bars = segmentPixelRects();
+    std::vector<QRectF> taken;  // texts already on the chart
+    for (int i = 0; i < plot_->itemCount(); ++i)
+        if (auto* text = qobject_cast<QCPItemText*>(plot_->item(i))) {
+            const QPointF at = text->position->pixelPosition();
+            QRectF r = QFontMetricsF(text->font()).boundingRect(QRectF(), Qt::TextDontClip, text->text());
+            const Qt::Alignment a = text->positionAlignment();
+            const double x = a & Qt::AlignLeft ? at.x() : a & Qt::AlignRight ? at.x() - r.width() : at.x() - r.width() / 2;
+            const double y = a & Qt::AlignTop ? at.y() : a & Qt::AlignBottom ? at.y() - r.height() : at.y() - r.height() / 2;
+            taken.push_back(QRectF(x, y, r.width(), r.height()));
+        }
+    const QRectF chart = plot_->axisRect()->rect();
+    auto clear = [&](const QRectF& r) {
+        if (!chart.contains(r)) return false;
+        for (const QRectF& b : bars)
+            if (b.intersects(r)) return false;
+        for (const QRectF& t : taken)
+            if (t.intersects(r)) return false;
+        return true;
+    };
+    for (std::size_t k = 0; k < drawn_.size(); ++k) {
+        const auto& d = drawn_[k];
         if (!network_ || d.node >= network_->names.size()) continue;
-        const double px = std::abs(plot_->xAxis->coordToPixel(d.right) - plot_->xAxis->coordToPixel(d.left));
-        const double py = std::abs(plot_->yAxis->coordToPixel(d.top) - plot_->yAxis->coordToPixel(d.bottom));
+        const QRectF bar = bars[k];
         const QString name = QString::fromStdString(network_->names[d.node]);
-        if (fm.horizontalAdvance(name) + 6 > px || fm.height() + 2 > py) continue;
+        const double width = fm.horizontalAdvance(name), height = fm.height();
         const CompartmentKind kind = d.node < kinds_.size() ? kinds_[d.node] : CompartmentKind::Consumer;
         auto* label = new QCPItemText(plot_);
-        label->position->setCoords((d.left + d.right) / 2, d.level);
         label->setText(name);
         label->setFont(labelFont);
-        const QColor fill = d.tinted ? tint(kindColour(kind)) : kindColour(kind);
-        label->setColor(darkText(fill) ? Qt::black : Qt::white);
+        label->position->setType(QCPItemPosition::ptAbsolute);
+        if (width + 6 <= bar.width() && height + 2 <= bar.height()) {
+            const QColor fill = d.tinted ? tint(kindColour(kind)) : kindColour(kind);
+            label->setColor(darkText(fill) ? Qt::black : Qt::white);
+            label->position->setCoords(bar.center());
+            labels_.push_back({name, false, QRectF(bar.center() - QPointF(width / 2, height / 2), QSizeF(width, height)), k});
+            taken.push_back(labels_.back().pixels);
+            continue;
+        }
+        const QRectF above(bar.center().x() - width / 2, bar.top() - 2 - height, width, height);
+        const QRectF below(bar.center().x() - width / 2, bar.bottom() + 2, width, height);
+        // Below only under the lowest bar: a name in the gap between two bars belongs to the
+        // bar beneath it, never to the one above.
+        const bool lowest = d.level == data_.stacks.front().level;
+        const QRectF* place = clear(above) ? &above : lowest && clear(below) ? &below : nullptr;
+        if (!place) {
+            plot_->removeItem(label);
+            continue;
+        }
+        label->setColor(QColor(0x33, 0x33, 0x33));
+        label->position->setCoords(place->center());
+        labels_.push_back({name, true, *place, k});
+        taken.push_back(*place);
     }
-    plot_->replot();
 }
 
 QString LevelBarsPage::segmentToolTip(double x, double level) const

@@ -46,6 +46,18 @@ public:
     // Text shown when hovering over the segment at plot coordinates (x, level).
     QString segmentToolTip(double x, double level) const;
 
+    // The names written on the chart: inside a segment wide enough, else just above or
+    // below the bar when the room there is free (pixel rectangles of the last drawing).
+    struct SegmentLabel {
+        QString name;
+        bool outside = false;
+        QRectF pixels;
+        std::size_t segment = 0;  // index into segmentPixelRects()
+    };
+    const std::vector<SegmentLabel>& segmentLabels() const { return labels_; }
+    // Pixel rectangles of the bars' segments in the last drawing.
+    std::vector<QRectF> segmentPixelRects() const;
+
     QSize figureSize() const override { return {900, 620}; }
     void renderFigure(QPaintDevice& device, QSize size, double scale) override;
     QString figureTitle() const override;
@@ -53,6 +65,7 @@ public:
 protected:
     void showEvent(QShowEvent* event) override;
     void resizeEvent(QResizeEvent* event) override;
+    void figureContextChanged() override { scheduleRebuild(); }
 
 private:
     struct DrawnSegment {
@@ -64,6 +77,7 @@ private:
     };
     void scheduleRebuild();
     void rebuild();
+    void addSegmentLabels();
     void onMouseMove(QMouseEvent* event);
     QString quantityLabel() const;
     QString unitLabel() const;
@@ -81,6 +95,7 @@ private:
     QString unavailable_;
     LevelBarsData data_;
     std::vector<DrawnSegment> drawn_;
+    std::vector<SegmentLabel> labels_;
     LevelQuantity quantity_ = LevelQuantity::Throughput;
     LevelChains chains_ = LevelChains::Combined;
     bool log_ = false;

@@ -107,6 +107,8 @@ void ChecksPanel::setProblems(const tl::Problems& problems)
     else
         summary_->setText(tr("%1 error(s), %2 warning(s), %3 note(s). Click a line to go to its cell.")
                               .arg(counts[0]).arg(counts[1]).arg(counts[2]));
+    tree_->setVisible(!problems_.empty());
+    emit emptinessChanged(problems_.empty());
 }
 
 void ChecksPanel::activate(int i)

@@ -29,6 +29,9 @@ public:
 
 signals:
     void problemActivated(const tl::Problem& problem);
+    // After every setProblems: whether there is anything to list (the window gives an
+    // empty panel only the height of its one-line summary).
+    void emptinessChanged(bool empty);
 
 private:
     QTreeWidget* tree_;

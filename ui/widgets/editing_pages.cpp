@@ -14,6 +14,7 @@
 
 #include "ui/document/project_document.h"
 #include "ui/tables/cell_delegates.h"
+#include "ui/style/wrapping_row.h"
 
 namespace tl::ui {
 
@@ -28,7 +29,7 @@ EditingPage::EditingPage(ProjectDocument* doc, const QString& title, const QStri
     heading->setWordWrap(true);
     heading->setObjectName(QStringLiteral("pageHeading"));
     layout->addWidget(heading);
-    actions_ = new QHBoxLayout;
+    actions_ = new WrappingRow;
     layout->addLayout(actions_);
     view_ = new LedgerTableView(this);
     layout->addWidget(view_, 1);
@@ -38,7 +39,6 @@ void EditingPage::setTableModel(ScenarioTableModel* model)
 {
     view_->setModel(model);
     view_->setItemDelegate(new NumberDelegate(view_));
-    actions_->addStretch(1);
     connect(model, &QAbstractItemModel::modelReset, this, &EditingPage::fitColumns);
     fitColumns();
 }
@@ -51,7 +51,7 @@ void EditingPage::fitColumns()
 }
 
 namespace {
-QPushButton* addButton(QHBoxLayout* row, QWidget* parent, const QString& text, const QString& tip)
+QPushButton* addButton(QLayout* row, QWidget* parent, const QString& text, const QString& tip)
 {
     auto* b = new QPushButton(text, parent);
     b->setToolTip(tip);

@@ -12,12 +12,12 @@
 #include "ui/tables/ledger_table_view.h"
 
 class QCheckBox;
-class QHBoxLayout;
 class QLabel;
 
 namespace tl::ui {
 
 class ProjectDocument;
+class WrappingRow;
 
 class EditingPage : public QWidget {
     Q_OBJECT
@@ -36,13 +36,14 @@ protected:
     // Columns as wide as their content, within bounds (after every reset of the table).
     void fitColumns();
     void setColumnBounds(int minWidth, int maxWidth) { minWidth_ = minWidth, maxWidth_ = maxWidth; }
-    QHBoxLayout* actions() const { return actions_; }
+    // The page's buttons; they wrap onto a second line on a narrow window.
+    WrappingRow* actions() const { return actions_; }
     ProjectDocument* doc_;
 
 private:
     QString title_, key_;
     int minWidth_ = 72, maxWidth_ = 240;
-    QHBoxLayout* actions_;
+    WrappingRow* actions_;
     LedgerTableView* view_;
 };
 

@@ -1,5 +1,6 @@
 #include "ui/widgets/scenario_shelf.h"
 
+#include <QDateTime>
 #include <QHBoxLayout>
 #include <QInputDialog>
 #include <QLabel>
@@ -9,6 +10,7 @@
 #include <QVBoxLayout>
 
 #include "ui/document/project_document.h"
+#include "ui/style/wrapping_row.h"
 
 namespace tl::ui {
 namespace {
@@ -24,7 +26,7 @@ ScenarioShelf::ScenarioShelf(ProjectDocument* doc, QWidget* parent) : QWidget(pa
     list_->setWordWrap(true);
     list_->setSpacing(1);
     layout->addWidget(list_, 1);
-    auto* buttons = new QHBoxLayout;
+    auto* buttons = new WrappingRow(nullptr, 4);  // a narrow dock puts them on two lines
     auto button = [&](const QString& text, const QString& tip, void (ScenarioShelf::*slot)()) {
         auto* b = new QToolButton(this);
         b->setText(text);
@@ -34,11 +36,12 @@ ScenarioShelf::ScenarioShelf(ProjectDocument* doc, QWidget* parent) : QWidget(pa
         buttons->addWidget(b);
     };
     button(tr("New"), tr("New empty scenario"), &ScenarioShelf::askNew);
-    button(tr("Duplicate"), tr("Copy the selected scenario into a new one derived from it"), &ScenarioShelf::askDuplicate);
+    button(tr("Duplicate"), tr("Copy the selected scenario into a new one; later edits of either do not reach the other"),
+           &ScenarioShelf::askDuplicate);
     button(tr("Rename"), tr("Rename the selected scenario"), &ScenarioShelf::askRename);
     button(tr("Delete"), tr("Delete the selected scenario (asks first)"), &ScenarioShelf::askDelete);
-    buttons->addStretch(1);
     layout->addLayout(buttons);
+    setMinimumWidth(120);  // scenario names stay readable when the window is narrow
 
     connect(list_, &QListWidget::currentRowChanged, this, [this](int row) {
         if (!updating_ && row >= 0) doc_->setCurrentIndex(row);
@@ -48,17 +51,28 @@ ScenarioShelf::ScenarioShelf(ProjectDocument* doc, QWidget* parent) : QWidget(pa
     refresh();
 }
 
+QString copyLabel(const tl::Scenario& s)
+{
+    if (s.parent.empty()) return {};
+    // `created` is ISO 8601 UTC; the calendar day is what a reader needs.
+    const QDateTime when = QDateTime::fromString(qs(s.created), Qt::ISODate);
+    if (!when.isValid()) return QObject::tr("copied from %1").arg(qs(s.parent));
+    return QObject::tr("copied from %1 on %2").arg(qs(s.parent), when.toUTC().date().toString(Qt::ISODate));
+}
+
 void ScenarioShelf::refresh()
 {
     updating_ = true;
     list_->clear();
     for (const auto& s : doc_->project().scenarios) {
         QString text = qs(s.name);
-        if (!s.parent.empty()) text += QLatin1Char('\n') + tr("   derived from %1").arg(qs(s.parent));
+        if (!s.parent.empty()) text += QStringLiteral("\n   ") + copyLabel(s);
         auto* item = new QListWidgetItem(text, list_);
         QString tip = tr("%n compartment(s)", nullptr, int(s.model.size()));
         if (!s.description.empty()) tip += QLatin1Char('\n') + qs(s.description);
         if (!s.created.empty()) tip += QLatin1Char('\n') + tr("created %1").arg(qs(s.created));
+        if (!s.parent.empty())
+            tip += QLatin1Char('\n') + tr("A copy: edits of %1 made after copying do not reach it, and its edits do not reach %1.").arg(qs(s.parent));
         item->setToolTip(tip);
     }
     list_->setCurrentRow(doc_->currentIndex());

@@ -1,5 +1,5 @@
 // ScenarioShelf: the project's scenarios, in the order the user keeps them, each with
-// the scenario it was derived from. New, duplicate, rename and delete (with a
+// the scenario it was copied from and when. New, duplicate, rename and delete (with a
 // confirmation) are undoable edits of the project; picking one shows it in the editors.
 #pragma once
 
@@ -8,9 +8,18 @@
 class QListWidget;
 class QToolButton;
 
+namespace tl {
+struct Scenario;
+}
+
 namespace tl::ui {
 
 class ProjectDocument;
+
+// "copied from baseline on 2026-12-02" for a duplicated scenario (empty for one that
+// was not copied). A copy does not follow the scenario it came from: it is frozen at
+// the moment of copying, and the label says so rather than suggesting derivation.
+QString copyLabel(const tl::Scenario& s);
 
 class ScenarioShelf : public QWidget {
     Q_OBJECT

@@ -234,6 +234,9 @@ TEST(ImportExport, HtmlReportEscapesNamesAndStatesItsLimits)
     EXPECT_NE(text.find("does not replace, stock assessment"), std::string::npos);
     EXPECT_NE(text.find("Scenario: more nets"), std::string::npos);
     EXPECT_NE(text.find("Balance status: <strong>"), std::string::npos);
+    // A duplicate is a frozen copy (issue 13, item 6): never "derived", which suggests it follows.
+    EXPECT_NE(text.find("Copied from scenario baseline"), std::string::npos);
+    EXPECT_EQ(text.find("Derived from"), std::string::npos);
 }
 
 TEST(ImportExport, ScorFileImportsAndExportsBack)

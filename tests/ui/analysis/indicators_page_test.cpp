@@ -75,7 +75,12 @@ void IndicatorsTest::everyIndicatorHasUnitDefinitionAndTheCoreValue()
         QVERIFY2(expected.count(r.key), qPrintable(r.key));
         QVERIFY2(same(r.value, expected.at(r.key)), qPrintable(r.key));
         QVERIFY2(!r.unit.isEmpty() && !r.definition.isEmpty() && !r.name.isEmpty(), qPrintable(r.key));
-        QVERIFY2(r.definition.contains(QRegularExpression("\\(.*(19|20)\\d\\d|DESIGN|common practice")), qPrintable(r.key));
+        // Written for users: a published source or "common practice" / "this program's
+        // definition", never a developer's file, section or symbol (issue 13, item 15).
+        QVERIFY2(r.definition.contains(QRegularExpression("\\(.*(19|20)\\d\\d|common practice|this program's")),
+                 qPrintable(r.key));
+        QVERIFY2(!r.definition.contains(QRegularExpression("DESIGN|\\.md\\b|::|\\b3\\.\\d\\b")),
+                 qPrintable(r.key + ": " + r.definition));
         seen.insert(r.key);
     }
     QCOMPARE(seen.size(), static_cast<qsizetype>(expected.size()));

@@ -71,6 +71,9 @@ private slots:
     void pngHasTheRequestedSizeAndIsNotBlank();
     void pdfIsWritten();
     void cliRendererWritesTheRequestedView();
+    void figuresNameTheirScenarioAndProject_data();
+    void figuresNameTheirScenarioAndProject();
+    void tledgerFiguresNameScenarioAndProject();
     void badRequestsSayWhatIsWrong();
     void snapshots();
 
@@ -196,6 +199,68 @@ void FigureExportTest::cliRendererWritesTheRequestedView()
     request.path = dir_.filePath("cli_levels.png");
     QVERIFY(!exportScenarioFigure(lake_, sheet_, request));
     QVERIFY(!QImage(request.path).isNull());
+}
+
+// Issue 13, item 10: an exported figure says which scenario of which project it shows,
+// in SVG (text), PDF (title) and PNG alike; the suggested file name follows the title.
+void FigureExportTest::figuresNameTheirScenarioAndProject_data()
+{
+    QTest::addColumn<QString>("view");
+    QTest::newRow("flow map") << "flow-map";
+    QTest::newRow("level bars") << "level-bars";
+}
+
+void FigureExportTest::figuresNameTheirScenarioAndProject()
+{
+    QFETCH(QString, view);
+    const QString scenario = QStringLiteral("Dry year 2031"), project = QStringLiteral("north_basin.tledger");
+    std::unique_ptr<QWidget> owner;
+    FigureSource* source = nullptr;
+    if (view == "flow-map") {
+        auto* page = new FlowMapPage;
+        page->setScenario(lake_, sheet_);
+        source = page;
+        owner.reset(page);
+    } else {
+        auto* page = new LevelBarsPage;
+        page->setScenario(lake_, sheet_);
+        source = page;
+        owner.reset(page);
+    }
+    const QString bare = source->figureTitle();
+    QVERIFY(!bare.contains(scenario));
+    source->setFigureContext(scenario, project);
+    QVERIFY2(source->figureTitle().startsWith(bare) && source->figureTitle().contains(scenario) &&
+                 source->figureTitle().contains(project),
+             qPrintable(source->figureTitle()));
+    const QString svgPath = dir_.filePath(view + "_context.svg");
+    const auto error = exportFigure(*source, FigureFormat::Svg, svgPath);
+    QVERIFY2(!error, qPrintable(error.value_or("")));
+    QString parseError;
+    const QString text = svgText(svgPath, &parseError);
+    QVERIFY2(parseError.isEmpty(), qPrintable(parseError));
+    QVERIFY2(text.contains(scenario) && text.contains(project), qPrintable(text.left(600)));
+    const QString pdfPath = dir_.filePath(view + "_context.pdf");
+    QVERIFY(!exportFigure(*source, FigureFormat::Pdf, pdfPath));
+    QFile pdf(pdfPath);
+    QVERIFY(pdf.open(QIODevice::ReadOnly));
+    QVERIFY(pdf.size() > 1000);
+    const QString name = suggestedFigureFileName(*source, FigureFormat::Svg);
+    QVERIFY2(name.endsWith(".svg") && name.contains("dry_year_2031") && !name.contains(' '), qPrintable(name));
+}
+
+void FigureExportTest::tledgerFiguresNameScenarioAndProject()
+{
+    const QString sample = QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger");
+    QVERIFY2(QFile::exists(sample), qPrintable(sample));
+    const QString out = dir_.filePath("cli_context.svg");
+    const auto run = tl::testing::runTledger("export " + tl::testing::shellQuoted(sample.toStdString()) +
+                                             " --scenario baseline --format svg --view level-bars --out " +
+                                             tl::testing::shellQuoted(out.toStdString()));
+    QVERIFY2(run.exitCode == 0, run.err.c_str());
+    QString parseError;
+    const QString text = svgText(out, &parseError);
+    QVERIFY2(text.contains("baseline") && text.contains("reservoir.tledger"), qPrintable(text.left(600)));
 }
 
 void FigureExportTest::badRequestsSayWhatIsWrong()

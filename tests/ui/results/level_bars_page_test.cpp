@@ -41,7 +41,53 @@ private slots:
     void logScaleKeepsSharesWithinEachBar();
     void unsolvedScenarioShowsWhyInsteadOfBars();
     void romanNumerals();
+    void narrowSegmentsAreNamedOutsideTheirBar();
 };
+
+// Issue 13, item 9: a segment too narrow for its name gets it just above its bar (under
+// the lowest bar only), clear of every bar and every other name; the legend sits in a
+// row of its own, off the bars and their values.
+void LevelBarsTest::narrowSegmentsAreNamedOutsideTheirBar()
+{
+    const tl::Model model = readModel("invented_lake");
+    LevelBarsPage page;
+    page.setScenario(model, tl::solveBalance(model));
+    page.resize(900, 620);
+    page.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&page));
+    QTRY_VERIFY(!page.segmentLabels().empty());
+    const std::vector<QRectF> bars = page.segmentPixelRects();
+    const auto& labels = page.segmentLabels();
+    int outside = 0, narrow = 0;
+    const QFontMetricsF fm(QFont(page.font().family(), 8));
+    for (const QRectF& b : bars) narrow += b.width() < 30;
+    double lowestTop = -1e9;
+    for (const QRectF& b : bars) lowestTop = std::max(lowestTop, b.top());
+    for (std::size_t i = 0; i < labels.size(); ++i) {
+        const auto& l = labels[i];
+        QVERIFY2(l.segment < bars.size(), qPrintable(QString("label %1 of segment %2, %3 segments").arg(l.name).arg(l.segment).arg(bars.size())));
+        const QRectF own = bars[l.segment];
+        for (std::size_t k = 0; k < bars.size(); ++k)
+            if (k != l.segment || l.outside) QVERIFY2(!bars[k].intersects(l.pixels), qPrintable(l.name));
+        for (std::size_t j = i + 1; j < labels.size(); ++j)
+            QVERIFY2(!labels[j].pixels.intersects(l.pixels), qPrintable(l.name + " / " + labels[j].name));
+        QVERIFY2(std::abs(l.pixels.center().x() - own.center().x()) < 1.0, qPrintable(l.name));
+        if (!l.outside) {
+            QVERIFY(own.contains(l.pixels));
+            continue;
+        }
+        ++outside;
+        const bool above = std::abs(l.pixels.bottom() - (own.top() - 2)) < 1.0;
+        const bool belowLowest = std::abs(l.pixels.top() - (own.bottom() + 2)) < 1.0 && own.top() == lowestTop;
+        QVERIFY2(above || belowLowest, qPrintable(l.name));
+        QVERIFY2(fm.horizontalAdvance(l.name) + 6 > own.width(), qPrintable(l.name));  // only when it does not fit inside
+    }
+    QVERIFY2(narrow > 0, "the fixture should have narrow segments");
+    QVERIFY2(outside > 0, qPrintable(QString("%1 narrow segments, none named outside").arg(narrow)));
+    QCustomPlot* plot = page.plot();
+    QVERIFY(plot->legend->visible());
+    QVERIFY(!plot->axisRect()->rect().intersects(plot->legend->outerRect()));
+}
 
 void LevelBarsTest::stacksEqualTheCoreDecomposition_data()
 {
