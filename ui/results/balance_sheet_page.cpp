@@ -106,7 +106,13 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     table_->setTextElideMode(Qt::ElideRight);
     table_->horizontalHeader()->setDefaultAlignment(Qt::AlignCenter);
     table_->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
-    table_->verticalHeader()->setVisible(false);
+    // Names head the rows (BalanceSheetModel's vertical header): they stay in view when
+    // the table scrolls sideways; the Name column itself is hidden.
+    table_->verticalHeader()->setVisible(true);
+    table_->verticalHeader()->setSectionResizeMode(QHeaderView::Fixed);
+    table_->verticalHeader()->setDefaultAlignment(Qt::AlignLeft | Qt::AlignVCenter);
+    table_->setColumnHidden(BalanceSheetModel::column(BalanceSheetModel::Column::Name), true);
+    table_->setCornerButtonEnabled(false);
     table_->setContextMenuPolicy(Qt::CustomContextMenu);
 
     statusLabel_->setWordWrap(true);
@@ -243,6 +249,7 @@ void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceShee
                                       : sheet.status == BalanceStatus::Unbalanced ? std::optional(Severity::Warning)
                                                                                     : worst)
                                .pixmap(20, 20));
+    table_->setColumnHidden(BalanceSheetModel::column(BalanceSheetModel::Column::Name), true);  // lost on reset
     table_->resizeColumnsToContents();
     const int statusColumn = BalanceSheetModel::column(BalanceSheetModel::Column::Status);
     table_->setColumnWidth(statusColumn, std::min(table_->columnWidth(statusColumn), 280));  // full text in the tooltip
