@@ -211,6 +211,36 @@ private slots:
         agree("back to the first scenario");
     }
 
+    // Item 1: in a narrow panel a long message wraps, and its row is tall enough to show
+    // every line (it was cut off under the next row), also after the panel is widened.
+    void checksRowsAreAsTallAsTheirWrappedText()
+    {
+        tl::ui::ChecksPanel panel;
+        panel.resize(520, 300);
+        panel.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&panel));
+        tl::Problem p;
+        p.code = tl::code::kEEAboveMax;
+        p.severity = tl::Severity::Error;
+        p.compartment = "Roach juveniles";
+        p.parameter = "ee";
+        p.message = "EE of 'Roach juveniles' is 1.083, above 1: predation, catch, net emigration and accumulation take "
+                    "more than it produces (share of its production: Perch adults 60 %, Zander adults 22 %).";
+        p.hint = "Raise its B or P/B, or lower its predators' consumption of it or its catch.";
+        panel.setProblems({p, p});
+        auto* view = panel.findChild<QTreeView*>();
+        for (int width : {520, 900}) {
+            panel.resize(width, 300);
+            QApplication::processEvents();
+            QApplication::processEvents();
+            const QModelIndex cell = view->model()->index(0, 2);
+            const QRect need = view->fontMetrics().boundingRect(QRect(0, 0, view->header()->sectionSize(2) - 10, 1 << 20),
+                                                               Qt::TextWordWrap, cell.data().toString());
+            QVERIFY2(view->visualRect(cell).height() >= need.height(),
+                     qPrintable(QStringLiteral("%1 px wide: row %2 px, text %3 px").arg(width).arg(view->visualRect(cell).height()).arg(need.height())));
+        }
+    }
+
     // Item 2: "Balanced" only for a valid, solved scenario without errors.
     void statusNamesWhatTheScenarioIs()
     {
@@ -232,6 +262,13 @@ private slots:
         QVERIFY(tl::hasErrors(w.lastOutcome().checks));
         QVERIFY2(statusText(w).startsWith(QStringLiteral("Incomplete")), qPrintable(statusText(w)));
         QVERIFY(!statusText(w).contains(QStringLiteral("Balanced")));
+        // The Balance sheet page says the same word.
+        w.showPage(QStringLiteral("balance-sheet"));
+        bool pageSays = false;
+        for (auto* l : w.findChild<tl::ui::BalanceSheetPage*>()->findChildren<QLabel*>())
+            pageSays = pageSays || l->text().startsWith(QStringLiteral("<b>Incomplete.</b>"));
+        QVERIFY(pageSays);
+        w.showPage(QStringLiteral("compartments"));
         w.document()->undoStack()->undo();
         w.document()->undoStack()->undo();
         w.runner()->waitForIdle();

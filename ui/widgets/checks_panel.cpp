@@ -6,6 +6,7 @@
 #include <QLabel>
 #include <QMenu>
 #include <QPushButton>
+#include <QStyledItemDelegate>
 #include <QTimer>
 #include <QTreeWidget>
 #include <QVBoxLayout>
@@ -16,6 +17,29 @@
 #include "ui/style/palette.h"
 
 namespace tl::ui {
+namespace {
+
+// Rows as tall as their wrapped text at the column's current width: the default size
+// hint counts only the explicit line breaks, so a long message wrapped on a narrow
+// window was cut off ("…") under the next row.
+class WrappedRowDelegate : public QStyledItemDelegate {
+public:
+    explicit WrappedRowDelegate(QTreeView* view) : QStyledItemDelegate(view), view_(view) {}
+    QSize sizeHint(const QStyleOptionViewItem& option, const QModelIndex& index) const override
+    {
+        QSize size = QStyledItemDelegate::sizeHint(option, index);
+        const int width = view_->header()->sectionSize(index.column()) - 10;
+        if (width <= 0) return size;
+        const QRect text = QFontMetrics(option.font).boundingRect(QRect(0, 0, width, 1 << 20), Qt::TextWordWrap,
+                                                                  index.data(Qt::DisplayRole).toString());
+        return QSize(size.width(), std::max(size.height(), text.height() + 6));
+    }
+
+private:
+    QTreeView* view_;
+};
+
+}  // namespace
 
 QString whereText(const tl::Problem& p)
 {
@@ -77,6 +101,7 @@ ChecksPanel::ChecksPanel(QWidget* parent) : QWidget(parent)
     tree_->setUniformRowHeights(false);
     tree_->setWordWrap(true);
     tree_->setAlternatingRowColors(true);
+    tree_->setItemDelegate(new WrappedRowDelegate(tree_));
     tree_->header()->setSectionResizeMode(0, QHeaderView::ResizeToContents);
     tree_->header()->setSectionResizeMode(1, QHeaderView::ResizeToContents);
     tree_->header()->setStretchLastSection(true);

@@ -44,11 +44,11 @@ RemovalQuestion removalQuestion(const tl::Model& model, const QList<int>& rows)
         lines << QObject::tr("The diet of %1 loses %2 (%3); it will no longer sum to 1 until it is normalised.")
                      .arg(qs(loss.predator), percent(loss.share), listOf(loss.prey));
     if (!impact.fleetsCatching.empty())
-        lines << QObject::tr("Landings and discards of it by %1 are removed with it.").arg(listOf(impact.fleetsCatching));
+        lines << QObject::tr("The landings and discards by %1 of what is removed go with it.").arg(listOf(impact.fleetsCatching));
     if (!impact.fleetsDiscardingTo.empty())
         lines << QObject::tr("Discards of %1 go to the first detritus pool instead.").arg(listOf(impact.fleetsDiscardingTo));
     if (!impact.routedTo.empty())
-        lines << QObject::tr("The detritus routing of %1 loses its share to it.").arg(listOf(impact.routedTo));
+        lines << QObject::tr("The detritus routing of %1 loses its share to the removed pool.").arg(listOf(impact.routedTo));
     if (!lines.isEmpty()) q.details = lines.join(QLatin1Char('\n')) + QLatin1Char('\n') + QObject::tr("Undo (Ctrl+Z) restores all of it.");
     return q;
 }
