@@ -31,6 +31,7 @@
 #include <QVBoxLayout>
 
 #include "core/model/compartment.h"
+#include "core/model/problem_fixes.h"
 #include "ui/document/project_document.h"
 #include "ui/document/recovery_file.h"
 #include "ui/style/palette.h"
@@ -128,6 +129,14 @@ MainWindow::MainWindow(const MainWindowOptions& options, QWidget* parent) : QMai
     connect(runner_, &BalanceRunner::solved, this, &MainWindow::onSolved);
     connect(runner_, &BalanceRunner::started, this, [this] { solveNote_->setText(tr("Solving…")); });
     connect(checks_, &ChecksPanel::problemActivated, this, [this](const tl::Problem& p) { goToProblem(p); });
+    // One-click fixes where the remedy is unambiguous (core/model/problem_fixes.h), one undo step each.
+    checks_->setFixLabeler([this](const tl::Problem& p) {
+        const auto label = tl::fixLabel(doc_->model(), p);
+        return label ? qs(*label) : QString();
+    });
+    connect(checks_, &ChecksPanel::fixRequested, this, [this](const tl::Problem& p) {
+        if (auto fix = tl::unambiguousFix(doc_->model(), p)) doc_->editModel(fix->fixed, qs(fix->label));
+    });
 
     if (options_.useSettings) {
         QSettings s;
@@ -445,11 +454,11 @@ void MainWindow::onSolved(const SolveOutcome& outcome)
         else staleResults_.insert(p);
     }
 #endif
-    const tl::BalanceStatus st = outcome.sheet.status;
-    statusIcon_->setPixmap(statusIcon(st).pixmap(16, 16));
+    // Balanced only when valid, solved and without errors (core scenarioState).
+    statusIcon_->setPixmap(scenarioStateIcon(outcome.state).pixmap(16, 16));
     int errors = 0, warnings = 0;
     for (const auto& p : outcome.checks) (p.severity == tl::Severity::Error ? errors : warnings) += p.severity != tl::Severity::Info;
-    QString text = statusLabel(st);
+    QString text = scenarioStateLabel(outcome.state);
     if (errors + warnings > 0) text += tr(" — %1 error(s), %2 warning(s) in Checks").arg(errors).arg(warnings);
     statusText_->setText(text);
     solveNote_->setText(outcome.inBackground ? tr("solved in the background in %1 ms").arg(outcome.milliseconds, 0, 'f', 1)

@@ -8,10 +8,12 @@
 //   scor  the solved scenario's flow network in SCOR format
 //   html  a plain, self-contained report (core/io/html_report.h)
 // Bad input exits 2 naming the file, and nothing is written: output goes to a
-// temporary path first and is renamed into place only when complete.
+// temporary path first and is renamed into place only when complete. `--out -` writes
+// the file to standard output instead (the Unix convention; a CSV folder cannot be).
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <fstream>
 #include <iostream>
 #include <system_error>
 #include <vector>
@@ -95,6 +97,24 @@ int exportCsv(const Scenario& scenario, const fs::path& out)
     return 0;
 }
 
+// `--out -` means standard output (common practice of Unix tools, no source).
+bool isStandardOutput(const fs::path& out) { return out == "-"; }
+
+// Writes `content` to `out`: atomically into a file, or whole to standard output.
+int writeOutput(const fs::path& out, const std::string& content)
+{
+    if (isStandardOutput(out)) {
+        std::cout.write(content.data(), static_cast<std::streamsize>(content.size()));
+        std::cout.flush();
+        return std::cout ? 0 : 2;
+    }
+    if (const auto error = writeFileAtomically(out, content)) {
+        std::cerr << out.string() << ": " << *error << '\n';
+        return 2;
+    }
+    return 0;
+}
+
 std::string withoutTrailingSpace(std::string s)
 {
     while (!s.empty() && (s.back() == '\n' || s.back() == ' ')) s.pop_back();
@@ -108,11 +128,7 @@ int exportJson(const Project& project, const fs::path& out)
     const std::string json = projectJson(project, options, [](const Scenario& s) {
         return JsonMembers{{"result", withoutTrailingSpace(balanceSheetJson(solveBalance(s.model)))}};
     });
-    if (const auto error = writeFileAtomically(out, json)) {
-        std::cerr << out.string() << ": " << *error << '\n';
-        return 2;
-    }
-    return 0;
+    return writeOutput(out, json);
 }
 
 int exportScor(const Project& project, const Scenario& scenario, const fs::path& out)
@@ -130,7 +146,9 @@ int exportScor(const Project& project, const Scenario& scenario, const fs::path&
         std::cerr << out.string() << ": " << *error << "; nothing was written\n";
         return 2;
     }
-    if (const auto error = writeScorFile(scor, out)) {
+    if (isStandardOutput(out)) {
+        if (writeOutput(out, writeScor(scor)) != 0) return 2;
+    } else if (const auto error = writeScorFile(scor, out)) {
         std::cerr << out.string() << ": " << *error << '\n';
         return 2;
     }
@@ -142,11 +160,7 @@ int exportScor(const Project& project, const Scenario& scenario, const fs::path&
 
 int exportHtml(const Project& project, const fs::path& out)
 {
-    if (const auto error = writeFileAtomically(out, htmlReport(project))) {
-        std::cerr << out.string() << ": " << *error << '\n';
-        return 2;
-    }
-    return 0;
+    return writeOutput(out, htmlReport(project));
 }
 
 bool isFigureFormat(const std::string& format) { return format == "svg" || format == "png" || format == "pdf"; }
@@ -174,13 +188,26 @@ int exportFigure(const Scenario& scenario, const ParsedOptions& opts, const std:
         }
         request.dpi = static_cast<int>(*parsed);
     }
+    // To standard output: drawn into a private temporary file first (the renderers
+    // write files), then copied out byte for byte.
+    const bool toStdout = isStandardOutput(out);
+    std::error_code ec;
+    const fs::path temp = toStdout ? temporaryBeside(fs::temp_directory_path(ec) / ("tledger-figure." + format)) : out;
+    if (toStdout) request.path = temp.string();
     const BalanceSheet sheet = solveBalance(scenario.model);
     const std::string error = ui::exportFigureForCli(scenario.model, sheet, request);
     if (!error.empty()) {
+        if (toStdout) fs::remove(temp, ec);
         std::cerr << "tledger export: " << error << '\n';
         return 2;
     }
-    return 0;
+    if (!toStdout) return 0;
+    std::ifstream in(temp, std::ios::binary);
+    std::cout << in.rdbuf();
+    std::cout.flush();
+    in.close();
+    fs::remove(temp, ec);
+    return std::cout ? 0 : 2;
 #else
     (void)scenario, (void)opts, (void)out;
     std::cerr << "tledger export: --format " << format << " needs a build with the GUI (TL_BUILD_GUI=ON)\n";
@@ -229,6 +256,11 @@ int cmdExport(const Args& args)
 #ifndef TL_HAVE_FIGURES
     if (isFigureFormat(*format)) handOverToFigureProgram(args);
 #endif
+    if (*format == "csv" && isStandardOutput(*out)) {
+        std::cerr << "tledger export: --format csv writes a folder of several files, which cannot go to standard "
+                     "output (--out -); give a folder path, or use --format json for one stream\n";
+        return 2;
+    }
     const fs::path model = opts->positional[0];
     const auto project = loadProject(model, opts->value("--scenario"));
     if (!project) return 2;
@@ -244,7 +276,8 @@ int cmdExport(const Args& args)
         if (isFigureFormat(*format)) code = exportFigure(*scenario, *opts, *format, *out);
         else code = *format == "csv" ? exportCsv(*scenario, *out) : exportScor(*project, *scenario, *out);
     }
-    if (code == 0) std::cout << "wrote " << *out << '\n';
+    // On standard output the content is the whole output: no note is added to it.
+    if (code == 0 && !isStandardOutput(*out)) std::cout << "wrote " << *out << '\n';
     return code;
 }
 

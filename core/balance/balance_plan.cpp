@@ -272,8 +272,7 @@ BalancePlan BalancePlan::build(const Model& model)
     }
     if (plan.pools_.empty() && !plan.rowCompartment_.empty())
         plan.problems_.push_back(code::makeProblem(code::kNoDetritusPool, Severity::Warning, "", "",
-                                  "The model has no detritus pool: egestion and other mortality leave the system.",
-                                  "Add a detritus compartment."));
+                                                   code::kNoDetritusPoolMessage, code::kNoDetritusPoolHint));
 
     // The reduced system: coupled unknowns as columns; as rows, the equations without
     // a private unknown that some coupled unknown enters (its own production, or the

@@ -1,4 +1,5 @@
-// The Checks of a scenario: every problem of its inputs (validateModel) followed by the
+// The Checks of a scenario: every problem of its inputs (validateModel, then the
+// values beyond their plausible range, core/model/plausible_ranges.h) followed by the
 // balance solver's findings, each problem reported once. The workbench's Checks panel
 // and `tledger check` both show this list.
 //
@@ -14,5 +15,16 @@
 namespace tl {
 
 Problems scenarioChecks(const Model& model, const BalanceSheet& sheet);
+
+// What a scenario is, in one word for the status bar (issue 13): balanced only when
+// its inputs are valid, the balance solved and no check is an error.
+enum class ScenarioState {
+    NoCompartments,  // nothing entered yet
+    Incomplete,      // an input is missing or wrong (validation error), or the solve could not run
+    NotBalanced,     // solved from valid inputs, but a balance condition fails (EE above max, R < 0, ...)
+    Balanced
+};
+// `checks` is scenarioChecks(model, sheet).
+ScenarioState scenarioState(const Model& model, const BalanceSheet& sheet, const Problems& checks);
 
 }  // namespace tl

@@ -33,6 +33,8 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kDuplicateFleet, E, "Two fleets share a name."},
     {code::kNoDetritusPool, W,
      "The scenario has no detritus pool, so egestion, other mortality and dead discards have nowhere to go."},
+    {code::kImplausibleValue, W,
+     "An entered value lies far above the plausible range set in the project's rules; check the units and the digits."},
     // Balance.
     {code::kUnderdetermined, E, "A compartment has more than one unknown among B, P/B, Q/B and EE; give one more value."},
     {code::kSingularSystem, E, "The unknown values depend on each other in a loop the balance cannot resolve."},

@@ -40,6 +40,12 @@ inline constexpr const char* kDiscardPool = "discard-pool-not-detritus";
 inline constexpr const char* kEmptyFleetName = "empty-fleet-name";
 inline constexpr const char* kDuplicateFleet = "duplicate-fleet";
 inline constexpr const char* kNoDetritusPool = "no-detritus-pool";  // also found by the solver: reported once
+// The one sentence for a scenario without a detritus pool: validation and the solver
+// both find it, and the Checks panel and the Balance sheet must not word it twice.
+inline constexpr const char* kNoDetritusPoolMessage =
+    "The model has no detritus pool, so egestion, other mortality and dead discards have nowhere to go.";
+inline constexpr const char* kNoDetritusPoolHint = "Add a compartment of kind detritus.";
+inline constexpr const char* kImplausibleValue = "implausible-value";  // above the rules' plausible range (warning)
 // --- balance (core/balance) ----------------------------------------------------------
 // Structure (status Invalid).
 inline constexpr const char* kUnderdetermined = "underdetermined-compartment";  // two or more unknowns

@@ -1,5 +1,7 @@
 #include "core/model/validation.h"
 
+#include "core/model/problem_codes.h"
+
 #include <cmath>
 #include <cstdio>
 #include <string>
@@ -253,9 +255,8 @@ private:
         for (const Fleet& f : m_.fleets())
             for (double d : f.discards) discards = discards || d > 0;
         if (m_.living().empty() && !discards) return;
-        add(check::kNoDetritusPool, m_.size(), "routing",
-            "the model has no detritus pool, so egestion, other mortality and dead discards have nowhere to go",
-            "add a compartment of kind detritus", Severity::Warning);
+        add(check::kNoDetritusPool, m_.size(), "routing", code::kNoDetritusPoolMessage, code::kNoDetritusPoolHint,
+            Severity::Warning);
     }
 
     const Model& m_;

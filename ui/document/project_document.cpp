@@ -55,7 +55,7 @@ bool readProjectFile(const QString& path, tl::Project* out, QString* error, QStr
 {
     tl::ModelSource source;
     if (!readProjectSource(path, readOnly, &source, error)) return false;
-    if (source.project->scenarios.empty()) source.project->scenarios.push_back(emptyScenario(QObject::tr("Base")));
+    if (source.project->scenarios.empty()) source.project->scenarios.push_back(emptyScenario(QString::fromUtf8(kFirstScenarioName)));
     if (readOnlyReason && !readOnly && source.readOnly)
         *readOnlyReason = QString::fromStdString(source.readOnlyReason.empty() ? "read-only" : source.readOnlyReason);
     *out = std::move(*source.project);
@@ -73,7 +73,7 @@ bool writeProjectFile(const tl::Project& project, const QString& path, QString* 
 
 ProjectDocument::ProjectDocument(QObject* parent) : QObject(parent)
 {
-    project_.scenarios.push_back(emptyScenario(tr("Base")));
+    project_.scenarios.push_back(emptyScenario(QString::fromUtf8(kFirstScenarioName)));
     connect(&undo_, &QUndoStack::cleanChanged, this, &ProjectDocument::originChanged);
 }
 
@@ -85,7 +85,7 @@ QString ProjectDocument::displayName() const
 
 void ProjectDocument::setProject(tl::Project project, int current, Origin origin, const QString& path, bool modified)
 {
-    if (project.scenarios.empty()) project.scenarios.push_back(emptyScenario(tr("Base")));
+    if (project.scenarios.empty()) project.scenarios.push_back(emptyScenario(QString::fromUtf8(kFirstScenarioName)));
     project_ = std::move(project);
     current_ = std::clamp(current, 0, static_cast<int>(project_.scenarios.size()) - 1);
     origin_ = origin;
@@ -103,7 +103,7 @@ void ProjectDocument::newProject()
     tl::Project p;
     p.info.title = tr("Untitled").toStdString();
     p.info.created = tl::utcNowIso8601();
-    p.scenarios.push_back(emptyScenario(tr("Base")));
+    p.scenarios.push_back(emptyScenario(QString::fromUtf8(kFirstScenarioName)));
     templateReason_.clear();
     setProject(std::move(p), 0, Origin::Untitled, {}, false);
 }

@@ -18,6 +18,10 @@
 
 namespace tl::ui {
 
+// The name the program gives a project's first scenario (a new project, a file holding
+// none): the word the sample projects and the CLI examples use for it.
+inline constexpr const char* kFirstScenarioName = "baseline";
+
 class ProjectDocument : public QObject {
     Q_OBJECT
 public:
@@ -91,7 +95,7 @@ private:
 // Reads a whole .tledger file, or a CSV folder as a one-scenario project named after
 // the folder (tl::readModelSource). A file that can only be read (newer schema, no
 // write permission) sets `readOnlyReason`; `readOnly` opens it without ever writing
-// (no migration), as for templates. A project without scenarios gets an empty "Base".
+// (no migration), as for templates. A project without scenarios gets an empty one named kFirstScenarioName.
 bool readProjectFile(const QString& path, tl::Project* out, QString* error, QString* readOnlyReason,
                      bool readOnly = false);
 // Writes `project` to `path` through tl::saveProjectToPath (a new file is linked into

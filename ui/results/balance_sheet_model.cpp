@@ -6,7 +6,9 @@
 #include <cmath>
 
 #include "core/model/text.h"
+#include "core/balance/solver.h"
 #include "ui/style/palette.h"
+#include "ui/style/value_marks.h"
 
 namespace tl::ui {
 namespace {
@@ -234,11 +236,15 @@ QVariant BalanceSheetModel::data(const QModelIndex& index, int role) const
     const auto c = static_cast<Column>(index.column());
     const Compartment& comp = model_.compartment(static_cast<std::size_t>(row));
 
+    // An EE above the rules' maximum: error icon and words, as in Checks (issue 13).
+    const bool eeAbove = c == Column::Ee && comp.isLiving() && std::isfinite(value(row, c)) &&
+                         value(row, c) > model_.rules.eeMax + kBoundTolerance;
     switch (role) {
     case Qt::DisplayRole:
         if (c == Column::Name) return QString::fromStdString(comp.name);
         if (c == Column::Kind) return kindLabel(comp.kind);
         if (c == Column::Status) return statusText(row);
+        if (eeAbove) return eeAboveMaxText(displayNumber(value(row, c)), model_.rules.eeMax);
         return displayNumber(value(row, c));
     case kValueRole:
         if (isTextColumn(c)) return cellText(row, c);
@@ -247,10 +253,15 @@ QVariant BalanceSheetModel::data(const QModelIndex& index, int role) const
         return isSolved(row, c);
     case Qt::DecorationRole:
         if (c == Column::Status) return statusIcon(worstSeverity(row));
+        if (eeAbove) return severityIcon(Severity::Error);
         if (isSolved(row, c)) return solvedIcon();
         return {};
     case Qt::ToolTipRole:
         if (c == Column::Status) return statusToolTip(row);
+        if (eeAbove)
+            return tr("EE = %1 is above the maximum %2: more of the production is used than is produced%3.")
+                .arg(cellText(row, c), QString::number(model_.rules.eeMax, 'g', 4),
+                     isSolved(row, c) ? tr(" (") + solvedLegend() + tr(")") : QString());
         if (isSolved(row, c)) return tr("%1 = %2 %3, %4").arg(shortHeader(c), cellText(row, c), unit(c), solvedLegend());
         if (isInputColumn(c) && !input(row, c)) return tr("No value entered");
         return {};
@@ -275,7 +286,14 @@ QVariant BalanceSheetModel::data(const QModelIndex& index, int role) const
 QVariant BalanceSheetModel::headerData(int section, Qt::Orientation orientation, int role) const
 {
     if (orientation == Qt::Vertical) {
-        if (role == Qt::DisplayRole) return section + 1;
+        // The compartment's name heads its row, so it stays in view while the table
+        // scrolls sideways (the page hides the Name column; copies keep it).
+        if (section < 0 || section >= rowCount()) return {};
+        const Compartment& comp = model_.compartment(static_cast<std::size_t>(section));
+        if (role == Qt::DisplayRole) return QString::fromStdString(comp.name);
+        if (role == Qt::DecorationRole) return kindIcon(comp.kind);
+        if (role == Qt::TextAlignmentRole) return QVariant::fromValue(Qt::AlignLeft | Qt::AlignVCenter);
+        if (role == Qt::ToolTipRole) return tr("%1, %2").arg(QString::fromStdString(comp.name), kindLabel(comp.kind).toLower());
         return {};
     }
     if (section < 0 || section >= columnCount()) return {};

@@ -1,5 +1,7 @@
 #include "ui/results/balance_sheet_page.h"
 
+#include "core/balance/scenario_checks.h"
+
 #include <cmath>
 
 #include "core/balance/production_uses.h"
@@ -107,7 +109,13 @@ BalanceSheetPage::BalanceSheetPage(QWidget* parent)
     table_->setTextElideMode(Qt::ElideRight);
     table_->horizontalHeader()->setDefaultAlignment(Qt::AlignCenter);
     table_->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
-    table_->verticalHeader()->setVisible(false);
+    // Names head the rows (BalanceSheetModel's vertical header): they stay in view when
+    // the table scrolls sideways; the Name column itself is hidden.
+    table_->verticalHeader()->setVisible(true);
+    table_->verticalHeader()->setSectionResizeMode(QHeaderView::Fixed);
+    table_->verticalHeader()->setDefaultAlignment(Qt::AlignLeft | Qt::AlignVCenter);
+    table_->setColumnHidden(BalanceSheetModel::column(BalanceSheetModel::Column::Name), true);
+    table_->setCornerButtonEnabled(false);
     table_->setContextMenuPolicy(Qt::CustomContextMenu);
 
     statusLabel_->setWordWrap(true);
@@ -230,21 +238,19 @@ void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceShee
     }
     for (int r = 0; r < model_->rowCount(); ++r)
         if (model_->worstSeverity(r)) ++withProblems;
-    QString text;
-    switch (sheet.status) {
-    case BalanceStatus::Balanced: text = tr("<b>Balanced.</b>"); break;
-    case BalanceStatus::Unbalanced: text = tr("<b>Not balanced.</b>"); break;
-    case BalanceStatus::Invalid: text = tr("<b>Could not be solved.</b>"); break;
-    }
+    // The same word as the status bar (core scenarioState): balanced only when the inputs
+    // are valid, the balance solved and no check is an error.
+    const ScenarioState state = scenarioState(model, sheet, scenarioChecks(model, sheet));
+    QString text = QStringLiteral("<b>%1.</b>").arg(scenarioStateLabel(state).toHtmlEscaped());
+    if (state == ScenarioState::Incomplete && sheet.status != BalanceStatus::Invalid)
+        text += " " + tr("Some inputs are missing or wrong (see Checks); the values below use them as they are.");
     if (withProblems == 0) text += " " + tr("No compartment has a problem.");
     else if (withProblems == 1) text += " " + tr("1 compartment has problems; see its Status cell.");
     else text += " " + tr("%1 compartments have problems; see their Status cells.").arg(withProblems);
     if (!general.isEmpty()) text += "<br>" + general.join("<br>");
     statusLabel_->setText(text);
-    statusIcon_->setPixmap(statusIcon(sheet.status == BalanceStatus::Invalid ? std::optional(Severity::Error)
-                                      : sheet.status == BalanceStatus::Unbalanced ? std::optional(Severity::Warning)
-                                                                                    : worst)
-                               .pixmap(20, 20));
+    statusIcon_->setPixmap((state == ScenarioState::Balanced ? statusIcon(worst) : scenarioStateIcon(state)).pixmap(20, 20));
+    table_->setColumnHidden(BalanceSheetModel::column(BalanceSheetModel::Column::Name), true);  // lost on reset
     table_->resizeColumnsToContents();
     const int statusColumn = BalanceSheetModel::column(BalanceSheetModel::Column::Status);
     table_->setColumnWidth(statusColumn, std::min(table_->columnWidth(statusColumn), 280));  // full text in the tooltip

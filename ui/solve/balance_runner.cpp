@@ -15,6 +15,7 @@ SolveOutcome solveAndCheck(const tl::Model& model)
     SolveOutcome out;
     out.sheet = tl::solveBalance(model);
     out.checks = tl::scenarioChecks(model, out.sheet);
+    out.state = tl::scenarioState(model, out.sheet, out.checks);
     out.milliseconds = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
     return out;
 }

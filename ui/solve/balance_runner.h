@@ -10,6 +10,7 @@
 #include <optional>
 
 #include "core/balance/balance_sheet.h"
+#include "core/balance/scenario_checks.h"
 #include "core/model/model.h"
 #include "core/model/problem.h"
 
@@ -19,6 +20,7 @@ namespace tl::ui {
 struct SolveOutcome {
     tl::BalanceSheet sheet;
     tl::Problems checks;       // validateModel, then the sheet's problems (no duplicates)
+    tl::ScenarioState state = tl::ScenarioState::NoCompartments;  // the status bar's word
     double milliseconds = 0.0; // time of solve + validation
     bool inBackground = false;
 };

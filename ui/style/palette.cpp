@@ -4,7 +4,6 @@
 #include <QObject>
 #include <QPainter>
 #include <QPixmap>
-#include <QPolygonF>
 
 static void tlInitUiResources() { Q_INIT_RESOURCE(workbench); }
 
@@ -50,7 +49,11 @@ QIcon kindIcon(CompartmentKind kind)
     // Shape differs by kind too, so the swatch reads without colour.
     if (kind == CompartmentKind::Producer) p.drawEllipse(QRectF(1.5, 1.5, 11, 11));
     else if (kind == CompartmentKind::Consumer) p.drawRoundedRect(QRectF(1.5, 1.5, 11, 11), 3, 3);
-    else p.drawPolygon(QPolygonF({QPointF(7, 1.5), QPointF(12.5, 12.5), QPointF(1.5, 12.5)}));
+    else {
+        // A pool: a basin (flat top, round bottom) where dead matter settles — a shape of
+        // its own, never the warning triangle.
+        p.drawChord(QRectF(1.0, -4.5, 12.0, 16.5), 180 * 16, 180 * 16);
+    }
     return QIcon(pm);
 }
 
@@ -99,6 +102,28 @@ QString statusLabel(BalanceStatus s)
     case BalanceStatus::Balanced: return QObject::tr("Balanced");
     case BalanceStatus::Unbalanced: return QObject::tr("Not balanced");
     case BalanceStatus::Invalid: return QObject::tr("Cannot be solved");
+    }
+    return {};
+}
+
+QString scenarioStateLabel(ScenarioState s)
+{
+    switch (s) {
+    case ScenarioState::NoCompartments: return QObject::tr("No compartments yet");
+    case ScenarioState::Incomplete: return QObject::tr("Incomplete");
+    case ScenarioState::NotBalanced: return QObject::tr("Not balanced");
+    case ScenarioState::Balanced: return QObject::tr("Balanced");
+    }
+    return {};
+}
+
+QIcon scenarioStateIcon(ScenarioState s)
+{
+    switch (s) {
+    case ScenarioState::NoCompartments: return severityIcon(Severity::Info);
+    case ScenarioState::Incomplete: return severityIcon(Severity::Error);
+    case ScenarioState::NotBalanced: return severityIcon(Severity::Warning);
+    case ScenarioState::Balanced: return okIcon();
     }
     return {};
 }

@@ -10,6 +10,7 @@
 #include <optional>
 
 #include "core/balance/balance_sheet.h"
+#include "core/balance/scenario_checks.h"
 #include "core/io/balance_report.h"
 #include "core/model/compartment.h"
 #include "core/model/problem.h"
@@ -39,6 +40,10 @@ QIcon okIcon();
 QIcon statusIcon(std::optional<Severity> worst);
 QIcon statusIcon(BalanceStatus s);
 QString statusLabel(BalanceStatus s);  // "Balanced", "Not balanced", "Cannot be solved"
+// The status bar's word for a scenario (core scenarioState): "No compartments yet",
+// "Incomplete", "Not balanced", "Balanced"; its icon: none, error, warning, tick.
+QString scenarioStateLabel(ScenarioState s);
+QIcon scenarioStateIcon(ScenarioState s);
 
 // A small black diamond marking a value the balance solved (not entered).
 QIcon solvedIcon();

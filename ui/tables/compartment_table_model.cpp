@@ -7,7 +7,10 @@
 #include <cmath>
 #include <limits>
 
+#include "core/model/names.h"
 #include "core/model/text.h"
+#include "core/balance/solver.h"
+#include "ui/style/value_marks.h"
 #include "ui/document/project_document.h"
 #include "ui/style/palette.h"
 
@@ -147,6 +150,24 @@ QString CompartmentTableModel::cellName(int row, int column) const
     return name;
 }
 
+QString CompartmentTableModel::nameRefusal(const tl::Model& m, int row, const QString& text)
+{
+    const QString name = text.trimmed();
+    const QString current = row >= 0 && row < int(m.size()) ? QString::fromStdString(m.compartment(std::size_t(row)).name) : QString();
+    if (name.isEmpty()) return tr("A compartment needs a name; %1 was left as it is.").arg(current);
+    for (std::size_t i = 0; i < m.size(); ++i)
+        if (int(i) != row && tl::sameName(m.compartment(i).name, name.toStdString()))
+            return tr("\"%1\" is taken: compartment %2 is called \"%3\"; names must be unique, and differ by more "
+                      "than capitals and spaces.")
+                .arg(name).arg(i + 1).arg(QString::fromStdString(m.compartment(i).name));
+    return {};
+}
+
+bool CompartmentTableModel::takesTyping(int row, int column) const
+{
+    return column != kKindColumn && isEditable(row, column);
+}
+
 bool CompartmentTableModel::isEditable(int row, int column) const
 {
     if (row < 0 || row >= int(model().size())) return false;
@@ -174,12 +195,8 @@ QString CompartmentTableModel::applyText(tl::Model& m, int row, int column, cons
 {
     tl::Compartment& c = m.compartment(std::size_t(row));
     if (column == kNameColumn) {
-        const QString name = text.trimmed();
-        if (name.isEmpty()) return tr("A compartment needs a name; %1 was left as it is.").arg(QString::fromStdString(c.name));
-        const auto other = m.indexOf(name.toStdString());
-        if (other && *other != std::size_t(row))
-            return tr("Another compartment is already called \"%1\"; names must be unique.").arg(name);
-        c.name = name.toStdString();
+        if (const QString why = nameRefusal(m, row, text); !why.isEmpty()) return why;
+        c.name = text.trimmed().toStdString();
         return {};
     }
     if (column == kKindColumn) {
@@ -209,9 +226,13 @@ QVariant CompartmentTableModel::extraData(const tl::Model& m, int row, int colum
     const tl::CompartmentBalance* solved =
         (sheet().rows.size() == m.size() && sheet().rows[std::size_t(row)].name == c.name) ? &sheet().rows[std::size_t(row)]
                                                                                         : nullptr;
+    // An EE above the rules' maximum is marked by an icon and words (issue 13), as in Checks.
+    const bool eeAbove = p == tl::Param::EE && solved && c.isLiving() && std::isfinite(solved->ee) &&
+                         solved->ee > m.rules.eeMax + tl::kBoundTolerance;
     switch (role) {
     case Qt::DisplayRole:
         if (column == kKindColumn) return kindLabel(c.kind);
+        if (eeAbove) return eeAboveMaxText(shortNumber(solved->ee), m.rules.eeMax);
         if (p && !c.value(*p) && applies(c.kind, *p)) {
             if (solved && std::isfinite(solvedValue(*solved, *p))) return shortNumber(solvedValue(*solved, *p));
             if (*p == tl::Param::Unassim && c.kind == tl::CompartmentKind::Consumer) return shortNumber(c.unassimilatedOrDefault());
@@ -222,6 +243,7 @@ QVariant CompartmentTableModel::extraData(const tl::Model& m, int row, int colum
         return {};
     case Qt::DecorationRole:
         if (column == kKindColumn) return kindIcon(c.kind);
+        if (eeAbove) return severityIcon(tl::Severity::Error);
         return {};
     case Qt::TextAlignmentRole:
         if (column == kNameColumn || column == kKindColumn) return int(Qt::AlignLeft | Qt::AlignVCenter);
@@ -243,6 +265,9 @@ QVariant CompartmentTableModel::extraData(const tl::Model& m, int row, int colum
     case Qt::ToolTipRole: {
         if (!p) return {};
         QStringList lines;
+        if (eeAbove)
+            lines << tr("EE %1 is above the maximum %2: more of the production is used than is produced.")
+                         .arg(shortNumber(solved->ee), shortNumber(m.rules.eeMax));
         if (!applies(c.kind, *p)) lines << tr("Not used for a %1.").arg(kindLabel(c.kind).toLower());
         else if (!c.value(*p)) {
             if (solved && std::isfinite(solvedValue(*solved, *p)))
@@ -265,7 +290,7 @@ QVariant CompartmentTableModel::extraData(const tl::Model& m, int row, int colum
 QString CompartmentTableModel::uniqueName(const QString& stem) const
 {
     QString name = stem;
-    for (int n = 2; model().indexOf(name.toStdString()); ++n) name = QStringLiteral("%1 %2").arg(stem).arg(n);
+    for (int n = 2; !nameRefusal(model(), -1, name).isEmpty(); ++n) name = QStringLiteral("%1 %2").arg(stem).arg(n);
     return name;
 }
 

@@ -23,6 +23,7 @@ public:
     QVariant headerData(int section, Qt::Orientation orientation, int role) const override;
     QString cellName(int row, int column) const override;
     bool isEditable(int row, int column) const override;
+    bool takesTyping(int row, int column) const override;  // the kind is chosen from a list
 
     static int columnOf(tl::Param p) { return kFirstParamColumn + static_cast<int>(p); }
     static std::optional<tl::Param> paramOf(int column);
@@ -34,6 +35,9 @@ public:
     void removeCompartments(QList<int> rows);
     int moveCompartment(int row, int delta);
     QString uniqueName(const QString& stem) const;
+    // Why `name` cannot name the compartment on `row` (empty, or the same as another's
+    // up to case and spaces), or empty when it can. Names are trimmed before use.
+    static QString nameRefusal(const tl::Model& m, int row, const QString& name);
 
 protected:
     QStringList rowKeys(const tl::Model& m) const override;

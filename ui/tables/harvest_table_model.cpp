@@ -1,5 +1,7 @@
 #include "ui/tables/harvest_table_model.h"
 
+#include "core/model/names.h"
+
 #include <QBrush>
 #include <QColor>
 #include <QFont>
@@ -121,11 +123,21 @@ QVariant HarvestTableModel::extraData(const tl::Model&, int row, int column, int
     return {};
 }
 
+namespace {
+// The fleet (other than `except`) whose name equals `name` up to capitals and spaces.
+std::optional<std::size_t> fleetNamed(const tl::Model& m, const QString& name, int except = -1)
+{
+    for (std::size_t f = 0; f < m.fleets().size(); ++f)
+        if (int(f) != except && tl::sameName(m.fleet(f).name, name.toStdString())) return f;
+    return std::nullopt;
+}
+}  // namespace
+
 QString HarvestTableModel::addFleet(const QString& name, QString* why)
 {
     QString stem = name.trimmed().isEmpty() ? tr("Fleet") : name.trimmed();
     QString unique = stem;
-    for (int n = 2; model().fleetIndexOf(unique.toStdString()); ++n) unique = QStringLiteral("%1 %2").arg(stem).arg(n);
+    for (int n = 2; fleetNamed(model(), unique); ++n) unique = QStringLiteral("%1 %2").arg(stem).arg(n);
     if (!name.trimmed().isEmpty() && unique != stem) {
         if (why) *why = tr("A fleet called \"%1\" already exists.").arg(stem);
         return {};
@@ -144,9 +156,8 @@ bool HarvestTableModel::renameFleet(int fleet, const QString& name, QString* why
         if (why) *why = tr("A fleet needs a name.");
         return false;
     }
-    const auto other = model().fleetIndexOf(n.toStdString());
-    if (other && int(*other) != fleet) {
-        if (why) *why = tr("A fleet called \"%1\" already exists.").arg(n);
+    if (const auto other = fleetNamed(model(), n, fleet)) {
+        if (why) *why = tr("A fleet called \"%1\" already exists.").arg(qs(model().fleet(*other).name));
         return false;
     }
     tl::Model copy = model();

@@ -79,6 +79,45 @@ void LedgerTableView::goToCell(int row, int column)
     setFocus();
 }
 
+void LedgerTableView::startRowEntry(int row, int column)
+{
+    goToCell(row, column);
+    entryRow_ = currentIndex().isValid() ? currentIndex().row() : -1;
+    if (entryRow_ >= 0) edit(currentIndex());
+}
+
+QModelIndex LedgerTableView::moveCursor(CursorAction action, Qt::KeyboardModifiers modifiers)
+{
+    ScenarioTableModel* m = ledgerModel();
+    const QModelIndex current = currentIndex();
+    if (!m || !current.isValid() || (action != MoveNext && action != MovePrevious))
+        return QTableView::moveCursor(action, modifiers);
+    // Row by row, as QTableView moves, wrapping at the ends; hidden cells are passed over.
+    const int rows = m->rowCount(), cols = m->columnCount();
+    const int step = action == MoveNext ? 1 : -1;
+    int r = current.row(), c = current.column();
+    for (int k = 0; k < rows * cols; ++k) {
+        c += step;
+        if (c >= cols) c = 0, r = (r + 1) % rows;
+        if (c < 0) c = cols - 1, r = (r - 1 + rows) % rows;
+        if (isRowHidden(r) || isColumnHidden(c)) continue;
+        if (m->takesTyping(r, c)) return m->index(r, c);
+    }
+    return current;
+}
+
+void LedgerTableView::closeEditor(QWidget* editor, QAbstractItemDelegate::EndEditHint hint)
+{
+    const QModelIndex at = currentIndex();
+    const bool enter = hint == QAbstractItemDelegate::SubmitModelCache;
+    if (enter && entryRow_ >= 0 && at.row() == entryRow_) hint = QAbstractItemDelegate::EditNextItem;
+    QTableView::closeEditor(editor, enter && hint != QAbstractItemDelegate::EditNextItem ? QAbstractItemDelegate::NoHint : hint);
+    if (hint == QAbstractItemDelegate::RevertModelCache || currentIndex().row() != entryRow_) entryRow_ = -1;
+    // Enter outside row entry: down one row, as in a spreadsheet (typing there starts an edit).
+    if (enter && hint != QAbstractItemDelegate::EditNextItem && at.isValid() && at.row() + 1 < model()->rowCount())
+        goToCell(at.row() + 1, at.column());
+}
+
 void LedgerTableView::keyPressEvent(QKeyEvent* event)
 {
     if (state() != QAbstractItemView::EditingState) {

@@ -62,18 +62,33 @@ int ScenarioTableModel::rowOf(const std::vector<std::size_t>& rows, std::size_t 
     return -1;
 }
 
+namespace {
+// Same layout: as many keys, and none that changed is found elsewhere in the old list —
+// a rename, not an insertion, removal or move. A rename keeps the view (and an open
+// editor, the current cell and Tab navigation); anything else resets it.
+bool sameLayout(const QStringList& before, const QStringList& after)
+{
+    if (before.size() != after.size()) return false;
+    for (qsizetype i = 0; i < after.size(); ++i)
+        if (before[i] != after[i] && before.contains(after[i])) return false;
+    return true;
+}
+}  // namespace
+
 void ScenarioTableModel::refreshFromDocument()
 {
     indexModel(model());
     const QStringList rows = rowKeys(model());
     const QStringList cols = columnKeys(model());
-    if (rows != rowKeys_ || cols != columnKeys_) {
+    if (!sameLayout(rowKeys_, rows) || !sameLayout(columnKeys_, cols)) {
         beginResetModel();
         rowKeys_ = rows;
         columnKeys_ = cols;
         endResetModel();
         return;
     }
+    rowKeys_ = rows;
+    columnKeys_ = cols;
     if (!rows.isEmpty() && !cols.isEmpty()) emit dataChanged(index(0, 0), index(int(rows.size()) - 1, int(cols.size()) - 1));
     emit headerDataChanged(Qt::Horizontal, 0, std::max<int>(0, int(cols.size()) - 1));
     emit headerDataChanged(Qt::Vertical, 0, std::max<int>(0, int(rows.size()) - 1));

@@ -65,6 +65,9 @@ public:
     // Name of a cell for messages and undo texts, e.g. "B of Zooplankton".
     virtual QString cellName(int row, int column) const = 0;
     virtual bool isEditable(int row, int column) const = 0;
+    // Cells that Tab and Enter stop at while typing: editable ones, unless chosen from a
+    // list (a compartment's kind) rather than typed.
+    virtual bool takesTyping(int row, int column) const { return isEditable(row, column); }
 
 signals:
     // A typed value was refused; the model is unchanged.

@@ -1,16 +1,45 @@
 #include "ui/widgets/checks_panel.h"
 
+#include <QAction>
+#include <QHBoxLayout>
 #include <QHeaderView>
-#include <algorithm>
 #include <QLabel>
+#include <QMenu>
+#include <QPushButton>
+#include <QStyledItemDelegate>
+#include <QTimer>
 #include <QTreeWidget>
 #include <QVBoxLayout>
+#include <algorithm>
 
 #include "core/model/compartment.h"
 #include "core/model/problem_codes.h"
 #include "ui/style/palette.h"
 
 namespace tl::ui {
+namespace {
+
+// Rows as tall as their wrapped text at the column's current width: the default size
+// hint counts only the explicit line breaks, so a long message wrapped on a narrow
+// window was cut off ("…") under the next row.
+class WrappedRowDelegate : public QStyledItemDelegate {
+public:
+    explicit WrappedRowDelegate(QTreeView* view) : QStyledItemDelegate(view), view_(view) {}
+    QSize sizeHint(const QStyleOptionViewItem& option, const QModelIndex& index) const override
+    {
+        QSize size = QStyledItemDelegate::sizeHint(option, index);
+        const int width = view_->header()->sectionSize(index.column()) - 10;
+        if (width <= 0) return size;
+        const QRect text = QFontMetrics(option.font).boundingRect(QRect(0, 0, width, 1 << 20), Qt::TextWordWrap,
+                                                                  index.data(Qt::DisplayRole).toString());
+        return QSize(size.width(), std::max(size.height(), text.height() + 6));
+    }
+
+private:
+    QTreeView* view_;
+};
+
+}  // namespace
 
 QString whereText(const tl::Problem& p)
 {
@@ -72,14 +101,65 @@ ChecksPanel::ChecksPanel(QWidget* parent) : QWidget(parent)
     tree_->setUniformRowHeights(false);
     tree_->setWordWrap(true);
     tree_->setAlternatingRowColors(true);
+    tree_->setItemDelegate(new WrappedRowDelegate(tree_));
     tree_->header()->setSectionResizeMode(0, QHeaderView::ResizeToContents);
     tree_->header()->setSectionResizeMode(1, QHeaderView::ResizeToContents);
     tree_->header()->setStretchLastSection(true);
-    layout->addWidget(summary_);
+    summary_->setWordWrap(true);
+    fixButton_ = new QPushButton(tr("Fix"), this);
+    fixButton_->setObjectName(QStringLiteral("checksFix"));
+    fixButton_->setToolTip(tr("Apply the one-click fix of the selected line (one undo step)"));
+    fixButton_->setAutoDefault(false);
+    auto* top = new QHBoxLayout;
+    top->setContentsMargins(0, 0, 0, 0);
+    top->addWidget(summary_, 1);
+    top->addWidget(fixButton_);
+    layout->addLayout(top);
     layout->addWidget(tree_);
     connect(tree_, &QTreeWidget::itemActivated, this, [this](QTreeWidgetItem* item) { activate(tree_->indexOfTopLevelItem(item)); });
     connect(tree_, &QTreeWidget::itemClicked, this, [this](QTreeWidgetItem* item) { activate(tree_->indexOfTopLevelItem(item)); });
+    connect(tree_, &QTreeWidget::currentItemChanged, this, &ChecksPanel::updateFixButton);
+    connect(fixButton_, &QPushButton::clicked, this, [this] { fix(tree_->indexOfTopLevelItem(tree_->currentItem())); });
+    // Rows of wrapped text keep the height computed at the old width unless laid out
+    // again when a column (or the panel) changes width: once per burst of resizes.
+    connect(tree_->header(), &QHeaderView::sectionResized, this, [this] {
+        if (relayoutPending_) return;
+        relayoutPending_ = true;
+        QTimer::singleShot(0, this, [this] {
+            relayoutPending_ = false;
+            tree_->doItemsLayout();
+        });
+    });
+    tree_->setContextMenuPolicy(Qt::CustomContextMenu);
+    connect(tree_, &QWidget::customContextMenuRequested, this, [this](QPoint at) {
+        const int line = tree_->indexOfTopLevelItem(tree_->itemAt(at));
+        if (fixLabel(line).isEmpty()) return;
+        QMenu menu(this);
+        menu.addAction(tr("Fix: %1").arg(fixLabel(line)), this, [this, line] { fix(line); });
+        menu.exec(tree_->viewport()->mapToGlobal(at));
+    });
     setProblems({});
+}
+
+QString ChecksPanel::fixLabel(int i) const
+{
+    return i >= 0 && i < int(fixLabels_.size()) ? fixLabels_[std::size_t(i)] : QString();
+}
+
+bool ChecksPanel::fix(int i)
+{
+    if (fixLabel(i).isEmpty()) return false;
+    emit fixRequested(problems_[std::size_t(i)]);
+    return true;
+}
+
+void ChecksPanel::updateFixButton()
+{
+    const QString label = fixLabel(tree_->indexOfTopLevelItem(tree_->currentItem()));
+    fixButton_->setEnabled(!label.isEmpty());
+    fixButton_->setText(label.isEmpty() ? tr("Fix") : tr("Fix: %1").arg(label));
+    // Shown only while some line has a fix: the panel stays small otherwise.
+    fixButton_->setVisible(std::any_of(fixLabels_.begin(), fixLabels_.end(), [](const QString& l) { return !l.isEmpty(); }));
 }
 
 void ChecksPanel::setProblems(const tl::Problems& problems)
@@ -88,9 +168,12 @@ void ChecksPanel::setProblems(const tl::Problems& problems)
     // Errors first, then warnings, then notes; the order inside each group is kept.
     std::stable_sort(problems_.begin(), problems_.end(),
                      [](const tl::Problem& a, const tl::Problem& b) { return int(a.severity) < int(b.severity); });
+    fixLabels_.clear();
+    for (const auto& p : problems_) fixLabels_.push_back(fixLabeler_ ? fixLabeler_(p) : QString());
     tree_->clear();
     int counts[3] = {0, 0, 0};
-    for (const auto& p : problems_) {
+    for (std::size_t line = 0; line < problems_.size(); ++line) {
+        const tl::Problem& p = problems_[line];
         ++counts[int(p.severity)];
         auto* item = new QTreeWidgetItem(tree_);
         item->setIcon(0, severityIcon(p.severity));
@@ -98,6 +181,7 @@ void ChecksPanel::setProblems(const tl::Problems& problems)
         item->setText(1, whereText(p));
         QString text = QString::fromStdString(p.message);
         if (!p.hint.empty()) text += QLatin1Char('\n') + QString::fromStdString(p.hint);
+        if (!fixLabels_[line].isEmpty()) text += QLatin1Char('\n') + tr("One-click fix (Fix button): %1.").arg(fixLabels_[line]);
         item->setText(2, text);
         QString tip = text + QStringLiteral("\n[") + QString::fromStdString(p.code) + QLatin1Char(']');
         if (const QString why = codeExplanation(p.code); !why.isEmpty()) tip += QLatin1Char(' ') + why;
@@ -109,6 +193,12 @@ void ChecksPanel::setProblems(const tl::Problems& problems)
                               .arg(counts[0]).arg(counts[1]).arg(counts[2]));
     tree_->setVisible(!problems_.empty());
     emit emptinessChanged(problems_.empty());
+    // Lay the rows out now, with the column widths they will be drawn at, and repaint
+    // the whole list: rows of wrapped text must not keep the heights (or pixels) of
+    // the problems they replace (issue 13: a fixed problem stayed on screen).
+    tree_->doItemsLayout();
+    tree_->viewport()->update();
+    updateFixButton();
 }
 
 void ChecksPanel::activate(int i)

@@ -10,11 +10,15 @@
 #include <QLabel>
 #include <QMessageBox>
 #include <QPushButton>
+#include <QRegularExpression>
+#include <QStyle>
 #include <QVBoxLayout>
 
 #include "ui/document/project_document.h"
+#include "ui/style/value_marks.h"
 #include "ui/tables/cell_delegates.h"
 #include "ui/style/wrapping_row.h"
+#include "ui/widgets/removal_question.h"
 
 namespace tl::ui {
 
@@ -43,11 +47,26 @@ void EditingPage::setTableModel(ScenarioTableModel* model)
     fitColumns();
 }
 
+int EditingPage::headerWidthNeeded(int column) const
+{
+    // The header wraps at spaces, so its longest word (beside the kind icon, if any) must
+    // fit whole: a column narrower than that clips its own name.
+    QAbstractItemModel* m = view_->model();
+    const QFontMetrics fm(view_->horizontalHeader()->font());
+    int word = 0;
+    for (const QString& w : m->headerData(column, Qt::Horizontal).toString().split(QRegularExpression(QStringLiteral("\\s+")),
+                                                                                    Qt::SkipEmptyParts))
+        word = std::max(word, fm.horizontalAdvance(w));
+    const bool icon = !m->headerData(column, Qt::Horizontal, Qt::DecorationRole).isNull();
+    const int margins = 2 * view_->style()->pixelMetric(QStyle::PM_HeaderMargin, nullptr, view_->horizontalHeader()) + 8;
+    return word + (icon ? view_->horizontalHeader()->style()->pixelMetric(QStyle::PM_SmallIconSize) + 4 : 0) + margins;
+}
+
 void EditingPage::fitColumns()
 {
     view_->resizeColumnsToContents();
     for (int c = 0; c < view_->model()->columnCount(); ++c)
-        view_->setColumnWidth(c, std::clamp(view_->columnWidth(c), minWidth_, maxWidth_));
+        view_->setColumnWidth(c, std::max(std::clamp(view_->columnWidth(c), minWidth_, maxWidth_), headerWidthNeeded(c)));
 }
 
 namespace {
@@ -84,20 +103,27 @@ CompartmentsPage::CompartmentsPage(ProjectDocument* doc, QWidget* parent)
     view()->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
     fitColumns();
     view()->horizontalHeader()->setMinimumHeight(44);
+    // Room for an EE marked "1.156 — above 1" beside its icon (issue 13), after every reset.
+    auto widenEE = [this] {
+        const int ee = CompartmentTableModel::columnOf(tl::Param::EE);
+        const int need = view()->fontMetrics().horizontalAdvance(eeAboveMaxText(QStringLiteral("0.0000"), 1.0)) + 36;
+        view()->setColumnWidth(ee, std::max(view()->columnWidth(ee), need));
+    };
+    widenEE();
+    connect(model_, &QAbstractItemModel::modelReset, this, widenEE);
 
     auto addKind = [this](tl::CompartmentKind kind) {
         const QModelIndex cur = view()->currentIndex();
         const int at = cur.isValid() ? cur.row() + 1 : -1;
         const int row = model_->addCompartment(at, kind);
-        view()->goToCell(row, CompartmentTableModel::kNameColumn);
-        view()->edit(view()->currentIndex());
+        view()->startRowEntry(row, CompartmentTableModel::kNameColumn);  // name, then Tab or Enter to its values
     };
     connect(addProducer, &QPushButton::clicked, this, [=, this] { addKind(tl::CompartmentKind::Producer); });
     connect(addConsumer, &QPushButton::clicked, this, [=, this] { addKind(tl::CompartmentKind::Consumer); });
     connect(addPool, &QPushButton::clicked, this, [=, this] { addKind(tl::CompartmentKind::Detritus); });
     connect(remove, &QPushButton::clicked, this, [this] {
         const QList<int> rows = selectedRows();
-        if (rows.isEmpty()) return;
+        if (rows.isEmpty() || !confirmRemoval(this, doc_->model(), rows)) return;
         model_->removeCompartments(rows);
         emit message(tr("Removed %n compartment(s); Undo brings them back with their diet.", nullptr, int(rows.size())));
     });

@@ -27,6 +27,9 @@ public:
     QString key() const { return key_; }
     LedgerTableView* view() const { return view_; }
     ScenarioTableModel* tableModel() const { return view_->ledgerModel(); }
+    // Width at which the header of `column` shows its longest word whole (fitColumns
+    // never makes a column narrower).
+    int headerWidthNeeded(int column) const;
 
 signals:
     void message(const QString& text);  // for the status bar

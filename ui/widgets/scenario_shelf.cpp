@@ -9,8 +9,10 @@
 #include <QToolButton>
 #include <QVBoxLayout>
 
+#include "core/model/names.h"
 #include "ui/document/project_document.h"
 #include "ui/style/wrapping_row.h"
+#include "ui/widgets/name_dialog.h"
 
 namespace tl::ui {
 namespace {
@@ -88,8 +90,12 @@ QString ScenarioShelf::checkName(const QString& name, int except, QString* why) 
     }
     const auto& sc = doc_->project().scenarios;
     for (int i = 0; i < int(sc.size()); ++i)
-        if (i != except && qs(sc[std::size_t(i)].name) == n) {
-            if (why) *why = tr("A scenario called \"%1\" already exists.").arg(n);
+        if (i != except && tl::sameName(sc[std::size_t(i)].name, n.toStdString())) {
+            if (why)
+                *why = qs(sc[std::size_t(i)].name) == n
+                           ? tr("A scenario called \"%1\" already exists.").arg(n)
+                           : tr("A scenario called \"%1\" already exists; names must differ by more than capitals "
+                                "and spaces.").arg(qs(sc[std::size_t(i)].name));
             return {};
         }
     return n;
@@ -155,32 +161,32 @@ bool ScenarioShelf::deleteScenario(int index, QString* why)
     return true;
 }
 
+// The name dialogs check the name before closing: a clash is corrected in place.
 void ScenarioShelf::askNew()
 {
-    bool ok = false;
-    const QString name = QInputDialog::getText(this, tr("New scenario"), tr("Name:"), QLineEdit::Normal, tr("New scenario"), &ok);
-    QString why;
-    if (ok && !newScenario(name, &why)) QMessageBox::warning(this, tr("New scenario"), why);
+    NameDialog::ask(this, tr("New scenario"), tr("Name:"), tr("New scenario"), [this](const QString& name) {
+        QString why;
+        return newScenario(name, &why) ? QString() : why;
+    });
 }
 
 void ScenarioShelf::askDuplicate()
 {
     const int i = doc_->currentIndex();
-    bool ok = false;
-    const QString name = QInputDialog::getText(this, tr("Duplicate scenario"), tr("Name of the copy:"), QLineEdit::Normal,
-                                               tr("%1 (copy)").arg(qs(doc_->scenario().name)), &ok);
-    QString why;
-    if (ok && !duplicateScenario(i, name, &why)) QMessageBox::warning(this, tr("Duplicate scenario"), why);
+    NameDialog::ask(this, tr("Duplicate scenario"), tr("Name of the copy:"), tr("%1 (copy)").arg(qs(doc_->scenario().name)),
+                    [this, i](const QString& name) {
+                        QString why;
+                        return duplicateScenario(i, name, &why) ? QString() : why;
+                    });
 }
 
 void ScenarioShelf::askRename()
 {
     const int i = doc_->currentIndex();
-    bool ok = false;
-    const QString name = QInputDialog::getText(this, tr("Rename scenario"), tr("New name:"), QLineEdit::Normal,
-                                               qs(doc_->scenario().name), &ok);
-    QString why;
-    if (ok && !renameScenario(i, name, &why)) QMessageBox::warning(this, tr("Rename scenario"), why);
+    NameDialog::ask(this, tr("Rename scenario"), tr("New name:"), qs(doc_->scenario().name), [this, i](const QString& name) {
+        QString why;
+        return renameScenario(i, name, &why) ? QString() : why;
+    });
 }
 
 void ScenarioShelf::askDelete()

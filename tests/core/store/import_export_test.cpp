@@ -37,9 +37,10 @@ struct CliRun {
     std::string out, err;
 };
 
+// Runs tledger with `dir` as the working folder (a relative --out lands there).
 CliRun tledger(const TempDir& dir, const std::vector<std::string>& args)
 {
-    std::string cmd = quoted(TL_TLEDGER_EXE);
+    std::string cmd = "cd " + quoted(dir.path().string()) + " && " + quoted(TL_TLEDGER_EXE);
     // Appended piece by piece: GCC 12 gives a false -Wrestrict for " " + std::string.
     for (const std::string& a : args) cmd.append(" ").append(quoted(a));
     const fs::path out = dir / "stdout.txt", err = dir / "stderr.txt";
@@ -237,6 +238,33 @@ TEST(ImportExport, HtmlReportEscapesNamesAndStatesItsLimits)
     // A duplicate is a frozen copy (issue 13, item 6): never "derived", which suggests it follows.
     EXPECT_NE(text.find("Copied from scenario baseline"), std::string::npos);
     EXPECT_EQ(text.find("Derived from"), std::string::npos);
+}
+
+// `--out -` is standard output (issue 13, item 16): the bytes are those the same export
+// writes into a file, and no file named "-" appears; a CSV folder cannot go there.
+TEST(ImportExport, OutDashWritesToStandardOutput)
+{
+    TempDir dir;
+    const fs::path project = dir / "p.tledger";
+    ASSERT_TRUE(ProjectFile::create(project, testing::inventedProject()).file);
+    for (const std::string format : {"html", "scor", "json"}) {
+        SCOPED_TRACE(format);
+        std::vector<std::string> args{"export", project.string(), "--scenario", "baseline", "--format", format};
+        const fs::path file = dir / ("p." + format);
+        std::vector<std::string> toFile = args, toStdout = args;
+        toFile.insert(toFile.end(), {"--out", file.string()});
+        toStdout.insert(toStdout.end(), {"--out", "-"});
+        ASSERT_EQ(tledger(dir, toFile).code, 0);
+        const CliRun r = tledger(dir, toStdout);
+        ASSERT_EQ(r.code, 0) << r.err;
+        EXPECT_FALSE(fs::exists(dir / "-")) << "a file named '-' was written";
+        EXPECT_EQ(r.out, fileBytes(file));  // no time stamp of the export in any of them
+        EXPECT_FALSE(r.out.empty());
+    }
+    const CliRun csv = tledger(dir, {"export", project.string(), "--scenario", "baseline", "--format", "csv", "--out", "-"});
+    EXPECT_EQ(csv.code, 2);
+    EXPECT_NE(csv.err.find("standard output"), std::string::npos) << csv.err;
+    EXPECT_FALSE(fs::exists(dir / "-"));
 }
 
 TEST(ImportExport, ScorFileImportsAndExportsBack)

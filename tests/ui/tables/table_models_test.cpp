@@ -219,6 +219,10 @@ private slots:
         CompartmentTableModel table(&doc);
         QVERIFY(!table.setData(table.index(2, CompartmentTableModel::kNameColumn), QStringLiteral("Algae")));
         QVERIFY(table.lastRefusal().contains(QStringLiteral("unique")));
+        // Names equal up to capitals and spaces are refused too (issue 13); names are trimmed.
+        QVERIFY(!table.setData(table.index(2, CompartmentTableModel::kNameColumn), QStringLiteral(" algae ")));
+        QVERIFY(table.lastRefusal().contains(QStringLiteral("Algae")));
+        QCOMPARE(table.uniqueName(QStringLiteral("ALGAE")), QStringLiteral("ALGAE 2"));
         QVERIFY(!table.setData(table.index(2, CompartmentTableModel::kKindColumn), QStringLiteral("fish")));
         QVERIFY(table.setData(table.index(2, CompartmentTableModel::kNameColumn), QStringLiteral("Yellow perch")));
         QCOMPARE(doc.undoStack()->undoText(), QStringLiteral("Set the name of Perch to Yellow perch"));
