@@ -11,6 +11,7 @@
 #include <Eigen/SparseQR>
 
 #include "core/balance/balance_codes.h"
+#include "core/model/param_set.h"
 
 namespace tl {
 namespace {
@@ -22,7 +23,7 @@ double given(const Compartment& c, Param p) { return c.value(p).value_or(kNaN); 
 bool isPrivate(Unknown u) { return u == Unknown::EE || u == Unknown::PB; }
 bool isCoupled(Unknown u) { return u == Unknown::Biomass || u == Unknown::QB || u == Unknown::QBTiedPB; }
 
-std::string joinSymbols(const std::vector<Param>& params)
+std::string joinSymbols(const ParamSet& params)
 {
     std::string out;
     for (Param p : params) {
@@ -92,9 +93,16 @@ double productionCoefficient(Unknown u, const BalanceInputs& in, const BalanceVa
 
 BalanceInputs BalanceInputs::fromModel(const Model& model)
 {
+    BalanceInputs in;
+    in.assign(model);
+    return in;
+}
+
+void BalanceInputs::assign(const Model& model)
+{
     const std::size_t n = model.size();
     const auto en = static_cast<Eigen::Index>(n);
-    BalanceInputs in;
+    BalanceInputs& in = *this;
     for (Eigen::VectorXd* v : {&in.biomass, &in.pb, &in.qb, &in.ee, &in.pq})
         v->setConstant(en, kNaN);
     for (Eigen::VectorXd* v : {&in.unassim, &in.catchTotal, &in.deadDiscards, &in.netEmigration,
@@ -163,39 +171,48 @@ BalanceInputs BalanceInputs::fromModel(const Model& model)
     for (std::size_t f = 0; f < model.fleets().size(); ++f)
         for (std::size_t i = 0; i < n; ++i) discardEntries += model.fleet(f).discards[i] != 0.0;
     in.discardsToPool.reserve(static_cast<Eigen::Index>(discardEntries));
+    std::vector<double> deadToPool;  // one pool's dead discards, by source
     for (std::size_t d = 0; d < n; ++d) {
         in.discardsToPool.startVec(static_cast<Eigen::Index>(d));
         if (model.compartment(d).kind != CompartmentKind::Detritus || discardEntries == 0) continue;
-        for (std::size_t i = 0; i < n; ++i) {
-            double dead = 0.0;
-            bool any = false;
-            for (std::size_t f = 0; f < model.fleets().size(); ++f)
-                if (discardPool[f] == d && model.fleet(f).discards[i] != 0.0) {
-                    dead += model.fleet(f).discards[i] * (1.0 - model.fleet(f).discardSurvival[i]);
-                    any = true;
-                }
-            if (any && dead != 0.0) in.discardsToPool.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = dead;
+        deadToPool.assign(n, 0.0);
+        for (std::size_t f = 0; f < model.fleets().size(); ++f) {
+            if (discardPool[f] != d) continue;
+            const Fleet& fleet = model.fleet(f);
+            for (std::size_t i = 0; i < n; ++i)
+                if (fleet.discards[i] != 0.0) deadToPool[i] += fleet.discards[i] * (1.0 - fleet.discardSurvival[i]);
         }
+        for (std::size_t i = 0; i < n; ++i)
+            if (deadToPool[i] != 0.0) in.discardsToPool.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = deadToPool[i];
     }
     in.discardsToPool.finalize();
-    return in;
 }
 
 BalancePlan BalancePlan::build(const Model& model)
 {
     BalancePlan plan;
+    plan.rebuild(model);
+    return plan;
+}
+
+void BalancePlan::rebuild(const Model& model)
+{
+    BalancePlan& plan = *this;
     const std::size_t n = model.size();
-    plan.kinds_.resize(n);
-    plan.unknown_.assign(n, Unknown::None);
-    plan.standIn_.assign(n, PqStandIn::None);
-    plan.rowOf_.assign(n, -1);
-    plan.colOf_.assign(n, -1);
-    for (std::vector<std::size_t>* v : {&plan.rowCompartment_, &plan.colCompartment_, &plan.living_})
-        v->reserve(n);  // one allocation each: the balance sheet of a small model is mostly bookkeeping
+    // Start empty, keeping the storage of an earlier build.
+    for (std::vector<std::size_t>* v : {&rowCompartment_, &colCompartment_, &pools_, &coupled_, &reducedRows_, &private_})
+        v->clear();
+    uncoupledChecks_ = 0;
+    method_ = Method::None;
+    pattern_.resize(0, 0);
+    problems_.clear();
+    plan.slots_.assign(n, Slot{});
+    for (std::vector<std::size_t>* v : {&plan.rowCompartment_, &plan.colCompartment_})
+        v->reserve(n);  // one allocation each
 
     for (std::size_t i = 0; i < n; ++i) {
         const Compartment& c = model.compartment(i);
-        plan.kinds_[i] = c.kind;
+        plan.slots_[i].kind = c.kind;
         if (c.kind == CompartmentKind::Detritus) {
             plan.pools_.push_back(i);
             if (model.hasExplicitRouting(i))
@@ -206,8 +223,7 @@ BalancePlan BalancePlan::build(const Model& model)
                                           "Remove the routing rows whose source is a detritus pool."));
             continue;
         }
-        plan.living_.push_back(i);
-        plan.rowOf_[i] = static_cast<int>(plan.rowCompartment_.size());
+        plan.slots_[i].row = static_cast<int>(plan.rowCompartment_.size());
         plan.rowCompartment_.push_back(i);
         const bool consumer = c.kind == CompartmentKind::Consumer;
 
@@ -216,30 +232,27 @@ BalancePlan BalancePlan::build(const Model& model)
         bool tied = false;
         if (consumer && c.value(Param::PQ)) {
             if (missPB && !missQB) {
-                plan.standIn_[i] = PqStandIn::PBFromPQ;
+                plan.slots_[i].standIn = PqStandIn::PBFromPQ;
                 missPB = false;
             } else if (missQB && !missPB) {
-                plan.standIn_[i] = PqStandIn::QBFromPQ;
+                plan.slots_[i].standIn = PqStandIn::QBFromPQ;
                 missQB = false;
             } else if (missPB && missQB) {
                 tied = true;
                 missPB = false;
             }
-            if ((plan.standIn_[i] != PqStandIn::None || tied) && !(*c.value(Param::PQ) > 0.0))
+            if ((plan.slots_[i].standIn != PqStandIn::None || tied) && !(*c.value(Param::PQ) > 0.0))
                 plan.problems_.push_back(code::makeProblem(code::kInvalidValue, Severity::Error, c.name, "pq",
                                           "P/Q of '" + c.name + "' must be above 0 to stand in for P/B or Q/B.",
                                           "Enter a positive P/Q, or give P/B and Q/B."));
         }
-        std::vector<Param> missing;  // allocates only when something is missing
-        if (missB || missPB || missQB || missEE) {
-            missing.reserve(4);
-            if (missB) missing.push_back(Param::Biomass);
-            if (missPB) missing.push_back(Param::PB);
-            if (missQB) missing.push_back(Param::QB);
-            if (missEE) missing.push_back(Param::EE);
-        }
+        ParamSet missing;
+        if (missB) missing.insert(Param::Biomass);
+        if (missPB) missing.insert(Param::PB);
+        if (missQB) missing.insert(Param::QB);
+        if (missEE) missing.insert(Param::EE);
         if (missing.size() >= 2) {
-            plan.problems_.push_back(code::makeProblem(code::kUnderdetermined, Severity::Error, c.name, std::string(paramKey(missing.front())),
+            plan.problems_.push_back(code::makeProblem(code::kUnderdetermined, Severity::Error, c.name, std::string(paramKey(*missing.begin())),
                  "'" + c.name + "' has " + std::to_string(missing.size()) + " unknowns (" + joinSymbols(missing) +
                      "); at most one of B, P/B, Q/B, EE can be solved.",
                  "Enter all but one of them (P/Q can stand in for P/B or Q/B)."));
@@ -247,7 +260,7 @@ BalancePlan BalancePlan::build(const Model& model)
         }
         Unknown u = Unknown::None;
         if (missing.size() == 1) {
-            switch (missing.front()) {
+            switch (*missing.begin()) {
             case Param::Biomass: u = Unknown::Biomass; break;
             case Param::PB: u = Unknown::PB; break;
             case Param::QB: u = tied ? Unknown::QBTiedPB : Unknown::QB; break;
@@ -258,15 +271,15 @@ BalancePlan BalancePlan::build(const Model& model)
             // P/B and Q/B tied by P/Q plus another unknown: two unknowns after all.
             plan.problems_.push_back(code::makeProblem(code::kUnderdetermined, Severity::Error, c.name, "pb",
                                       "'" + c.name + "' has 2 unknowns (P/B and Q/B tied by P/Q, and " +
-                                          std::string(paramSymbol(missing.front())) +
+                                          std::string(paramSymbol(*missing.begin())) +
                                           "); at most one of B, P/B, Q/B, EE can be solved.",
                                       "Enter P/B or Q/B, or the other missing value."));
             continue;
         }
         if (tied && missing.empty()) u = Unknown::QBTiedPB;
-        plan.unknown_[i] = u;
+        plan.slots_[i].unknown = u;
         if (u != Unknown::None) {
-            plan.colOf_[i] = static_cast<int>(plan.colCompartment_.size());
+            plan.slots_[i].column = static_cast<int>(plan.colCompartment_.size());
             plan.colCompartment_.push_back(i);
         }
     }
@@ -277,27 +290,25 @@ BalancePlan BalancePlan::build(const Model& model)
     // The reduced system: coupled unknowns as columns; as rows, the equations without
     // a private unknown that some coupled unknown enters (its own production, or the
     // consumption of a coupled predator).
-    plan.reducedColOf_.assign(n, -1);
-    plan.reducedRowOf_.assign(n, -1);
     plan.private_.reserve(plan.colCompartment_.size());
     std::vector<bool> entered(n, false);
-    for (std::size_t i : plan.living_) {
-        const Unknown u = plan.unknown_[i];
+    for (std::size_t i : plan.rowCompartment_) {
+        const Unknown u = plan.slots_[i].unknown;
         if (isPrivate(u)) plan.private_.push_back(i);
         if (!isCoupled(u)) continue;
-        plan.reducedColOf_[i] = static_cast<int>(plan.coupled_.size());
+        plan.slots_[i].reducedColumn = static_cast<int>(plan.coupled_.size());
         plan.coupled_.push_back(i);
         if (u != Unknown::QB) entered[i] = true;
         for (const auto& [prey, dc] : model.dietRow(i))
-            if (dc != 0.0 && isLiving(plan.kinds_[prey]) && !isPrivate(plan.unknown_[prey])) entered[prey] = true;
+            if (dc != 0.0 && isLiving(plan.slots_[prey].kind) && !isPrivate(plan.slots_[prey].unknown)) entered[prey] = true;
     }
-    for (std::size_t i : plan.living_) {
-        if (isPrivate(plan.unknown_[i])) continue;
+    for (std::size_t i : plan.rowCompartment_) {
+        if (isPrivate(plan.slots_[i].unknown)) continue;
         if (!entered[i]) {
             ++plan.uncoupledChecks_;
             continue;
         }
-        plan.reducedRowOf_[i] = static_cast<int>(plan.reducedRows_.size());
+        plan.slots_[i].reducedRow = static_cast<int>(plan.reducedRows_.size());
         plan.reducedRows_.push_back(i);
     }
     const std::size_t m = plan.reducedRows_.size(), k = plan.coupled_.size();
@@ -307,23 +318,28 @@ BalancePlan BalancePlan::build(const Model& model)
     if (plan.method_ == Method::SparseLU || plan.method_ == Method::SparseQR) {
         std::vector<Eigen::Triplet<double, int>> entries;
         for (std::size_t j : plan.coupled_) {
-            const int col = plan.reducedColOf_[j];
-            if (plan.unknown_[j] != Unknown::QB) entries.emplace_back(plan.reducedRowOf_[j], col, 1.0);
+            const int col = plan.slots_[j].reducedColumn;
+            if (plan.slots_[j].unknown != Unknown::QB) entries.emplace_back(plan.slots_[j].reducedRow, col, 1.0);
             for (const auto& [prey, dc] : model.dietRow(j))
-                if (dc != 0.0 && plan.reducedRowOf_[prey] >= 0) entries.emplace_back(plan.reducedRowOf_[prey], col, 1.0);
+                if (dc != 0.0 && plan.slots_[prey].reducedRow >= 0) entries.emplace_back(plan.slots_[prey].reducedRow, col, 1.0);
         }
         plan.pattern_.resize(static_cast<Eigen::Index>(m), static_cast<Eigen::Index>(k));
         plan.pattern_.setFromTriplets(entries.begin(), entries.end());
         plan.pattern_.makeCompressed();
     }
-    return plan;
 }
 
 BalanceWorkspace BalancePlan::makeWorkspace() const
 {
+    BalanceWorkspace ws;
+    sizeWorkspace(ws);
+    return ws;
+}
+
+void BalancePlan::sizeWorkspace(BalanceWorkspace& ws) const
+{
     const auto m = static_cast<Eigen::Index>(reducedRows_.size());
     const auto k = static_cast<Eigen::Index>(coupled_.size());
-    BalanceWorkspace ws;
     ws.b.setZero(m);
     ws.x.setZero(k);
     ws.y.setZero(k);
@@ -339,11 +355,11 @@ BalanceWorkspace BalancePlan::makeWorkspace() const
     case Method::None: break;
     case Method::DenseLU:
         ws.a.setZero(m, k);
-        ws.lu = Eigen::PartialPivLU<Eigen::MatrixXd>(k);
+        if (ws.lu.rows() != k) ws.lu = Eigen::PartialPivLU<Eigen::MatrixXd>(k);
         break;
     case Method::DenseQR:
         ws.a.setZero(m, k);
-        ws.qr = Eigen::ColPivHouseholderQR<Eigen::MatrixXd>(m, k);
+        if (ws.qr.rows() != m || ws.qr.cols() != k) ws.qr = Eigen::ColPivHouseholderQR<Eigen::MatrixXd>(m, k);
         break;
     case Method::SparseLU:
         ws.sparseA = pattern_;
@@ -356,18 +372,24 @@ BalanceWorkspace BalancePlan::makeWorkspace() const
         if (m >= k) ws.sparseQr->analyzePattern(ws.sparseA);
         break;
     }
-    return ws;
 }
 
 BalanceValues BalancePlan::makeValues() const
 {
-    const auto n = static_cast<Eigen::Index>(compartmentCount());
     BalanceValues v;
+    sizeValues(v);
+    return v;
+}
+
+void BalancePlan::sizeValues(BalanceValues& v) const
+{
+    const auto n = static_cast<Eigen::Index>(compartmentCount());
+    v.status = NumericStatus::Solved;
+    v.conditioning = 1.0;
     for (Eigen::VectorXd* x : {&v.biomass, &v.pb, &v.qb, &v.ee, &v.production, &v.consumption, &v.predation,
                                &v.flowToDetritus, &v.residual, &v.residualScale, &v.detritusInflow, &v.detritusEE,
                                &v.detritusExport})
         x->setZero(n);
-    return v;
 }
 
 // Fills C2 and b2 from the given values; out.consumption holds the consumption of
@@ -387,18 +409,18 @@ void BalancePlan::assembleReduced(const BalanceInputs& in, const BalanceValues& 
     for (std::size_t r = 0; r < reducedRows_.size(); ++r) {
         const auto i = static_cast<Eigen::Index>(reducedRows_[r]);
         double rhs = in.catchTotal[i] + in.netEmigration[i] + in.biomassAccum[i] + out.predation[i];
-        if (unknown_[reducedRows_[r]] == Unknown::None || unknown_[reducedRows_[r]] == Unknown::QB)
+        if (slots_[reducedRows_[r]].unknown == Unknown::None || slots_[reducedRows_[r]].unknown == Unknown::QB)
             rhs -= out.biomass[i] * out.pb[i] * out.ee[i];
         ws.b[static_cast<Eigen::Index>(r)] = rhs;
     }
     for (std::size_t col = 0; col < coupled_.size(); ++col) {
         const std::size_t j = coupled_[col];
         const auto jj = static_cast<Eigen::Index>(j);
-        const Unknown u = unknown_[j];
-        if (u != Unknown::QB) add(reducedRowOf_[j], static_cast<int>(col), productionCoefficient(u, in, out, jj));
+        const Unknown u = slots_[j].unknown;
+        if (u != Unknown::QB) add(slots_[j].reducedRow, static_cast<int>(col), productionCoefficient(u, in, out, jj));
         const double perDiet = consumptionCoefficient(u, out, jj);
         for (SparseColumns::InnerIterator it(in.diet, jj); it; ++it)
-            if (const int r = reducedRowOf_[static_cast<std::size_t>(it.index())]; r >= 0)
+            if (const int r = slots_[static_cast<std::size_t>(it.index())].reducedRow; r >= 0)
                 add(r, static_cast<int>(col), -it.value() * perDiet);
     }
 }
@@ -546,14 +568,14 @@ void BalancePlan::backSubstitute(const BalanceInputs& in, BalanceValues& out) co
     for (std::size_t i : private_) {
         const auto ii = static_cast<Eigen::Index>(i);
         const double demand = out.predation[ii] + in.catchTotal[ii] + in.netEmigration[ii] + in.biomassAccum[ii];
-        if (unknown_[i] == Unknown::EE) out.ee[ii] = demand / (out.biomass[ii] * out.pb[ii]);
+        if (slots_[i].unknown == Unknown::EE) out.ee[ii] = demand / (out.biomass[ii] * out.pb[ii]);
         else out.pb[ii] = demand / (out.biomass[ii] * out.ee[ii]);
     }
 }
 
 void BalancePlan::completeFlows(const BalanceInputs& in, BalanceValues& out) const
 {
-    for (std::size_t i : living_) {
+    for (std::size_t i : rowCompartment_) {
         const auto ii = static_cast<Eigen::Index>(i);
         out.production[ii] = out.biomass[ii] * out.pb[ii];
         const double used = out.production[ii] * out.ee[ii];
@@ -591,9 +613,9 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
         v->setZero();
     for (Eigen::Index i = 0; i < n; ++i) {
         const auto s = static_cast<std::size_t>(i);
-        if (kinds_[s] != CompartmentKind::Consumer) out.qb[i] = 0.0;
-        if (standIn_[s] == PqStandIn::PBFromPQ) out.pb[i] = in.pq[i] * in.qb[i];
-        if (standIn_[s] == PqStandIn::QBFromPQ) out.qb[i] = in.pb[i] / in.pq[i];
+        if (slots_[s].kind != CompartmentKind::Consumer) out.qb[i] = 0.0;
+        if (slots_[s].standIn == PqStandIn::PBFromPQ) out.pb[i] = in.pq[i] * in.qb[i];
+        if (slots_[s].standIn == PqStandIn::QBFromPQ) out.qb[i] = in.pb[i] / in.pq[i];
     }
     out.status = NumericStatus::Solved;
     out.conditioning = 1.0;
@@ -601,7 +623,7 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
     // 2. A private unknown with a zero coefficient leaves its column of A empty.
     for (std::size_t i : private_) {
         const auto ii = static_cast<Eigen::Index>(i);
-        const double coefficient = out.biomass[ii] * (unknown_[i] == Unknown::EE ? out.pb[ii] : out.ee[ii]);
+        const double coefficient = out.biomass[ii] * (slots_[i].unknown == Unknown::EE ? out.pb[ii] : out.ee[ii]);
         if (!(coefficient != 0.0) || !std::isfinite(coefficient)) {
             out.status = NumericStatus::Singular;
             out.conditioning = 0.0;
@@ -609,9 +631,9 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
     }
 
     // 3. Consumption of consumers with B and Q/B known, and the predation it exerts.
-    for (std::size_t i : living_) {
+    for (std::size_t i : rowCompartment_) {
         const auto ii = static_cast<Eigen::Index>(i);
-        out.consumption[ii] = isCoupled(unknown_[i]) ? 0.0 : out.biomass[ii] * out.qb[ii];
+        out.consumption[ii] = isCoupled(slots_[i].unknown) ? 0.0 : out.biomass[ii] * out.qb[ii];
     }
 
     // 4. The coupled unknowns from the reduced system.
@@ -624,7 +646,7 @@ void BalancePlan::solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceVa
             const std::size_t i = coupled_[c];
             const auto ii = static_cast<Eigen::Index>(i);
             const double x = ws.x[static_cast<Eigen::Index>(c)];
-            switch (unknown_[i]) {
+            switch (slots_[i].unknown) {
             case Unknown::Biomass: out.biomass[ii] = x; break;
             case Unknown::QB: out.qb[ii] = x; break;
             case Unknown::QBTiedPB:

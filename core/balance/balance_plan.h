@@ -76,6 +76,8 @@ struct BalanceInputs {
     SparseColumns discardsToPool;    // discardsToPool(source, pool) = dead discards of source into pool
 
     static BalanceInputs fromModel(const Model& model);
+    // The same into this object, reusing its storage when the sizes are unchanged.
+    void assign(const Model& model);
     std::size_t size() const { return static_cast<std::size_t>(biomass.size()); }
 };
 
@@ -127,25 +129,31 @@ public:
     // system; structural problems (two or more unknowns, no detritus pool, ignored
     // routing) go to problems().
     static BalancePlan build(const Model& model);
+    // The same into this plan, reusing its storage (BalanceScratch).
+    void rebuild(const Model& model);
 
     BalanceWorkspace makeWorkspace() const;
     BalanceValues makeValues() const;
+    // Size an existing workspace or values for this plan; storage of the right size is
+    // kept (a sparse workspace is always analysed anew: its pattern may differ).
+    void sizeWorkspace(BalanceWorkspace& ws) const;
+    void sizeValues(BalanceValues& values) const;
 
     // Numeric step. Requires !hasStructuralErrors() and inputs of size
     // compartmentCount() with the model's diet pattern. No heap allocation on the dense
     // paths once ws and out come from this plan.
     void solve(const BalanceInputs& in, BalanceWorkspace& ws, BalanceValues& out) const;
 
-    std::size_t compartmentCount() const { return kinds_.size(); }
+    std::size_t compartmentCount() const { return slots_.size(); }
     // The full system (one row per living compartment, one column per unknown), as
     // the equations are written; the solve works on its reduced form.
     std::size_t equationCount() const { return rowCompartment_.size(); }
     std::size_t unknownCount() const { return colCompartment_.size(); }
-    Unknown unknownOf(std::size_t compartment) const { return unknown_[compartment]; }
-    PqStandIn pqStandInOf(std::size_t compartment) const { return standIn_[compartment]; }
+    Unknown unknownOf(std::size_t compartment) const { return slots_[compartment].unknown; }
+    PqStandIn pqStandInOf(std::size_t compartment) const { return slots_[compartment].standIn; }
     // Equation row / unknown column of a compartment in the full system, or -1.
-    int rowOf(std::size_t compartment) const { return rowOf_[compartment]; }
-    int columnOf(std::size_t compartment) const { return colOf_[compartment]; }
+    int rowOf(std::size_t compartment) const { return slots_[compartment].row; }
+    int columnOf(std::size_t compartment) const { return slots_[compartment].column; }
     std::size_t compartmentOfColumn(std::size_t col) const { return colCompartment_[col]; }
     std::size_t compartmentOfRow(std::size_t row) const { return rowCompartment_[row]; }
     const std::vector<std::size_t>& pools() const { return pools_; }
@@ -158,8 +166,8 @@ public:
     const std::vector<std::size_t>& reducedRows() const { return reducedRows_; }
     const std::vector<std::size_t>& privateUnknowns() const { return private_; }
     std::size_t uncoupledCheckCount() const { return uncoupledChecks_; }
-    int reducedRowOf(std::size_t compartment) const { return reducedRowOf_[compartment]; }
-    int reducedColumnOf(std::size_t compartment) const { return reducedColOf_[compartment]; }
+    int reducedRowOf(std::size_t compartment) const { return slots_[compartment].reducedRow; }
+    int reducedColumnOf(std::size_t compartment) const { return slots_[compartment].reducedColumn; }
     bool fullSystemIsSquare() const { return equationCount() == unknownCount(); }
     Method method() const { return method_; }
 
@@ -183,19 +191,35 @@ private:
     void backSubstitute(const BalanceInputs& in, BalanceValues& out) const;
     void completeFlows(const BalanceInputs& in, BalanceValues& out) const;
 
-    std::vector<CompartmentKind> kinds_;
-    std::vector<Unknown> unknown_;
-    std::vector<PqStandIn> standIn_;
-    std::vector<int> rowOf_, colOf_;
-    std::vector<std::size_t> rowCompartment_, colCompartment_;
-    std::vector<std::size_t> living_, pools_;
+    // What the plan decided for one compartment (one record each: a small model's
+    // plan is mostly bookkeeping, and one vector is one allocation).
+    struct Slot {
+        CompartmentKind kind = CompartmentKind::Consumer;
+        Unknown unknown = Unknown::None;
+        PqStandIn standIn = PqStandIn::None;
+        int row = -1, column = -1;                // in the full system, or -1
+        int reducedRow = -1, reducedColumn = -1;  // in the reduced system, or -1
+    };
+    std::vector<Slot> slots_;
+    std::vector<std::size_t> rowCompartment_, colCompartment_;  // rows: the living compartments, in order
+    std::vector<std::size_t> pools_;
     // Reduced system.
     std::vector<std::size_t> coupled_, reducedRows_, private_;
-    std::vector<int> reducedRowOf_, reducedColOf_;  // per compartment, or -1
     std::size_t uncoupledChecks_ = 0;
     Method method_ = Method::None;
     SparseColumns pattern_;  // structure of C2 (values unused), for the sparse path
     Problems problems_;
+};
+
+// The buffers of one solveBalance (plan, numeric inputs, workspace, values), kept by a
+// caller that solves again and again (reconcile's fits, re-solving after each edit): a
+// later solveBalance(model, scratch) on a model of the same size reuses their storage
+// instead of allocating it. Holds nothing a result refers to; one per thread.
+struct BalanceScratch {
+    BalancePlan plan;
+    BalanceInputs inputs;
+    BalanceWorkspace workspace;
+    BalanceValues values;
 };
 
 }  // namespace tl

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "core/model/compartment.h"
+#include "core/model/param_set.h"
 #include "core/model/problem.h"
 
 namespace tl {
@@ -26,7 +27,7 @@ struct CompartmentBalance {
     // Completed inputs (given or solved).
     double biomass = kNotApplicable, pb = kNotApplicable, qb = kNotApplicable, ee = kNotApplicable;
     double pq = kNotApplicable, unassim = kNotApplicable;
-    std::vector<Param> solved;  // which of the above were solved rather than given
+    ParamSet solved;  // which of the above were solved rather than given
 
     // Derived flows (currency/area/year) and rates (/year).
     double production = kNotApplicable;     // P = B P/B

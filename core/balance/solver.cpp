@@ -175,23 +175,22 @@ void reportSingular(const Model& model, const BalancePlan& plan, const BalanceVa
             "Enter one of these values instead of solving for it."));
 }
 
-std::vector<Param> solvedParams(Unknown u, PqStandIn s)
+ParamSet solvedParams(Unknown u, PqStandIn s)
 {
-    std::vector<Param> out;
-    if (s == PqStandIn::PBFromPQ) out.push_back(Param::PB);
-    if (s == PqStandIn::QBFromPQ) out.push_back(Param::QB);
+    ParamSet out;
+    if (s == PqStandIn::PBFromPQ) out.insert(Param::PB);
+    if (s == PqStandIn::QBFromPQ) out.insert(Param::QB);
     switch (u) {
-    case Unknown::Biomass: out.push_back(Param::Biomass); break;
-    case Unknown::PB: out.push_back(Param::PB); break;
-    case Unknown::QB: out.push_back(Param::QB); break;
-    case Unknown::EE: out.push_back(Param::EE); break;
+    case Unknown::Biomass: out.insert(Param::Biomass); break;
+    case Unknown::PB: out.insert(Param::PB); break;
+    case Unknown::QB: out.insert(Param::QB); break;
+    case Unknown::EE: out.insert(Param::EE); break;
     case Unknown::QBTiedPB:
-        out.push_back(Param::PB);
-        out.push_back(Param::QB);
+        out.insert(Param::PB);
+        out.insert(Param::QB);
         break;
     case Unknown::None: break;
     }
-    std::sort(out.begin(), out.end());
     return out;
 }
 
@@ -359,16 +358,25 @@ BalanceSheet balanceSheetFromValues(const Model& model, const BalancePlan& plan,
 
 BalanceSheet solveBalance(const Model& model)
 {
-    const BalancePlan plan = BalancePlan::build(model);
+    BalanceScratch scratch;
+    return solveBalance(model, scratch);
+}
+
+BalanceSheet solveBalance(const Model& model, BalanceScratch& scratch)
+{
+    scratch.plan.rebuild(model);
+    const BalancePlan& plan = scratch.plan;
     BalanceSheet sheet = startSheet(model, plan);
     if (plan.hasStructuralErrors()) {
         sheet.status = BalanceStatus::Invalid;
         return sheet;
     }
-    const BalanceInputs inputs = BalanceInputs::fromModel(model);
-    BalanceWorkspace ws = plan.makeWorkspace();
-    BalanceValues values = plan.makeValues();
-    plan.solve(inputs, ws, values);
+    scratch.inputs.assign(model);
+    plan.sizeWorkspace(scratch.workspace);
+    plan.sizeValues(scratch.values);
+    const BalanceWorkspace& ws = scratch.workspace;
+    const BalanceValues& values = scratch.values;
+    plan.solve(scratch.inputs, scratch.workspace, scratch.values);
     if (values.status == NumericStatus::Singular) {
         sheet.conditioning = values.conditioning;
         reportSingular(model, plan, values, ws, sheet);

@@ -30,6 +30,11 @@ inline constexpr double kIllConditioned = 1e-8;
 
 BalanceSheet solveBalance(const Model& model);
 
+// The same, reusing the buffers in `scratch` (balance_plan.h) from an earlier call: for
+// callers that solve many times. The sheet is identical to solveBalance(model)'s.
+struct BalanceScratch;
+BalanceSheet solveBalance(const Model& model, BalanceScratch& scratch);
+
 class BalancePlan;
 struct BalanceValues;
 // The sheet of a numeric step's solved values (status Solved): derived outputs, trophic

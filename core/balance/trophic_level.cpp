@@ -21,23 +21,27 @@ void solveLoop(const SparseColumns& share, std::span<const int> members, std::ve
 {
     const auto k = static_cast<Eigen::Index>(members.size());
     for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(members[static_cast<std::size_t>(r)])] = static_cast<int>(r);
-    std::vector<Eigen::Triplet<double, int>> entries;
+    // Row r: the loop's entries go to a(r, c) (through addInLoop), the outside prey to b.
     Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
-    for (Eigen::Index r = 0; r < k; ++r) {
-        entries.emplace_back(static_cast<int>(r), static_cast<int>(r), 1.0);
-        for (SparseColumns::InnerIterator it(share, members[static_cast<std::size_t>(r)]); it; ++it) {
-            const int c = local[static_cast<std::size_t>(it.index())];
-            if (c >= 0) entries.emplace_back(static_cast<int>(r), c, -it.value());
-            else b[r] += it.value() * tl[it.index()];
+    const auto assemble = [&](auto addInLoop) {
+        for (Eigen::Index r = 0; r < k; ++r) {
+            addInLoop(static_cast<int>(r), static_cast<int>(r), 1.0);
+            for (SparseColumns::InnerIterator it(share, members[static_cast<std::size_t>(r)]); it; ++it) {
+                const int c = local[static_cast<std::size_t>(it.index())];
+                if (c >= 0) addInLoop(static_cast<int>(r), c, -it.value());
+                else b[r] += it.value() * tl[it.index()];
+            }
         }
-    }
+    };
     // Nonsingular: every chain reaches a fixed node. Small loops dense, large sparse.
     Eigen::VectorXd levels;
     if (k <= kDenseBlock) {
         Eigen::MatrixXd a = Eigen::MatrixXd::Zero(k, k);
-        for (const auto& e : entries) a(e.row(), e.col()) += e.value();
+        assemble([&a](int r, int c, double v) { a(r, c) += v; });
         levels = a.partialPivLu().solve(b);
     } else {
+        std::vector<Eigen::Triplet<double, int>> entries;
+        assemble([&entries](int r, int c, double v) { entries.emplace_back(r, c, v); });
         SparseColumns a(k, k);
         a.setFromTriplets(entries.begin(), entries.end());
         Eigen::SparseLU<SparseColumns, Eigen::COLAMDOrdering<int>> lu(a);

@@ -1,6 +1,7 @@
 // Mass-balance throughput (issue 9): the allocation-free numeric step
-// (BalancePlan::solve, what the ensemble calls per draw) and the full solveBalance
-// (plan + step + checks + derived outputs + trophic levels) on the synthetic models
+// (BalancePlan::solve, what the ensemble calls per draw), the full solveBalance
+// (plan + step + checks + derived outputs + trophic levels), and the full solve of a
+// caller that keeps its buffers (solveBalance(model, scratch)) on the synthetic models
 // (synthetic_model.h) of 10 to 5000 compartments in the three unknown mixes, plus
 // the memory of one full solve of 5000 compartments. Prints figures; asserts nothing.
 //   balance_bench [--benchmark_filter=solve_balance/ee/] [--benchmark_format=json]
@@ -64,6 +65,25 @@ void fullSolve(benchmark::State& state, std::size_t n, UnknownMix mix)
     state.counters["peak_rss_mib"] = peakRssMiB();
 }
 
+// The full solve called again and again with its buffers kept in a BalanceScratch (what
+// reconcile or a re-solve after each edit pays per call).
+void fullSolveKept(benchmark::State& state, std::size_t n, UnknownMix mix)
+{
+    tl::BalanceScratch scratch;
+    const auto oneCall = [mix, &scratch](std::size_t size) {
+        benchmark::DoNotOptimize(tl::solveBalance(cachedModel(size, mix).model, scratch).rows.data());
+    };
+    if (skipIfTooSlow(state, benchName("solve_balance_kept", mix, 0), n, oneCall)) return;
+    const SyntheticModel& s = cachedModel(n, mix);
+    tl::BalanceStatus status = tl::BalanceStatus::Invalid;
+    for (auto _ : state) {
+        const tl::BalanceSheet sheet = tl::solveBalance(s.model, scratch);
+        status = sheet.status;
+        benchmark::DoNotOptimize(sheet.rows.data());
+    }
+    state.counters["balanced"] = status == tl::BalanceStatus::Balanced;
+}
+
 // One solve of the largest model in a process of its own (run it alone with
 // --benchmark_filter=^solve_memory/): the peak resident set of model + solve. Never
 // skipped: it is the memory figure of issue 9, however long the solve takes.
@@ -88,6 +108,8 @@ int main(int argc, char** argv)
             benchmark::RegisterBenchmark(benchName("numeric_step", mix, n).c_str(), numericStep, n, mix)
                 ->Unit(benchmark::kMicrosecond);
             benchmark::RegisterBenchmark(benchName("solve_balance", mix, n).c_str(), fullSolve, n, mix)
+                ->Unit(benchmark::kMicrosecond);
+            benchmark::RegisterBenchmark(benchName("solve_balance_kept", mix, n).c_str(), fullSolveKept, n, mix)
                 ->Unit(benchmark::kMicrosecond);
         }
     for (UnknownMix mix : kMixes)

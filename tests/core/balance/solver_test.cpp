@@ -61,7 +61,7 @@ TEST(SolverChain, TenPercentChainGivesHandWorkedEEProductionAndLevels)
         EXPECT_NEAR(sheet.rows[i].production, production[i], 1e-12 * production[i]) << sheet.rows[i].name;
         EXPECT_NEAR(sheet.rows[i].tl, i + 1.0, 1e-12) << sheet.rows[i].name;
         EXPECT_NEAR(sheet.rows[i].oi, 0.0, 1e-12) << sheet.rows[i].name;
-        EXPECT_EQ(sheet.rows[i].solved, std::vector<Param>{Param::EE});
+        EXPECT_EQ(sheet.rows[i].solved, ParamSet{Param::EE});
     }
     EXPECT_NEAR(sheet.rows[1].respiration, 700.0, 1e-9);
     EXPECT_NEAR(sheet.rows[1].pq, 0.1, 1e-15);
@@ -84,7 +84,7 @@ TEST(SolverChain, PredatorBiomassSolvedFromItsOwnEE)
     ASSERT_EQ(sheet.status, BalanceStatus::Balanced);
     EXPECT_NEAR(sheet.rows[2].biomass, 0.5, 1e-12);
     EXPECT_NEAR(sheet.rows[1].ee, 0.5, 1e-12);  // depends on the solved B through predation
-    EXPECT_EQ(sheet.rows[2].solved, std::vector<Param>{Param::Biomass});
+    EXPECT_EQ(sheet.rows[2].solved, ParamSet{Param::Biomass});
 }
 
 
@@ -436,7 +436,7 @@ TEST(SolverPQ, StandsInForPB)
     ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
     EXPECT_NEAR(sheet.rows[1].pb, 10.0, 1e-12);
     EXPECT_NEAR(sheet.rows[1].ee, 0.5, 1e-12);
-    EXPECT_EQ(sheet.rows[1].solved, (std::vector<Param>{Param::PB, Param::EE}));
+    EXPECT_EQ(sheet.rows[1].solved, (ParamSet{Param::PB, Param::EE}));
 }
 
 TEST(SolverPQ, StandsInForQBAndFeedsThePreyEquation)
@@ -448,7 +448,7 @@ TEST(SolverPQ, StandsInForQBAndFeedsThePreyEquation)
     ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << listProblems(sheet);
     EXPECT_NEAR(sheet.rows[1].qb, 100.0, 1e-12);
     EXPECT_NEAR(sheet.rows[0].ee, 0.5, 1e-12);  // Alga's EE needs Grazer's Q
-    EXPECT_EQ(sheet.rows[1].solved, (std::vector<Param>{Param::QB, Param::EE}));
+    EXPECT_EQ(sheet.rows[1].solved, (ParamSet{Param::QB, Param::EE}));
 }
 
 TEST(SolverPQ, TiesPBAndQBWhenBothAreMissing)

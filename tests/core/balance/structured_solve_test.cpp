@@ -212,6 +212,56 @@ TEST(StructuredSolve, EqualsDenseSolveOn500RandomModels)
     std::cout << "\n";
 }
 
+bool sameNumber(double a, double b) { return (std::isnan(a) && std::isnan(b)) || a == b; }
+
+// Two sheets equal to the last bit: status, conditioning, every value of every row and
+// every problem with its message.
+void expectIdenticalSheets(const BalanceSheet& got, const BalanceSheet& want)
+{
+    EXPECT_EQ(got.status, want.status);
+    EXPECT_TRUE(sameNumber(got.conditioning, want.conditioning));
+    ASSERT_EQ(got.rows.size(), want.rows.size());
+    for (std::size_t i = 0; i < got.rows.size(); ++i) {
+        const CompartmentBalance& a = got.rows[i];
+        const CompartmentBalance& b = want.rows[i];
+        SCOPED_TRACE(b.name);
+        EXPECT_EQ(a.name, b.name);
+        EXPECT_EQ(a.solved, b.solved);
+        const double CompartmentBalance::*fields[] = {
+            &CompartmentBalance::biomass, &CompartmentBalance::pb, &CompartmentBalance::qb, &CompartmentBalance::ee,
+            &CompartmentBalance::pq, &CompartmentBalance::production, &CompartmentBalance::consumption,
+            &CompartmentBalance::respiration, &CompartmentBalance::flowToDetritus, &CompartmentBalance::predation,
+            &CompartmentBalance::m2, &CompartmentBalance::tl, &CompartmentBalance::oi, &CompartmentBalance::residual,
+            &CompartmentBalance::detritusInflow, &CompartmentBalance::detritusExport};
+        for (std::size_t f = 0; f < std::size(fields); ++f)
+            EXPECT_TRUE(sameNumber(a.*fields[f], b.*fields[f])) << "field " << f << ": " << a.*fields[f] << " vs " << b.*fields[f];
+    }
+    EXPECT_EQ(problemKeys(got.problems, true), problemKeys(want.problems, true));
+}
+
+// One BalanceScratch kept across models of changing size, unknown mix and solve path
+// (each solved twice, the second time into storage of the right size) gives the sheet
+// of a fresh solveBalance, bit for bit: reused buffers carry nothing over.
+TEST(StructuredSolve, KeptScratchGivesTheSheetOfAFreshSolve)
+{
+    BalanceScratch scratch;
+    std::set<BalancePlan::Method> methods;
+    for (std::uint64_t seed = 1; seed <= 120; ++seed) {
+        testing::Draw draw(seed * 104729);
+        const std::size_t n = 6 + draw.index(seed % 10 == 0 ? 295 : 60);  // mostly small, some sparse paths
+        const auto mix = static_cast<Mix>(seed % static_cast<std::uint64_t>(Mix::Count));
+        Model m = testing::randomConsistentModel(n, seed);
+        hide(m, mix, draw);
+        SCOPED_TRACE("seed " + std::to_string(seed) + ", " + std::to_string(n) + " compartments, " + mixName(mix));
+        methods.insert(BalancePlan::build(m).method());
+        const BalanceSheet fresh = solveBalance(m);
+        expectIdenticalSheets(solveBalance(m, scratch), fresh);
+        expectIdenticalSheets(solveBalance(m, scratch), fresh);
+        if (::testing::Test::HasFatalFailure()) return;
+    }
+    EXPECT_GE(methods.size(), 4u) << "the sample should take most solve paths";
+}
+
 TEST(StructuredSolve, ModelWhoseUnknownsAreAllEENeedsNoFactorisation)
 {
     Model m = testing::randomConsistentModel(40, 77);

@@ -9,18 +9,7 @@ namespace {
 
 using testing::makeCompartment;
 
-Model threeBoxModel()
-{
-    Model m;
-    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer));
-    m.addCompartment(makeCompartment("Grazer", CompartmentKind::Consumer));
-    m.addCompartment(makeCompartment("Detritus", CompartmentKind::Detritus));
-    m.setDiet(1, 0, 0.7);
-    m.setDiet(1, 2, 0.3);
-    m.addFleet("Nets");
-    m.fleet(0).landings[1] = 2.0;
-    return m;
-}
+Model threeBoxModel() { return testing::threeBoxPond(2.0); }
 
 TEST(Model, InsertKeepsDietAndHarvestAligned)
 {

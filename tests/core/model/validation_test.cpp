@@ -18,10 +18,7 @@ using testing::makeCompartment;
 // Invented three-box pond for tests: algae, a grazer eating algae and detritus, detritus.
 Model soundModel()
 {
-    Model m;
-    m.addCompartment(makeCompartment("Algae", CompartmentKind::Producer));
-    m.addCompartment(makeCompartment("Grazer", CompartmentKind::Consumer));
-    m.addCompartment(makeCompartment("Detritus", CompartmentKind::Detritus));
+    Model m = testing::threeBoxPond(0.5);
     m.compartment(0).value(Param::Biomass) = 10;
     m.compartment(0).value(Param::PB) = 100;
     m.compartment(1).value(Param::Biomass) = 2;
@@ -29,10 +26,6 @@ Model soundModel()
     m.compartment(1).value(Param::QB) = 20;
     m.compartment(1).value(Param::Unassim) = 0.3;
     m.compartment(2).value(Param::DetritusImport) = 1;
-    m.setDiet(1, 0, 0.7);
-    m.setDiet(1, 2, 0.3);
-    m.addFleet("Nets");
-    m.fleet(0).landings[1] = 0.5;
     return m;
 }
 

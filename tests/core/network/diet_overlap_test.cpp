@@ -4,7 +4,7 @@
 #include <gtest/gtest.h>
 
 #include "core/network/diet_overlap.h"
-#include "tests/core/network/test_models.h"
+#include "tests/support/network_models.h"
 
 namespace tl {
 namespace {

@@ -16,6 +16,7 @@
 
 #include <gtest/gtest.h>
 
+#include "tests/support/network_models.h"
 #include "tests/support/test_support.h"
 
 #include "core/io/scor.h"
@@ -129,17 +130,9 @@ TEST(FeedingCycles, CannibalismNoLongerSpreadsAConsumerOverManyLevels)
 {
     // Producer 0 -> consumer 1 (100), consumer 1 eats itself (5): kept, the cannibal's
     // chains run on for ever (level I, II, III, ...); removed, it is at level II only.
-    FlowNetwork net;
-    net.names = {"Alga", "Snail"};
-    net.roles = {NodeRole::Producer, NodeRole::Consumer};
-    net.stocks = {10, 5};
-    net.imports = {100, 0};
-    net.foodImport = {0, 0};
-    net.exports = {0, 0};
-    net.respiration = {0, 105};
-    net.production = {100, 10};
-    net.flows.resize(2, 2);
-    net.flows << 0, 100, 0, 5;
+    const FlowNetwork net = testing::handNetwork(
+        {{"Alga", NodeRole::Producer, 10, 100, 0, 0, 100}, {"Snail", NodeRole::Consumer, 5, 0, 0, 105, 10}},
+        {{0, 1, 100}, {1, 1, 5}});
     const LevelDecomposition kept = decomposeLevels(net, 30, FeedingCycles::Kept);
     const LevelDecomposition removed = decomposeLevels(net);
     EXPECT_GT(kept.combined.share(1, 2), 0.0);                  // some of the snail at level III

@@ -10,7 +10,7 @@
 #include "core/network/flow_trophic_level.h"
 #include "core/network/indicators.h"
 #include "core/network/level_decomposition.h"
-#include "tests/core/network/test_models.h"
+#include "tests/support/network_models.h"
 
 namespace tl {
 namespace {
@@ -19,10 +19,8 @@ double relDiff(double a, double b) { return std::abs(a - b) / std::max(std::abs(
 
 TEST(FlowNetwork, BalancedModelGivesBalancedNodes)
 {
-    const Model model = testing::richWeb();
-    const BalanceSheet sheet = solveBalance(model);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::richWeb());
     ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << (sheet.problems.empty() ? "" : sheet.problems[0].message);
-    const FlowNetwork net = buildFlowNetwork(model, sheet);
     ASSERT_EQ(net.size(), 8u);
     for (std::size_t j = 0; j < net.size(); ++j) {
         const double in = net.inflow(j) + net.imports[j];
@@ -103,9 +101,7 @@ TEST(FlowNetwork, AnalysisSurvivesScorRoundTrip)
 // discards at that level over its throughput.
 TEST(FlowNetwork, ScorRoundTripLosesOnlyTheDeadDiscardsFromTe)
 {
-    const Model model = testing::richWeb();
-    const BalanceSheet sheet = solveBalance(model);
-    const FlowNetwork net = buildFlowNetwork(model, sheet);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::richWeb());
     const FlowNetwork back = flowNetworkFromScor(*readScor(writeScor(scorFromFlowNetwork(net, "t")), "t").network);
     const LevelDecomposition la = decomposeLevels(net), lb = decomposeLevels(back);
     const double deadDiscards = net.catchTotal(4) - net.landings(4);

@@ -6,7 +6,7 @@
 #include "core/balance/solver.h"
 #include "core/network/flow_network.h"
 #include "core/network/indicators.h"
-#include "tests/core/network/test_models.h"
+#include "tests/support/network_models.h"
 
 namespace tl {
 namespace {
@@ -16,10 +16,9 @@ namespace {
 // 10 x 10, the top 1000; the catch of 0.1 top needs 100 = 10 % of TPP 1000.
 TEST(Indicators, PrimaryProductionRequiredForTheCatchByHand)
 {
-    const Model model = testing::tenPercentChain();
-    const BalanceSheet sheet = solveBalance(model);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::tenPercentChain());
     ASSERT_EQ(sheet.status, BalanceStatus::Balanced);
-    const SystemIndicators s = systemIndicators(model, sheet, buildFlowNetwork(model, sheet));
+    const SystemIndicators s = systemIndicators(model, sheet, net);
     ASSERT_EQ(s.pprPerUnitProduction.size(), 5u);
     EXPECT_NEAR(s.pprPerUnitProduction[1], 10.0, 1e-12);
     EXPECT_NEAR(s.pprPerUnitProduction[2], 100.0, 1e-10);
@@ -92,22 +91,12 @@ TEST(Indicators, NoCatchNeedsNoPrimaryProduction)
 // = 0.0625, intake 2).
 FlowNetwork threeConsumerWeb(double scale)
 {
-    FlowNetwork net;
-    net.names = {"Plants", "Herbivore", "Omnivore", "Top"};
-    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer, NodeRole::Consumer};
-    net.stocks = {10, 4, 2, 1};
-    net.imports = {100 * scale, 0, 0, 0};
-    net.foodImport = {0, 0, 0, 0};
-    net.exports = {0, 0, 0, 0.5 * scale};
-    net.respiration = {78 * scale, 17 * scale, 3 * scale, 1.5 * scale};
-    net.production = {100 * scale, 3 * scale, 1 * scale, 0.5 * scale};
-    net.flows = Eigen::MatrixXd::Zero(4, 4);
-    net.flows(0, 1) = 20 * scale;
-    net.flows(0, 2) = 2 * scale;
-    net.flows(1, 2) = 2 * scale;
-    net.flows(1, 3) = 1 * scale;
-    net.flows(2, 3) = 1 * scale;
-    return net;
+    const double s = scale;
+    return testing::handNetwork({{"Plants", NodeRole::Producer, 10, 100 * s, 0, 78 * s, 100 * s},
+                                 {"Herbivore", NodeRole::Consumer, 4, 0, 0, 17 * s, 3 * s},
+                                 {"Omnivore", NodeRole::Consumer, 2, 0, 0, 3 * s, 1 * s},
+                                 {"Top", NodeRole::Consumer, 1, 0, 0.5 * s, 1.5 * s, 0.5 * s}},
+                                {{0, 1, 20 * s}, {0, 2, 2 * s}, {1, 2, 2 * s}, {1, 3, 1 * s}, {2, 3, 1 * s}});
 }
 
 TEST(Indicators, SystemOmnivoryPublishedAndIntakeWeightedOnThreeConsumers)

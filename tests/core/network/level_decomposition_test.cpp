@@ -7,7 +7,7 @@
 #include "core/network/flow_network.h"
 #include "core/network/flow_trophic_level.h"
 #include "core/network/level_decomposition.h"
-#include "tests/core/network/test_models.h"
+#include "tests/support/network_models.h"
 
 namespace tl {
 namespace {
@@ -17,10 +17,8 @@ namespace {
 // throughput sits at exactly one integer level.
 TEST(LevelDecomposition, TenPercentChainHasTenPercentAtEveryLevel)
 {
-    const Model model = testing::tenPercentChain();
-    const BalanceSheet sheet = solveBalance(model);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::tenPercentChain());
     ASSERT_EQ(sheet.status, BalanceStatus::Balanced) << (sheet.problems.empty() ? "" : sheet.problems[0].message);
-    const FlowNetwork net = buildFlowNetwork(model, sheet);
     const LevelDecomposition levels = decomposeLevels(net);
 
     ASSERT_EQ(levels.levelCount(), 4);
@@ -90,10 +88,8 @@ TEST(LevelDecomposition, OmnivoreSplitsOverTwoLevels)
 // their mean is still the trophic level.
 TEST(LevelDecomposition, KeptFeedingCycleKeepsSharesAndMeanLevel)
 {
-    const Model model = testing::richWeb();
-    const BalanceSheet sheet = solveBalance(model);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::richWeb());
     ASSERT_NE(sheet.status, BalanceStatus::Invalid);
-    const FlowNetwork net = buildFlowNetwork(model, sheet);
     const FlowTrophicLevels tl = flowTrophicLevels(net);
     const LevelDecomposition shallow = decomposeLevels(net, 6, FeedingCycles::Kept),
                              d = decomposeLevels(net, 30, FeedingCycles::Kept);
@@ -125,10 +121,8 @@ TEST(LevelDecomposition, KeptFeedingCycleKeepsSharesAndMeanLevel)
 // mean level is the aggregation's ETL, and throughput over levels still adds up.
 TEST(LevelDecomposition, RemovedFeedingCyclesGiveFiniteChains)
 {
-    const Model model = testing::richWeb();
-    const BalanceSheet sheet = solveBalance(model);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::richWeb());
     ASSERT_NE(sheet.status, BalanceStatus::Invalid);
-    const FlowNetwork net = buildFlowNetwork(model, sheet);
     const LevelDecomposition d = decomposeLevels(net);
     ASSERT_EQ(d.cycles, FeedingCycles::Removed);
     EXPECT_GT(d.cycleRemoval.cycles, 0u) << "the rich web has cannibalism";

@@ -7,7 +7,7 @@
 #include "core/balance/solver.h"
 #include "core/network/keystone.h"
 #include "core/network/mixed_trophic_impact.h"
-#include "tests/core/network/test_models.h"
+#include "tests/support/network_models.h"
 
 namespace tl {
 namespace {
@@ -16,18 +16,10 @@ FlowNetwork chain(bool withFleet)
 {
     // Plants -> Grazers -> Carnivores (invented values); grazers also lose to detritus,
     // which is not predation (there is no detritus node here: the loss is an export).
-    FlowNetwork net;
-    net.names = {"Plants", "Grazers", "Carnivores"};
-    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer};
-    net.stocks = {10, 2, 1};
-    net.imports = {100, 0, 0};
-    net.foodImport = {0, 0, 0};
-    net.exports = {90, 4, 0};
-    net.respiration = {0, 2, 2};
-    net.production = {100, 6, 0.8};
-    net.flows = Eigen::MatrixXd::Zero(3, 3);
-    net.flows(0, 1) = 10;
-    net.flows(1, 2) = 4;
+    FlowNetwork net = testing::handNetwork({{"Plants", NodeRole::Producer, 10, 100, 90, 0, 100},
+                                            {"Grazers", NodeRole::Consumer, 2, 0, 4, 2, 6},
+                                            {"Carnivores", NodeRole::Consumer, 1, 0, 0, 2, 0.8}},
+                                           {{0, 1, 10}, {1, 2, 4}});
     net.fleetLandings = Eigen::MatrixXd::Zero(withFleet ? 1 : 0, 3);
     net.fleetDeadDiscards = Eigen::MatrixXd::Zero(withFleet ? 1 : 0, 3);
     if (withFleet) {
@@ -112,10 +104,8 @@ namespace {
 // denominator, so it is DC exactly); f uses predation and catch (landings + dead discards).
 TEST(MixedTrophicImpact, ScenarioUsesDietFractionsAndCatch)
 {
-    const Model model = testing::richWeb();
-    const BalanceSheet sheet = solveBalance(model);
+    const auto [model, sheet, net] = testing::solvedScenario(testing::richWeb());
     ASSERT_NE(sheet.status, BalanceStatus::Invalid);
-    const FlowNetwork net = buildFlowNetwork(model, sheet);
     const MixedTrophicImpact mti = mixedTrophicImpact(net);
     ASSERT_EQ(mti.names.size(), 9u);  // 8 compartments + 1 fleet
     // Zooplankton (2) on planktivores (4): d = DC = 0.7, f = 0 (zooplankton does not eat

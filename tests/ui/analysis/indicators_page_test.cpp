@@ -23,6 +23,7 @@
 #include "ui/analysis/analysis_pages.h"
 #include "ui/analysis/indicators_page.h"
 #include "ui/style/palette.h"
+#include "tests/support/network_models.h"
 #include "tests/support/test_support.h"
 
 using namespace tl::ui;
@@ -49,11 +50,9 @@ private slots:
 
 void IndicatorsTest::everyIndicatorHasUnitDefinitionAndTheCoreValue()
 {
-    const tl::Model model = readModel("invented_lake");
-    const tl::BalanceSheet sheet = tl::solveBalance(model);
+    const auto [model, sheet, net] = tl::testing::solvedScenario(readModel("invented_lake"));
     IndicatorsPage page;
     page.setScenario(model, sheet);
-    const tl::FlowNetwork net = tl::buildFlowNetwork(model, sheet);
     const tl::SystemIndicators s = tl::systemIndicators(model, sheet, net);
     const tl::LevelDecomposition levels = tl::decomposeLevels(net);
     const std::map<QString, double> expected = {
@@ -123,11 +122,9 @@ void IndicatorsTest::tableShowsTheRows()
 
 void IndicatorsTest::keystoneBarsRunFromHighestDown()
 {
-    const tl::Model model = readModel("invented_lake");
-    const tl::BalanceSheet sheet = tl::solveBalance(model);
+    const auto [model, sheet, net] = tl::testing::solvedScenario(readModel("invented_lake"));
     IndicatorsPage page;
     page.setScenario(model, sheet);
-    const tl::FlowNetwork net = tl::buildFlowNetwork(model, sheet);
     const auto ks = tl::keystoneIndices(net, tl::mixedTrophicImpact(net));
 
     // What the page lists: the core's values, highest first, at descending bar positions.

@@ -1,14 +1,69 @@
-// Small invented models shared by the network tests (test data only, not from any survey).
+// Small invented models and networks shared by the network tests (test data only, not
+// from any survey), and the set-up most of them share: solve a model, build its network.
 #pragma once
 
+#include <initializer_list>
 #include <optional>
 #include <string>
+#include <utility>
+#include <vector>
 
+#include "core/balance/solver.h"
 #include "core/model/model.h"
 #include "core/network/flow_network.h"
 #include "tests/support/small_models.h"
 
 namespace tl::testing {
+
+// One node of a network worked by hand (no food import).
+struct HandNode {
+    std::string name;
+    NodeRole role = NodeRole::Consumer;
+    double stock = 0, imports = 0, exports = 0, respiration = 0, production = 0;
+};
+
+// One flow of a network worked by hand: `value` from node `from` to node `to`.
+struct HandFlow {
+    Eigen::Index from = 0, to = 0;
+    double value = 0;
+};
+
+// A network worked by hand: the nodes in order and the flows between them; no fleets
+// (a caller that needs them sets fleetNames, fleetLandings and fleetDeadDiscards).
+inline FlowNetwork handNetwork(const std::vector<HandNode>& nodes, std::initializer_list<HandFlow> flows)
+{
+    FlowNetwork net;
+    for (const HandNode& node : nodes) {
+        net.names.push_back(node.name);
+        net.roles.push_back(node.role);
+        net.stocks.push_back(node.stock);
+        net.imports.push_back(node.imports);
+        net.foodImport.push_back(0.0);
+        net.exports.push_back(node.exports);
+        net.respiration.push_back(node.respiration);
+        net.production.push_back(node.production);
+    }
+    const auto n = static_cast<Eigen::Index>(nodes.size());
+    net.flows = Eigen::MatrixXd::Zero(n, n);
+    for (const HandFlow& f : flows) net.flows(f.from, f.to) += f.value;
+    return net;
+}
+
+// A model with its balance sheet and, unless the sheet is Invalid, its flow network:
+// the set-up of most network tests, which then assert on sheet.status.
+//   const auto [model, sheet, net] = testing::solvedScenario(testing::richWeb());
+struct SolvedScenario {
+    Model model;
+    BalanceSheet sheet;
+    FlowNetwork net;
+};
+
+inline SolvedScenario solvedScenario(Model model)
+{
+    BalanceSheet sheet = solveBalance(model);
+    FlowNetwork net = sheet.status == BalanceStatus::Invalid ? FlowNetwork{} : buildFlowNetwork(model, sheet);
+    return {std::move(model), std::move(sheet), std::move(net)};
+}
 
 // A four-level chain with 10 % transfer at every step (common practice, no source):
 // algae P = 1000 -> grazers Q = 100, P = 10 -> predators Q = 10, P = 1 -> top Q = 1,
@@ -72,20 +127,10 @@ inline Model richWeb()
 // herbivore's respiration are the callers' (each test balances its own boundary).
 inline FlowNetwork omnivoreWeb(double plantRespiration, double herbivoreRespiration)
 {
-    FlowNetwork net;
-    net.names = {"Plants", "Herbivore", "Omnivore"};
-    net.roles = {NodeRole::Producer, NodeRole::Consumer, NodeRole::Consumer};
-    net.stocks = {10, 4, 2};
-    net.imports = {100, 0, 0};
-    net.foodImport = {0, 0, 0};
-    net.exports = {0, 0, 0.5};
-    net.respiration = {plantRespiration, herbivoreRespiration, 3.5};
-    net.production = {100, 2, 0.5};
-    net.flows = Eigen::MatrixXd::Zero(3, 3);
-    net.flows(0, 1) = 20;
-    net.flows(0, 2) = 2;
-    net.flows(1, 2) = 2;
-    return net;
+    return handNetwork({{"Plants", NodeRole::Producer, 10, 100, 0, plantRespiration, 100},
+                        {"Herbivore", NodeRole::Consumer, 4, 0, 0, herbivoreRespiration, 2},
+                        {"Omnivore", NodeRole::Consumer, 2, 0, 0.5, 3.5, 0.5}},
+                       {{0, 1, 20}, {0, 2, 2}, {1, 2, 2}});
 }
 
 }  // namespace tl::testing
