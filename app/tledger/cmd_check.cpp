@@ -1,6 +1,7 @@
 // tledger check MODEL [--scenario NAME] [--json]: every input problem and rule-of-thumb
 // diagnostic of a scenario, without the balance sheet. Exit 1 if any error is found
 // or the model does not balance; warnings alone leave it at 0.
+#include <filesystem>
 #include <iostream>
 #include <sstream>
 
@@ -21,13 +22,13 @@ int cmdCheck(const Args& args)
         std::cerr << "tledger check: expected one MODEL (a CSV folder or a .tledger project)\n";
         return 2;
     }
-    // The reader's warnings come back from validateModel below; print only a failed load.
+    // A CSV reader's warnings come back from validateModel below; print them only for a
+    // failed load. A project's notes (opened read-only, newer version) are always printed.
     std::ostringstream loadMessages;
     const auto model = loadModelForCli(opts->positional[0], opts->value("--scenario"), loadMessages);
-    if (!model) {
-        std::cerr << loadMessages.str();
-        return 2;
-    }
+    std::error_code ec;
+    if (!model || !std::filesystem::is_directory(opts->positional[0], ec)) std::cerr << loadMessages.str();
+    if (!model) return 2;
 
     const BalanceSheet sheet = solveBalance(*model);
     const Problems problems = scenarioChecks(*model, sheet);

@@ -9,6 +9,7 @@
 #include "app/tledger/load_model.h"
 #include "app/tledger/options.h"
 #include "core/balance/solver.h"
+#include "core/io/balance_report.h"
 #include "core/io/network_report.h"
 #include "core/io/scor.h"
 #include "core/model/text.h"
@@ -43,18 +44,21 @@ int fromModel(const ParsedOptions& opts)
     const auto model = loadModelForCli(opts.positional[0], opts.value("--scenario"), std::cerr);
     if (!model) return 2;
     const BalanceSheet sheet = solveBalance(*model);
-    if (sheet.status == BalanceStatus::Invalid) {
+    // Without a flow network there is no analysis; --json still prints its status and
+    // problems, as `solve --json` does (issue 12).
+    const auto unavailable = [&](const std::string& why) {
+        Problems errors;
         for (const Problem& p : sheet.problems)
-            if (p.severity == Severity::Error) std::cerr << p.describe() << '\n';
-        std::cerr << "tledger network: the scenario cannot be solved, so it has no flow network "
-                     "(run `tledger check` for all problems)\n";
+            if (p.severity == Severity::Error) errors.push_back(p);
+        for (const Problem& p : errors) std::cerr << p.describe() << '\n';
+        std::cerr << "tledger network: " << why << '\n';
+        if (opts.has("--json")) std::cout << statusJson(statusKey(sheet.status), errors, why);
         return 1;
-    }
+    };
+    if (sheet.status == BalanceStatus::Invalid)
+        return unavailable("the scenario cannot be solved, so it has no flow network (run `tledger check` for all problems)");
     const NetworkAnalysis r = analyseNetwork(*model, sheet, analysisOptions(opts));
-    if (!r.available()) {
-        std::cerr << "tledger network: the scenario has no compartments, so it has no flow network\n";
-        return 1;
-    }
+    if (!r.available()) return unavailable("the scenario has no compartments, so it has no flow network");
     for (const Problem& p : r.network.adjustments) std::cerr << "warning: " << p.describe() << '\n';
     std::cout << (opts.has("--json") ? networkReportJson(r) : networkReportTables(r));
     if (sheet.status != BalanceStatus::Balanced) {

@@ -108,6 +108,17 @@ std::string problemsJson(const Problems& problems)
     return w.str();
 }
 
+std::string statusJson(std::string_view status, const Problems& problems, std::string_view message)
+{
+    JsonWriter w;
+    w.beginObject();
+    w.field("status", std::string(status));
+    writeProblems(w, problems);
+    w.field("message", std::string(message));
+    w.endObject();
+    return w.str() + "\n";
+}
+
 std::string balanceSheetTable(const BalanceSheet& sheet, const Units& units)
 {
     TextTable t;

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <string>
+#include <string_view>
 
 #include "core/balance/balance_sheet.h"
 #include "core/model/model.h"
@@ -16,6 +17,9 @@ inline constexpr const char* kDecisionSupportNotice =
 
 std::string balanceSheetJson(const BalanceSheet& sheet);
 std::string problemsJson(const Problems& problems);  // {"status": ..., "problems": [...]} for check
+// {"status": ..., "problems": [...], "message": ...}: what a command prints with --json
+// when it has no result to give (tledger network on a scenario that cannot be solved).
+std::string statusJson(std::string_view status, const Problems& problems, std::string_view message);
 
 std::string balanceSheetTable(const BalanceSheet& sheet, const Units& units);
 std::string problemsTable(const Problems& problems);

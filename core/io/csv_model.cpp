@@ -9,6 +9,7 @@
 
 #include "core/io/atomic_file.h"
 #include "core/io/csv_table.h"
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 #include "core/model/validation.h"
 
@@ -119,6 +120,7 @@ struct Locations {
     // compartments.csv
     std::vector<int> compartmentLine;                  // per compartment index
     std::array<int, kParamCount> paramColumn{};        // 0 when the column is absent
+    int kindColumn = 0;
     // diet.csv
     bool longDiet = false;                             // long form: one row per (predator, prey)
     std::map<std::size_t, int> dietLine;               // predator -> line of its row (long form: its first row)
@@ -137,6 +139,8 @@ struct Locations {
     // Compartments whose rows had a structural error: validation findings about them
     // would only repeat the same fault in other words. Key: (compartment, area).
     std::set<std::pair<std::string, std::string>> broken;
+    // diet.csv was refused as a whole (not UTF-8 text): every diet finding would repeat that.
+    bool dietUnread = false;
 };
 
 // ---------------------------------------------------------------------------------
@@ -167,11 +171,11 @@ NumberCell numberCell(const CsvField& f, const std::string& file, const std::str
             hint = "Write a fraction (0.25), not a percentage (25%).";
         else
             hint = "Leave the cell empty if the value is unknown.";
-        problems.push_back(errorAt("csv-number", file, f,
+        problems.push_back(errorAt(code::kCsvNumber, file, f,
                                    what + ": expected a number with '.' as decimal mark, found " + shown(text), hint));
         out.bad = true;
     } else if (nonNegative && *out.value < 0) {
-        problems.push_back(errorAt("csv-number", file, f, what + ": must not be negative, found " + shown(text)));
+        problems.push_back(errorAt(code::kCsvNumber, file, f, what + ": must not be negative, found " + shown(text)));
         out.bad = true;
     }
     return out;
@@ -202,13 +206,13 @@ bool rowShapeOk(const CsvRecord& r, std::size_t headerSize, const std::string& f
                                std::to_string(headerSize);
     if (r.fields.size() < headerSize) {
         problems.push_back(problemAt(
-            "csv-row-cells", Severity::Error, file, r.line, static_cast<int>(r.fields.size()), counts,
+            code::kCsvRowCells, Severity::Error, file, r.line, static_cast<int>(r.fields.size()), counts,
             "Every row needs a cell under every column; leave a cell empty (,,) rather than dropping it."));
         return false;
     }
     if (r.fields.size() > headerSize) {
         problems.push_back(errorAt(
-            "csv-row-cells", file, r.fields[headerSize], counts,
+            code::kCsvRowCells, file, r.fields[headerSize], counts,
             "A comma inside a name must be quoted (\"Perch, adult\"), and numbers use '.' as decimal mark."));
         return false;
     }
@@ -218,7 +222,7 @@ bool rowShapeOk(const CsvRecord& r, std::size_t headerSize, const std::string& f
 bool refuseOtherSeparators(const CsvRecord& header, const std::string& file, Problems& problems)
 {
     if (header.fields.size() != 1 || header.fields[0].text.find_first_of(";\t") == std::string::npos) return false;
-    problems.push_back(errorAt("csv-header", file, header.fields[0],
+    problems.push_back(errorAt(code::kCsvHeader, file, header.fields[0],
                                "the header is separated by semicolons or tabs; expected commas",
                                "Export as \"CSV UTF-8 (comma delimited)\", with '.' as decimal mark."));
     return true;
@@ -233,7 +237,7 @@ std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::
     sheet.file = table.file;
     sheet.position.assign(keys.size(), -1);
     if (table.records.empty()) {
-        problems.push_back(problemAt("csv-header", Severity::Error, table.file, 1, 0,
+        problems.push_back(problemAt(code::kCsvHeader, Severity::Error, table.file, 1, 1,
                                      "the file is empty; expected a header line: " + joinKeys(keys)));
         return std::nullopt;
     }
@@ -252,14 +256,14 @@ std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::
             std::string hint = "Expected columns: " + joinKeys(keys) + ".";
             for (std::string_view k : keys)
                 if (lowerAscii(name) == k) hint = "Did you mean '" + std::string(k) + "'? Column names are lower case.";
-            problems.push_back(errorAt("csv-unknown-column", table.file, header.fields[c],
+            problems.push_back(errorAt(code::kCsvUnknownColumn, table.file, header.fields[c],
                                        "unknown column " + shown(name), hint));
             ok = false;
             continue;
         }
         const std::size_t key = static_cast<std::size_t>(it - keys.begin());
         if (sheet.position[key] >= 0) {
-            problems.push_back(errorAt("csv-duplicate-column", table.file, header.fields[c],
+            problems.push_back(errorAt(code::kCsvDuplicateColumn, table.file, header.fields[c],
                                        "column " + shown(name) + " appears twice (first in column " +
                                            std::to_string(sheet.position[key] + 1) + ")"));
             ok = false;
@@ -270,7 +274,7 @@ std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::
     for (std::string_view r : required) {
         const std::size_t key = static_cast<std::size_t>(std::find(keys.begin(), keys.end(), r) - keys.begin());
         if (sheet.position[key] < 0) {
-            problems.push_back(problemAt("csv-missing-column", Severity::Error, table.file, header.line, 0,
+            problems.push_back(problemAt(code::kCsvMissingColumn, Severity::Error, table.file, header.line, 1,
                                          "the header has no column '" + std::string(r) + "'",
                                          "Expected columns: " + joinKeys(keys) + "."));
             ok = false;
@@ -284,7 +288,7 @@ std::optional<KeyedSheet> openKeyed(const CsvTable& table, std::span<const std::
         bool rowOk = true;
         for (std::size_t c : unnamed) {
             if (trim(r.fields[c].text).empty()) continue;
-            problems.push_back(errorAt("csv-header", table.file, r.fields[c],
+            problems.push_back(errorAt(code::kCsvHeader, table.file, r.fields[c],
                                        "this cell has no column name above it but holds " + shown(r.fields[c].text)));
             rowOk = false;
         }
@@ -300,7 +304,7 @@ bool sheetPresent(const std::filesystem::path& folder, std::string_view name, bo
     std::error_code ec;
     if (std::filesystem::exists(path, ec)) return true;
     if (required)
-        problems.push_back(problemAt("csv-missing-file", Severity::Error, path.string(), 0, 0,
+        problems.push_back(problemAt(code::kCsvMissingFile, Severity::Error, path.string(), 0, 0,
                                      "the model folder has no " + std::string(name)));
     return false;
 }
@@ -314,6 +318,8 @@ std::optional<CsvTable> readSheet(const std::filesystem::path& folder, std::stri
     if (!sheetPresent(folder, name, required, problems)) return std::nullopt;
     CsvParseResult parsed = readCsvFile(path);
     problems.insert(problems.end(), parsed.problems.begin(), parsed.problems.end());
+    // Refused as a whole (not UTF-8, NUL bytes): one message, not also "the file is empty".
+    if (parsed.table.records.empty() && hasErrors(parsed.problems)) return std::nullopt;
     return std::move(parsed.table);
 }
 
@@ -325,7 +331,7 @@ std::optional<std::size_t> knownCompartment(const NameIndex& names, const CsvFie
     if (const auto i = names.find(name)) return i;
     std::string hint = names.didYouMean(name);
     if (hint.empty()) hint = "Every name must be a compartment of " + std::string(kCompartmentsFile) + ".";
-    problems.push_back(errorAt("csv-unknown-compartment", file, f,
+    problems.push_back(errorAt(code::kCsvUnknownCompartment, file, f,
                                name.empty() ? role + ": the cell is empty, expected a compartment name"
                                             : role + " " + shown(name) + " is not a compartment of " +
                                                   std::string(kCompartmentsFile),
@@ -369,7 +375,7 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         const CsvField& valueField = *sheet->field(*r, 1);
         const std::string key(trim(keyField.text));
         if (const auto it = seen.find(key); it != seen.end()) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, keyField,
+            problems.push_back(errorAt(code::kCsvDuplicateRow, table.file, keyField,
                                        "setting " + shown(key) + " is given twice (first on line " +
                                            std::to_string(it->second) + ")"));
             continue;
@@ -377,7 +383,7 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         seen.emplace(key, keyField.line);
         if (std::string* text = textSetting(model, key)) {
             if (trim(valueField.text).empty())
-                problems.push_back(errorAt("csv-missing-value", table.file, valueField,
+                problems.push_back(errorAt(code::kCsvMissingValue, table.file, valueField,
                                            "setting " + shown(key) + " needs a value"));
             else
                 *text = std::string(trim(valueField.text));
@@ -385,7 +391,7 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         }
         double* number = numberSetting(model, key);
         if (!number) {
-            problems.push_back(errorAt("csv-unknown-setting", table.file, keyField, "unknown setting " + shown(key),
+            problems.push_back(errorAt(code::kCsvUnknownSetting, table.file, keyField, "unknown setting " + shown(key),
                                        "Known settings: currency, area, time, ee_max, pq_min, pq_max, "
                                        "diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d."));
             continue;
@@ -393,7 +399,7 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         const NumberCell v = numberCell(valueField, table.file, "setting " + shown(key), problems, true);
         if (v.bad) continue;
         if (!v.value) {
-            problems.push_back(errorAt("csv-missing-value", table.file, valueField,
+            problems.push_back(errorAt(code::kCsvMissingValue, table.file, valueField,
                                        "setting " + shown(key) + " needs a number"));
             continue;
         }
@@ -416,17 +422,17 @@ std::optional<std::string> compartmentName(const CsvField& f, const std::string&
 {
     const std::string name(trim(f.text));
     if (name.empty()) {
-        problems.push_back(errorAt("csv-name", file, f, "the compartment has no name",
+        problems.push_back(errorAt(code::kCsvName, file, f, "the compartment has no name",
                                    "Give every compartment a name; diet, harvest and routing refer to it by name."));
         return std::nullopt;
     }
     if (name == kImportColumn) {
-        problems.push_back(errorAt("csv-name", file, f, "'import' is reserved for the import column of diet.csv",
+        problems.push_back(errorAt(code::kCsvName, file, f, "'import' is reserved for the import column of diet.csv",
                                    "Choose another name, e.g. 'imported food'."));
         return std::nullopt;
     }
     if (const auto it = seen.find(name); it != seen.end()) {
-        problems.push_back(errorAt("csv-duplicate-name", file, f,
+        problems.push_back(errorAt(code::kCsvDuplicateName, file, f,
                                    "compartment " + shown(name) + " is already defined on line " +
                                        std::to_string(it->second),
                                    "Compartment names must be unique."));
@@ -443,8 +449,9 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
     const auto sheet = openKeyed(table, keys, required, problems);
     if (!sheet) return;
     for (std::size_t k = 0; k < kParamCount; ++k) loc.paramColumn[k] = sheet->column(2 + k);
+    loc.kindColumn = sheet->column(1);
     if (sheet->rows.empty() && table.records.size() == 1)
-        problems.push_back(problemAt("csv-no-rows", Severity::Error, table.file, 2, 0,
+        problems.push_back(problemAt(code::kCsvNoRows, Severity::Error, table.file, 2, 1,
                                      "the file lists no compartments, only its header"));
     std::map<std::string, int, std::less<>> seen;
     model.reserve(sheet->rows.size());
@@ -454,7 +461,7 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
         const CsvField& kindField = *sheet->field(*r, 1);
         const auto kind = parseKind(kindField.text);
         if (!kind)
-            problems.push_back(errorAt("csv-kind", table.file, kindField,
+            problems.push_back(errorAt(code::kCsvKind, table.file, kindField,
                                        "kind of " + (name ? shown(*name) : std::string("this compartment")) +
                                            ": expected producer, consumer or detritus, found " +
                                            shown(kindField.text)));
@@ -524,7 +531,7 @@ void readLongDietRow(const CsvRecord& r, const std::string& file, Model& model, 
     loc.dietLine.emplace(*predator, r.line);  // keeps the predator's first line
     const auto [entry, isNew] = loc.dietEntryLine.emplace(dietEntryKey(model, *predator, *prey), r.line);
     if (!isNew) {
-        problems.push_back(errorAt("csv-duplicate-row", file, preyField,
+        problems.push_back(errorAt(code::kCsvDuplicateRow, file, preyField,
                                    "the share of " + shown(preyName) + " in the diet of " + shown(predatorName) +
                                        " is already given on line " + std::to_string(entry->second),
                                    "Give one row per predator and prey."));
@@ -539,7 +546,7 @@ void readLongDietRow(const CsvRecord& r, const std::string& file, Model& model, 
     const std::string what = "share of " + shown(preyName) + " in the diet of " + shown(predatorName);
     const NumberCell v = numberCell(shareField, file, what, problems);
     if (!v.bad && !v.value)
-        problems.push_back(errorAt("csv-missing-value", file, shareField, what + ": the cell is empty",
+        problems.push_back(errorAt(code::kCsvMissingValue, file, shareField, what + ": the cell is empty",
                                    "Give the share (0 to 1), or delete the row."));
     Problem& p = problems.back();  // numberCell accepts what parseNumber refused only when empty
     p.compartment = predatorName;
@@ -560,7 +567,7 @@ public:
     {
         const std::string_view corner = trim(header.fields[0].text);
         if (!corner.empty() && corner != "predator") {
-            problems_.push_back(errorAt("csv-header", file_, header.fields[0],
+            problems_.push_back(errorAt(code::kCsvHeader, file_, header.fields[0],
                                         "the first column must be headed 'predator', found " + shown(corner),
                                         "Column 1 holds predator names; each further column is a prey (or 'import')."));
             refused_ = true;
@@ -576,7 +583,7 @@ public:
                 continue;
             }
             if (const auto it = seenColumn.find(name); it != seenColumn.end()) {
-                problems_.push_back(errorAt("csv-duplicate-column", file_, f,
+                problems_.push_back(errorAt(code::kCsvDuplicateColumn, file_, f,
                                             "prey column " + shown(name) + " appears twice (first in column " +
                                                 std::to_string(it->second) + ")"));
                 continue;
@@ -591,7 +598,7 @@ public:
             } else {
                 std::string hint = names_.didYouMean(name);
                 if (hint.empty()) hint = "Each prey column must be a compartment of compartments.csv, or 'import'.";
-                problems_.push_back(errorAt("csv-unknown-compartment", file_, f,
+                problems_.push_back(errorAt(code::kCsvUnknownCompartment, file_, f,
                                             "prey column " + shown(name) + " is not a compartment of compartments.csv",
                                             hint));
             }
@@ -605,7 +612,7 @@ public:
         if (!predator) return;
         const std::string& predatorName = model_.compartment(*predator).name;
         if (const auto it = loc_.dietLine.find(*predator); it != loc_.dietLine.end()) {
-            problems_.push_back(errorAt("csv-duplicate-row", file_, r.fields[0],
+            problems_.push_back(errorAt(code::kCsvDuplicateRow, file_, r.fields[0],
                                         "the diet of " + shown(predatorName) + " is already given on line " +
                                             std::to_string(it->second)));
             return;
@@ -618,7 +625,7 @@ public:
             if (prey_[col] == kUnusable) continue;
             if (prey_[col] == kUnnamed) {
                 if (!trim(f.text).empty())
-                    problems_.push_back(errorAt("csv-header", file_, f,
+                    problems_.push_back(errorAt(code::kCsvHeader, file_, f,
                                                 "this cell has no prey name above it but holds " + shown(f.text)));
                 continue;
             }
@@ -688,8 +695,9 @@ void readDiet(const std::filesystem::path& path, Model& model, const NameIndex& 
         case Form::Refused: break;
         }
     });
-    if (form == Form::None)
-        found.push_back(problemAt("csv-header", Severity::Error, file, 1, 0,
+    loc.dietUnread = form == Form::None && hasErrors(parsing);
+    if (form == Form::None && !hasErrors(parsing))  // a file that could not be parsed is not also "empty"
+        found.push_back(problemAt(code::kCsvHeader, Severity::Error, file, 1, 1,
                                   "the file is empty; expected a header: predator, then one column per prey"));
     if (form == Form::Wide) wide.finish();
     problems.insert(problems.end(), std::make_move_iterator(parsing.begin()), std::make_move_iterator(parsing.end()));
@@ -709,7 +717,7 @@ void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Lo
         const CsvField& fleetField = *sheet->field(*r, 0);
         const std::string fleetName(trim(fleetField.text));
         if (fleetName.empty()) {
-            problems.push_back(errorAt("csv-name", table.file, fleetField, "the fleet has no name",
+            problems.push_back(errorAt(code::kCsvName, table.file, fleetField, "the fleet has no name",
                                        "Give the fleet (gear, sector or licence group) a name."));
             continue;
         }
@@ -725,7 +733,7 @@ void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Lo
             if (const auto pool = knownCompartment(names, *poolField, table.file, "discard pool", problems)) {
                 Fleet& f = model.fleet(fleet);
                 if (f.discardPool && *f.discardPool != *pool)
-                    problems.push_back(errorAt("csv-discard-pool", table.file, *poolField,
+                    problems.push_back(errorAt(code::kCsvDiscardPool, table.file, *poolField,
                                                "fleet " + shown(fleetName) + " already sends its discards to " +
                                                    shown(model.compartment(*f.discardPool).name) + " (line " +
                                                    std::to_string(loc.discardPoolCell[fleet].line) + ")",
@@ -742,7 +750,7 @@ void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Lo
             // A row with a fleet only declares the fleet; it may not carry a catch.
             for (std::size_t key = 2; key <= 4; ++key)
                 if (const CsvField* f = sheet->field(*r, key); f && !trim(f->text).empty()) {
-                    problems.push_back(errorAt("csv-unknown-compartment", table.file, compartmentField,
+                    problems.push_back(errorAt(code::kCsvUnknownCompartment, table.file, compartmentField,
                                                "this row" + fleetLabel + " gives " + std::string(kHarvestKeys[key]) +
                                                    " but no compartment"));
                     break;
@@ -753,7 +761,7 @@ void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Lo
         if (!i) continue;
         const std::string& name = model.compartment(*i).name;
         if (const auto it = loc.harvestRow.find({fleet, *i}); it != loc.harvestRow.end()) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, compartmentField,
+            problems.push_back(errorAt(code::kCsvDuplicateRow, table.file, compartmentField,
                                        "the catch of " + shown(name) + fleetLabel + " is already given on line " +
                                            std::to_string(it->second.line),
                                        "Give one row per fleet and compartment."));
@@ -801,7 +809,7 @@ void readRouting(const CsvTable& table, Model& model, const NameIndex& names, Lo
         const std::string& sourceName = model.compartment(*source).name;
         const std::string& poolName = model.compartment(*pool).name;
         if (const auto it = loc.routingRow.find({*source, *pool}); it != loc.routingRow.end()) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, poolField,
+            problems.push_back(errorAt(code::kCsvDuplicateRow, table.file, poolField,
                                        "the share of " + shown(sourceName) + " going to " + shown(poolName) +
                                            " is already given on line " + std::to_string(it->second.line)));
             continue;
@@ -814,7 +822,7 @@ void readRouting(const CsvTable& table, Model& model, const NameIndex& names, Lo
         const std::string what = "share of " + shown(sourceName) + " going to " + shown(poolName);
         const NumberCell v = numberCell(fractionField, table.file, what, problems);
         if (!v.bad && !v.value)
-            problems.push_back(errorAt("csv-missing-value", table.file, fractionField, what + ": the cell is empty",
+            problems.push_back(errorAt(code::kCsvMissingValue, table.file, fractionField, what + ": the cell is empty",
                                        "Give the fraction (0 to 1), or delete the row."));
         if (v.bad || !v.value) {
             problems.back().compartment = sourceName;
@@ -843,7 +851,7 @@ void readConfidence(const CsvTable& table, Model& model, const NameIndex& names,
         const CsvField& paramField = *sheet->field(*r, 1);
         const auto param = parseParamKey(trim(paramField.text));
         if (!param)
-            problems.push_back(errorAt("csv-parameter", table.file, paramField,
+            problems.push_back(errorAt(code::kCsvParameter, table.file, paramField,
                                        "unknown parameter " + shown(paramField.text),
                                        "Expected a parameter column of compartments.csv: " + paramList + "."));
         if (!i || !param) continue;
@@ -851,7 +859,7 @@ void readConfidence(const CsvTable& table, Model& model, const NameIndex& names,
         const std::string what = std::string(paramKey(*param)) + " of " + shown(name);
         const std::size_t p = static_cast<std::size_t>(*param);
         if (const auto it = seen.find({*i, p}); it != seen.end()) {
-            problems.push_back(errorAt("csv-duplicate-row", table.file, paramField,
+            problems.push_back(errorAt(code::kCsvDuplicateRow, table.file, paramField,
                                        "the confidence of " + what + " is already given on line " +
                                            std::to_string(it->second)));
             continue;
@@ -862,7 +870,7 @@ void readConfidence(const CsvTable& table, Model& model, const NameIndex& names,
         if (const CsvField* g = sheet->field(*r, 2)) {
             if (const auto grade = parseGrade(g->text)) conf.grade = *grade;
             else
-                problems.push_back(errorAt("csv-grade", table.file, *g,
+                problems.push_back(errorAt(code::kCsvGrade, table.file, *g,
                                            "grade of " + what + ": expected A, B, C, D or empty, found " +
                                                shown(g->text)));
         }
@@ -880,7 +888,8 @@ void readConfidence(const CsvTable& table, Model& model, const NameIndex& names,
 
 bool isHidden(const Problem& p, const Locations& loc)
 {
-    return loc.broken.contains({p.compartment, "*"}) || loc.broken.contains({p.compartment, p.parameter});
+    return loc.broken.contains({p.compartment, "*"}) || loc.broken.contains({p.compartment, p.parameter}) ||
+           (loc.dietUnread && p.parameter == "diet");
 }
 
 void placeOnCell(Problem& p, const Model& model, const NameIndex& names, const Locations& loc)
@@ -893,7 +902,11 @@ void placeOnCell(Problem& p, const Model& model, const NameIndex& names, const L
         at(loc.dietFile, 0, 0);
         if (!i) return;
         const auto row = loc.dietLine.find(*i);
-        if (row == loc.dietLine.end()) return;  // no row: the file as a whole
+        if (row == loc.dietLine.end()) {  // no row in diet.csv: the compartment's row in compartments.csv
+            if (*i < loc.compartmentLine.size() && loc.compartmentLine[*i] > 0)
+                at(loc.compartmentsFile, loc.compartmentLine[*i], loc.kindColumn > 0 ? loc.kindColumn : 1);
+            return;
+        }
         if (loc.longDiet) {  // the entry's share cell, or for the row sum the predator's first line
             const auto prey = p.prey == kImportColumn ? std::optional<std::size_t>(model.size()) : names.find(p.prey);
             const auto entry = prey ? loc.dietEntryLine.find(dietEntryKey(model, *i, *prey)) : loc.dietEntryLine.end();
@@ -937,6 +950,8 @@ void placeOnCell(Problem& p, const Model& model, const NameIndex& names, const L
             }
         if (const auto c = loc.fleetCell.find(*fleet); c != loc.fleetCell.end())
             at(loc.harvestFile, c->second.line, c->second.column);
+    } else if (i && *i < loc.compartmentLine.size() && loc.compartmentLine[*i] > 0) {
+        at(loc.compartmentsFile, loc.compartmentLine[*i], 1);  // about a compartment: its row
     } else {
         at(loc.compartmentsFile, 0, 0);  // about the model as a whole
     }
@@ -963,7 +978,7 @@ Problems unwritableNames(const Model& model)
     Problems out;
     const auto refuse = [&](std::string message) {
         Problem p;
-        p.code = "csv-name";
+        p.code = code::kCsvName;
         p.message = std::move(message);
         p.hint = "Rename it before exporting; names must be unique, non-empty and without spaces around them.";
         out.push_back(std::move(p));
@@ -1131,7 +1146,7 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
     Problems& problems = result.problems;
     std::error_code ec;
     if (!std::filesystem::is_directory(folder, ec)) {
-        problems.push_back(problemAt("csv-missing-file", Severity::Error, folder.string(), 0, 0,
+        problems.push_back(problemAt(code::kCsvMissingFile, Severity::Error, folder.string(), 0, 0,
                                      std::filesystem::exists(folder, ec)
                                          ? "expected a CSV model folder but found a file"
                                          : "the CSV model folder does not exist"));
@@ -1173,7 +1188,7 @@ CsvReadResult readCsvModel(const std::filesystem::path& folder)
         const bool errorsHidden = std::any_of(problems.begin() + kMaxProblems, problems.end(),
                                               [](const Problem& p) { return p.severity == Severity::Error; });
         problems.resize(kMaxProblems);
-        Problem summary = problemAt("csv-too-many-problems", errorsHidden ? Severity::Error : Severity::Warning,
+        Problem summary = problemAt(code::kCsvTooManyProblems, errorsHidden ? Severity::Error : Severity::Warning,
                                     folder.string(), 0, 0,
                                     "and " + std::to_string(more) + " more problems not listed",
                                     "Fix the ones above first; they often cause the rest.");
@@ -1192,7 +1207,7 @@ Problems writeCsvModel(const Model& model, const std::filesystem::path& folder, 
     std::filesystem::create_directories(folder, ec);
     if (ec || !std::filesystem::is_directory(folder, ec)) {
         Problem p;
-        p.code = "csv-write";
+        p.code = code::kCsvWrite;
         p.message = "cannot create the folder " + folder.string() + (ec ? ": " + ec.message() : std::string());
         p.location = FileLocation{folder.string(), 0, 0};
         return {p};
@@ -1214,7 +1229,7 @@ Problems writeCsvModel(const Model& model, const std::filesystem::path& folder, 
         }
         if (error) {
             Problem p;
-            p.code = "csv-write";
+            p.code = code::kCsvWrite;
             p.message = *error;
             p.location = FileLocation{path.string(), 0, 0};
             problems.push_back(std::move(p));

@@ -4,7 +4,14 @@
 // expected; the reader never throws and never returns a half-read model.
 //
 // Locations: line = physical line (1-based) where the cell starts; column = the
-// cell's field number (1-based), as a spreadsheet counts columns.
+// cell's field number (1-based), as a spreadsheet counts columns. A problem of a whole
+// line (a header without a required column, a NUL byte) names its line and column 1 or
+// the field it is in; a finding about a compartment with no row of its own in the file
+// concerned (a consumer without a diet row) is placed on its row in compartments.csv.
+//
+// Formula guard: every text cell the writer writes that a spreadsheet would run as a
+// formula (leading '=', '+', '-', '@', tab or CR) gets an apostrophe in front, and the
+// reader drops it again; numbers are never guarded (core/io/csv_table.h, guardFormula).
 //
 // Beyond the four files of the contract, two optional files carry what a Model holds
 // and the contract has no column for, so that a write/read round trip loses nothing:

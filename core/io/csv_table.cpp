@@ -3,6 +3,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 
 namespace tl {
@@ -20,37 +21,6 @@ Problem fileProblem(std::string code, const std::string& file, int line, int col
     return p;
 }
 
-// Offset of the first byte that does not belong to a well-formed UTF-8 sequence
-// (Unicode 15, table 3-7: no overlong forms, no surrogates, nothing above U+10FFFF),
-// or npos when the whole text is valid.
-std::size_t firstInvalidUtf8(std::string_view s)
-{
-    const auto byte = [&](std::size_t k) { return static_cast<unsigned char>(s[k]); };
-    std::size_t i = 0;
-    while (i < s.size()) {
-        const unsigned char c = byte(i);
-        if (c < 0x80) { ++i; continue; }
-        std::size_t len = 0;
-        unsigned char lo = 0x80, hi = 0xBF;  // allowed range of the second byte
-        if (c >= 0xC2 && c <= 0xDF) len = 2;
-        else if (c >= 0xE0 && c <= 0xEF) {
-            len = 3;
-            if (c == 0xE0) lo = 0xA0;
-            if (c == 0xED) hi = 0x9F;
-        } else if (c >= 0xF0 && c <= 0xF4) {
-            len = 4;
-            if (c == 0xF0) lo = 0x90;
-            if (c == 0xF4) hi = 0x8F;
-        } else return i;
-        if (i + len > s.size()) return i;
-        if (byte(i + 1) < lo || byte(i + 1) > hi) return i;
-        for (std::size_t k = 2; k < len; ++k)
-            if (byte(i + k) < 0x80 || byte(i + k) > 0xBF) return i;
-        i += len;
-    }
-    return std::string_view::npos;
-}
-
 bool isBlank(const CsvRecord& r)
 {
     for (const CsvField& f : r.fields)
@@ -62,16 +32,23 @@ bool isBlank(const CsvRecord& r)
 std::optional<Problem> recogniseWrongEncoding(std::string_view text, const std::string& file)
 {
     if (text.starts_with("\xFF\xFE") || text.starts_with("\xFE\xFF"))
-        return fileProblem("csv-encoding", file, 1, 0, "the file is UTF-16 text, not UTF-8",
+        return fileProblem(code::kCsvEncoding, file, 1, 1, "the file is UTF-16 text, not UTF-8",
                            "Save it again as \"CSV UTF-8 (comma delimited)\".");
     if (text.starts_with("PK\x03\x04"))
-        return fileProblem("csv-encoding", file, 1, 0, "the file is a spreadsheet workbook (zip archive), not CSV text",
+        return fileProblem(code::kCsvEncoding, file, 1, 1, "the file is a spreadsheet workbook (zip archive), not CSV text",
                            "Export the sheet as \"CSV UTF-8 (comma delimited)\".");
     if (const auto nul = text.find('\0'); nul != std::string_view::npos) {
-        int line = 1;
-        for (std::size_t k = 0; k < nul; ++k)
-            if (text[k] == '\n') ++line;
-        return fileProblem("csv-encoding", file, line, 0, "the file contains NUL bytes; it is not UTF-8 text",
+        int line = 1, column = 1;  // the field of the first NUL, counting commas outside quotes
+        bool quoted = false;
+        for (std::size_t k = 0; k < nul; ++k) {
+            if (text[k] == '"') quoted = !quoted;
+            else if (text[k] == ',' && !quoted) ++column;
+            else if (text[k] == '\n' || (text[k] == '\r' && (k + 1 >= text.size() || text[k + 1] != '\n'))) {
+                ++line;
+                if (!quoted) column = 1;
+            }
+        }
+        return fileProblem(code::kCsvEncoding, file, line, column, "the file contains NUL bytes; it is not UTF-8 text",
                            "Save it again as \"CSV UTF-8 (comma delimited)\".");
     }
     return std::nullopt;
@@ -146,7 +123,7 @@ Problems parseCsvRecords(std::string_view text, const std::string& file, const C
             }
             if (!closed) {
                 problems.push_back(fileProblem(
-                    "csv-quote", file, field.line, field.column,
+                    code::kCsvQuote, file, field.line, field.column,
                     "a quoted field opened here is never closed (the file ends inside it)",
                     "Add the closing double quote; a quote inside a quoted field is written twice (\"\")."));
                 record.fields.push_back(std::move(field));
@@ -156,7 +133,7 @@ Problems parseCsvRecords(std::string_view text, const std::string& file, const C
             while (i < n && (text[i] == ' ' || text[i] == '\t')) ++i;
             if (i < n && text[i] != ',' && text[i] != '\r' && text[i] != '\n') {
                 problems.push_back(fileProblem(
-                    "csv-quote", file, line, field.column,
+                    code::kCsvQuote, file, line, field.column,
                     "unexpected text after the closing quote of a field",
                     "Put the whole cell inside the quotes, and write a quote inside it twice (\"\")."));
                 while (i < n && text[i] != ',' && text[i] != '\r' && text[i] != '\n') field.text += text[i++];
@@ -167,11 +144,13 @@ Problems parseCsvRecords(std::string_view text, const std::string& file, const C
             field.text.assign(text.substr(start, i - start));
         }
 
+        if (const std::string_view plain = unguardFormula(field.text); plain.size() != field.text.size())
+            field.text.erase(0, 1);
         if (const std::size_t bad = firstInvalidUtf8(field.text); bad != std::string_view::npos) {
             char byteText[8];
             std::snprintf(byteText, sizeof byteText, "0x%02X", static_cast<unsigned char>(field.text[bad]));
             problems.push_back(fileProblem(
-                "csv-encoding", file, field.line, field.column,
+                code::kCsvEncoding, file, field.line, field.column,
                 std::string("the cell is not valid UTF-8 text (byte ") + byteText + ")",
                 "Save the file as \"CSV UTF-8\"; older exports use a legacy code page for accented letters."));
         }
@@ -201,7 +180,7 @@ Problems readCsvFileRecords(const std::filesystem::path& path, const CsvRecordSi
     const std::string file = path.string();
     std::error_code ec;
     if (std::filesystem::is_directory(path, ec))
-        return {fileProblem("csv-unreadable", file, 0, 0, "expected a CSV file but found a folder")};
+        return {fileProblem(code::kCsvUnreadable, file, 0, 0, "expected a CSV file but found a folder")};
     std::ifstream in(path, std::ios::binary);
     std::string content;
     if (in) {  // read in one piece: a stream buffer would copy the text twice more
@@ -220,7 +199,7 @@ Problems readCsvFileRecords(const std::filesystem::path& path, const CsvRecordSi
     }
     if (!in || in.bad()) {
         const bool exists = std::filesystem::exists(path, ec);
-        return {fileProblem("csv-unreadable", file, 0, 0, exists ? "the file cannot be read" : "the file does not exist")};
+        return {fileProblem(code::kCsvUnreadable, file, 0, 0, exists ? "the file cannot be read" : "the file does not exist")};
     }
     return parseCsvRecords(content, file, onRecord);
 }
@@ -231,6 +210,33 @@ CsvParseResult readCsvFile(const std::filesystem::path& path)
     out.table.file = path.string();
     out.problems = readCsvFileRecords(path, [&](CsvRecord& r) { out.table.records.push_back(std::move(r)); });
     return out;
+}
+
+namespace {
+
+// Apostrophes, then a character a spreadsheet would start a formula with.
+bool formulaShaped(std::string_view text, std::size_t minApostrophes)
+{
+    std::size_t k = 0;
+    while (k < text.size() && text[k] == '\'') ++k;
+    if (k < minApostrophes || k >= text.size()) return false;
+    const char c = text[k];
+    return c == '=' || c == '+' || c == '-' || c == '@' || c == '\t' || c == '\r';
+}
+
+}  // namespace
+
+std::string guardFormula(std::string_view text)
+{
+    std::string out;
+    if (formulaShaped(text, 0)) out += '\'';
+    out.append(text);
+    return out;
+}
+
+std::string_view unguardFormula(std::string_view text)
+{
+    return formulaShaped(text, 1) ? text.substr(1) : text;
 }
 
 std::string csvField(std::string_view text)
@@ -252,7 +258,7 @@ std::string csvRecord(const std::vector<std::string>& fields)
     std::string out;
     for (std::size_t k = 0; k < fields.size(); ++k) {
         if (k > 0) out += ',';
-        out += csvField(fields[k]);
+        out += csvField(parseNumber(fields[k]) ? fields[k] : guardFormula(fields[k]));
     }
     return out + '\n';
 }

@@ -6,6 +6,8 @@
 // Forgiving where spreadsheets and hand edits differ from the RFC: LF, CRLF or CR line
 // ends; a UTF-8 byte-order mark is skipped; blank lines (or lines of empty cells, as
 // spreadsheets export them) are dropped; a last line without a line end is kept.
+// A text cell written with the formula guard (an apostrophe before a leading '=', '+',
+// '-', '@', tab or CR; see guardFormula) is read without that apostrophe.
 // Refused with a Problem: text that is not UTF-8 (UTF-16, a workbook file), a quoted
 // field that never closes, text after a closing quote.
 #pragma once
@@ -60,7 +62,19 @@ Problems readCsvFileRecords(const std::filesystem::path& path, const CsvRecordSi
 // a line break or leading/trailing white space; otherwise as is.
 std::string csvField(std::string_view text);
 
-// Fields joined by commas and terminated by "\n".
+// Spreadsheet formula guard. A spreadsheet runs a cell that begins with '=', '+', '-',
+// '@', a tab or a carriage return as a formula ("CSV injection", OWASP), so a written
+// text cell of that kind gets an apostrophe in front (what spreadsheets themselves use
+// to mark text): `=HYPERLINK(...)` is written `'=HYPERLINK(...)`. To keep the round trip
+// lossless the rule counts apostrophes already there: text that is apostrophes followed
+// by such a character gains one apostrophe on writing and loses one on reading; any
+// other text is written and read unchanged. Numbers ("-2.5") are never guarded.
+std::string guardFormula(std::string_view text);
+// The reading side: drops one apostrophe from a guarded cell, leaves anything else.
+std::string_view unguardFormula(std::string_view text);
+
+// Fields joined by commas and terminated by "\n". Each field that is not a number is
+// guarded (guardFormula) before it is quoted.
 std::string csvRecord(const std::vector<std::string>& fields);
 
 }  // namespace tl

@@ -1,5 +1,6 @@
 #include "core/io/network_report.h"
 
+#include <cmath>
 #include <string>
 #include <vector>
 
@@ -221,7 +222,15 @@ std::string networkReportTables(const NetworkAnalysis& r)
         nodes.addRow({net.names[i], displayNumber(r.tl[i]), displayNumber(r.oi[i]),
                       ks[i] ? displayNumber(ks[i]->keystoneIndex) : "-",
                       ks[i] ? std::to_string(ks[i]->rank) : "-"});
-    out += "Trophic levels\n" + nodes.render() + "\n";
+    out += "Trophic levels\n" + nodes.render();
+    std::string undefinedKeystone;
+    for (const KeystoneEntry& k : r.keystone)
+        if (!std::isfinite(k.keystoneIndex)) undefinedKeystone += (undefinedKeystone.empty() ? "" : ", ") + net.names[k.node];
+    if (!undefinedKeystone.empty())
+        out += "Keystone index undefined for " + undefinedKeystone +
+               ": the logarithm of zero (no impact on the other living compartments, or all of the living "
+               "biomass; Libralato et al. 2006).\n";
+    out += "\n";
 
     TextTable lv;
     lv.addColumn("Level", TextTable::Align::Left);

@@ -1,5 +1,6 @@
 #include "core/io/scor.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <fstream>
@@ -8,7 +9,9 @@
 #include <utility>
 
 #include "core/io/atomic_file.h"
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
+#include "core/model/validation.h"
 
 namespace tl {
 namespace {
@@ -91,7 +94,7 @@ public:
     }
 
 private:
-    void error(int line, int column, std::string message, std::string code = "scor-syntax")
+    void error(int line, int column, std::string message, std::string code = code::kScorSyntax)
     {
         Problem p;
         p.code = std::move(code);
@@ -105,7 +108,10 @@ private:
     bool haveLine(std::size_t i, const std::string& expected)
     {
         if (i < lines_.size()) return true;
-        error(static_cast<int>(lines_.size()) + 1, 0, "the file ends here; expected " + expected, "scor-truncated");
+        // The best place there is: just after the last character of the last line.
+        const int last = static_cast<int>(lines_.size());
+        const int column = last == 0 ? 1 : static_cast<int>(lines_.back().size()) + 1;
+        error(std::max(last, 1), column, "the file ends here; expected " + expected, code::kScorTruncated);
         return false;
     }
 
@@ -115,22 +121,22 @@ private:
         const auto nlField = parseIndexField(columns(line, 3, 3));
         if (!nField) {
             error(lineNo, 1, "expected the number of compartments right-justified in columns 1-3, found '" +
-                                 std::string(trim(columns(line, 0, 3))) + "'", "scor-counts");
+                                 std::string(trim(columns(line, 0, 3))) + "'", code::kScorCounts);
             return false;
         }
         if (!nlField) {
             error(lineNo, 4, "expected the number of living compartments right-justified in columns 4-6, found '" +
-                                 std::string(trim(columns(line, 3, 3))) + "'", "scor-counts");
+                                 std::string(trim(columns(line, 3, 3))) + "'", code::kScorCounts);
             return false;
         }
         if (*nField < 1) {
             error(lineNo, 1, "the number of compartments must be at least 1, found " + std::to_string(*nField),
-                  "scor-counts");
+                  code::kScorCounts);
             return false;
         }
         if (*nlField < 0 || *nlField > *nField) {
             error(lineNo, 4, "the number of living compartments must lie between 0 and " + std::to_string(*nField) +
-                                 ", found " + std::to_string(*nlField), "scor-counts");
+                                 ", found " + std::to_string(*nlField), code::kScorCounts);
             return false;
         }
         n = static_cast<std::size_t>(*nField);
@@ -155,7 +161,7 @@ private:
             error(lineNo, static_cast<int>(col) + 1,
                   std::string(what) + " " + std::to_string(*v) + " is out of range: the file declares " +
                       std::to_string(n) + " compartments (1.." + std::to_string(n) + ")",
-                  "scor-index-range");
+                  code::kScorIndexRange);
             return std::nullopt;
         }
         return static_cast<std::size_t>(*v - 1);
@@ -170,13 +176,19 @@ private:
             error(lineNo, static_cast<int>(col) + 1,
                   "expected a number for " + what + " from column " + std::to_string(col + 1) + ", found " +
                       (shown.empty() ? std::string("nothing") : "'" + shown + "'"),
-                  "scor-number");
+                  code::kScorNumber);
+            return std::nullopt;
+        }
+        if (*v > kMaxInputMagnitude) {
+            error(lineNo, static_cast<int>(col) + 1,
+                  what + " is " + formatNumber(*v) + "; values beyond 1e30 would overflow the network indices",
+                  code::kScorNumber);
             return std::nullopt;
         }
         if (*v < 0) {
             error(lineNo, static_cast<int>(col) + 1,
                   what + " is negative (" + formatNumber(*v) + "); SCOR values must be zero or positive",
-                  "scor-negative");
+                  code::kScorNegative);
             return std::nullopt;
         }
         return v;
@@ -207,7 +219,7 @@ private:
             if (const auto it = seen.find(*k); it != seen.end()) {
                 error(lineNo, 1, std::string("compartment ") + std::to_string(*k + 1) + " appears twice in the " +
                                      blockName + " block (first on line " + std::to_string(it->second) + ")",
-                      "scor-duplicate");
+                      code::kScorDuplicate);
                 return false;
             }
             seen[*k] = lineNo;
@@ -215,8 +227,30 @@ private:
         }
     }
 
+    // Text that is not UTF-8, or holds NUL bytes, would otherwise reach names, the
+    // terminal and JSON as it is: refused with its place, as the CSV reader does.
+    bool plainText()
+    {
+        int reported = 0;
+        for (std::size_t i = 0; i < lines_.size() && reported < 10; ++i) {
+            const std::string_view line = lines_[i];
+            const std::size_t nul = line.find('\0');
+            const std::size_t bad = std::min(nul, firstInvalidUtf8(line));
+            if (bad == std::string_view::npos) continue;
+            char byteText[8];
+            std::snprintf(byteText, sizeof byteText, "0x%02X", static_cast<unsigned char>(line[bad]));
+            error(static_cast<int>(i) + 1, static_cast<int>(bad) + 1,
+                  bad == nul ? std::string("a NUL byte; a SCOR file is plain text")
+                             : std::string("not valid UTF-8 text (byte ") + byteText + "); save the file as UTF-8",
+                  code::kScorEncoding);
+            ++reported;
+        }
+        return reported == 0;
+    }
+
     bool parse(ScorNetwork& net)
     {
+        if (!plainText()) return false;
         if (!haveLine(0, "a title line")) return false;
         net.title = std::string(trim(lines_[0]));
         if (!haveLine(1, "the counts line (n in columns 1-3, living n in columns 4-6)")) return false;
@@ -242,7 +276,7 @@ private:
             if (isTerminator(line)) {
                 error(lineNo, 1, "the stock block ends after " + std::to_string(k) + " lines; expected " +
                                      std::to_string(n) + " (one per compartment, zeros included)",
-                      "scor-counts");
+                      code::kScorCounts);
                 return false;
             }
             const auto idx = index(line, lineNo, 0, n, "compartment");
@@ -252,7 +286,7 @@ private:
             if (const auto it = seenStock.find(*idx); it != seenStock.end()) {
                 error(lineNo, 1, "compartment " + std::to_string(*idx + 1) +
                                      " appears twice in the stock block (first on line " +
-                                     std::to_string(it->second) + ")", "scor-duplicate");
+                                     std::to_string(it->second) + ")", code::kScorDuplicate);
                 return false;
             }
             seenStock[*idx] = lineNo;
@@ -264,7 +298,7 @@ private:
                   "expected the terminator -1 after the " + std::to_string(n) +
                       " stock lines, found '" + std::string(trim(lines_[i])) +
                       "' (does line 2 declare the right number of compartments?)",
-                  "scor-counts");
+                  code::kScorCounts);
             return false;
         }
         ++i;
@@ -297,7 +331,7 @@ private:
             if (const auto it = seenFlow.find(key); it != seenFlow.end()) {
                 error(lineNo, 1, "the flow " + std::to_string(*from + 1) + " -> " + std::to_string(*to + 1) +
                                      " appears twice (first on line " + std::to_string(it->second) + ")",
-                      "scor-duplicate");
+                      code::kScorDuplicate);
                 return false;
             }
             seenFlow[key] = lineNo;
@@ -307,7 +341,7 @@ private:
         for (; i < lines_.size(); ++i) {
             if (isBlank(lines_[i])) continue;
             Problem p;
-            p.code = "scor-trailing-text";
+            p.code = code::kScorTrailingText;
             p.severity = Severity::Warning;
             p.message = "text after the final terminator -1 -1 is ignored";
             p.location = FileLocation{file_, static_cast<int>(i) + 1, 1};
@@ -350,7 +384,7 @@ ScorReadResult readScorFile(const std::filesystem::path& path)
     if (!in) {
         ScorReadResult result;
         Problem p;
-        p.code = "scor-open";
+        p.code = code::kScorOpen;
         p.message = "cannot open the SCOR file (does it exist and is it readable?)";
         p.location = FileLocation{path.string(), 0, 0};
         result.problems.push_back(std::move(p));

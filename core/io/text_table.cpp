@@ -58,6 +58,7 @@ std::string TextTable::render() const
 std::string displayNumber(double v)
 {
     if (std::isnan(v)) return "-";
+    if (std::isinf(v)) return "undefined";  // never "inf": the table's note says why
     char buf[32];
     const double a = std::fabs(v);
     if (a != 0.0 && (a < 1e-3 || a >= 1e6)) std::snprintf(buf, sizeof buf, "%.3e", v);

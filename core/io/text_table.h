@@ -21,7 +21,9 @@ private:
     std::vector<std::vector<std::string>> rows_;
 };
 
-// A number for display: 4 significant digits, plain or scientific as fits; "-" for NaN.
+// A number for display: 4 significant digits, plain or scientific as fits; "-" for NaN
+// (not applicable), "undefined" for an infinity (the report beside it says why): no
+// "inf" or "nan" ever reaches text output (issue 12).
 std::string displayNumber(double v);
 
 }  // namespace tl

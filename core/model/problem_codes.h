@@ -22,6 +22,7 @@ namespace code {
 inline constexpr const char* kEmptyName = "empty-name";
 inline constexpr const char* kDuplicateName = "duplicate-name";
 inline constexpr const char* kNegativeValue = "negative-value";  // an INPUT below zero
+inline constexpr const char* kValueTooLarge = "value-too-large";  // an INPUT beyond kMaxInputMagnitude (1e30)
 inline constexpr const char* kUnassimOutOfRange = "unassim-out-of-range";
 inline constexpr const char* kProducerConsumes = "producer-consumes";
 inline constexpr const char* kDetritusRate = "detritus-rate";
@@ -68,6 +69,73 @@ inline constexpr const char* kTLFromImport = "tl-from-import";  // no modelled p
 inline constexpr const char* kTLUndefined = "tl-undefined";     // feeding loop with no basal food
 // --- flow network (core/network) -----------------------------------------------------
 inline constexpr const char* kNetworkShortfallImport = "network-shortfall-import";
+// --- CSV model folders (core/io/csv_*) ------------------------------------------------
+inline constexpr const char* kCsvUnreadable = "csv-unreadable";
+inline constexpr const char* kCsvEncoding = "csv-encoding";
+inline constexpr const char* kCsvQuote = "csv-quote";
+inline constexpr const char* kCsvMissingFile = "csv-missing-file";
+inline constexpr const char* kCsvHeader = "csv-header";
+inline constexpr const char* kCsvMissingColumn = "csv-missing-column";
+inline constexpr const char* kCsvUnknownColumn = "csv-unknown-column";
+inline constexpr const char* kCsvDuplicateColumn = "csv-duplicate-column";
+inline constexpr const char* kCsvNoRows = "csv-no-rows";
+inline constexpr const char* kCsvRowCells = "csv-row-cells";
+inline constexpr const char* kCsvName = "csv-name";
+inline constexpr const char* kCsvKind = "csv-kind";
+inline constexpr const char* kCsvNumber = "csv-number";
+inline constexpr const char* kCsvMissingValue = "csv-missing-value";
+inline constexpr const char* kCsvDuplicateName = "csv-duplicate-name";
+inline constexpr const char* kCsvDuplicateRow = "csv-duplicate-row";
+inline constexpr const char* kCsvUnknownCompartment = "csv-unknown-compartment";
+inline constexpr const char* kCsvParameter = "csv-parameter";
+inline constexpr const char* kCsvGrade = "csv-grade";
+inline constexpr const char* kCsvDiscardPool = "csv-discard-pool";
+inline constexpr const char* kCsvUnknownSetting = "csv-unknown-setting";
+inline constexpr const char* kCsvTooManyProblems = "csv-too-many-problems";
+inline constexpr const char* kCsvWrite = "csv-write";
+// --- SCOR files (core/io/scor, core/store/scor_import) ---------------------------------
+inline constexpr const char* kScorOpen = "scor-open";
+inline constexpr const char* kScorEncoding = "scor-encoding";
+inline constexpr const char* kScorSyntax = "scor-syntax";
+inline constexpr const char* kScorNumber = "scor-number";
+inline constexpr const char* kScorCounts = "scor-counts";
+inline constexpr const char* kScorIndexRange = "scor-index-range";
+inline constexpr const char* kScorDuplicate = "scor-duplicate";
+inline constexpr const char* kScorNegative = "scor-negative";
+inline constexpr const char* kScorTruncated = "scor-truncated";
+inline constexpr const char* kScorTrailingText = "scor-trailing-text";
+inline constexpr const char* kScorNoBiomass = "scor-no-biomass";
+inline constexpr const char* kScorNoProduction = "scor-no-production";
+inline constexpr const char* kScorNoDetritus = "scor-no-detritus";
+inline constexpr const char* kScorDetritusRespiration = "scor-detritus-respiration";
+inline constexpr const char* kScorDetritusToDetritus = "scor-detritus-to-detritus";
+// --- project files (core/store) -------------------------------------------------------
+inline constexpr const char* kStoreNotFound = "store-not-found";
+inline constexpr const char* kStoreNotProject = "store-not-project";
+inline constexpr const char* kStoreForeignDatabase = "store-foreign-database";
+inline constexpr const char* kStoreDamaged = "store-damaged";
+inline constexpr const char* kStoreUnreadable = "store-unreadable";
+inline constexpr const char* kStoreOpenFailed = "store-open-failed";
+inline constexpr const char* kStoreNewerVersion = "store-newer-version";
+inline constexpr const char* kStoreMigrationFailed = "store-migration-failed";
+inline constexpr const char* kStoreReadOnly = "store-read-only";
+inline constexpr const char* kStoreBusy = "store-busy";
+inline constexpr const char* kStoreReadFailed = "store-read-failed";
+inline constexpr const char* kStoreWriteFailed = "store-write-failed";
+inline constexpr const char* kStoreCreateFailed = "store-create-failed";
+inline constexpr const char* kStoreExists = "store-exists";
+inline constexpr const char* kStoreInvalidName = "store-invalid-name";
+inline constexpr const char* kStoreDuplicateName = "store-duplicate-name";
+inline constexpr const char* kStoreInvalidValue = "store-invalid-value";
+inline constexpr const char* kStoreInvalidFraction = "store-invalid-fraction";
+inline constexpr const char* kStoreUnknownScenario = "store-unknown-scenario";
+inline constexpr const char* kStoreScenarioNeeded = "store-scenario-needed";
+inline constexpr const char* kStoreNoScenario = "store-no-scenario";
+inline constexpr const char* kStoreUnknownRun = "store-unknown-run";
+inline constexpr const char* kStoreOpenedReadOnly = "store-opened-read-only";    // a warning: reading works, writing would not
+inline constexpr const char* kStoreDiskFull = "store-disk-full";
+inline constexpr const char* kStorePermissionDenied = "store-permission-denied";
+inline constexpr const char* kStoreIoError = "store-io-error";
 }  // namespace code
 
 struct ProblemCodeInfo {

@@ -102,6 +102,14 @@ private:
                                                           "; it cannot be negative",
                     "enter a value of 0 or more, or leave the cell empty if it is unknown");
         }
+        for (Param p : kAllParams) {
+            const auto& v = c.value(p);
+            if (v && !(std::fabs(*v) <= kMaxInputMagnitude))
+                add(check::kValueTooLarge, i, key(p),
+                    sym(p) + " of " + name(i) + " is " + shown(*v) + "; values beyond 1e30 would overflow the flows "
+                                                                      "computed from them",
+                    "check the unit and the exponent of the value");
+        }
         if (const auto& u = c.value(Param::Unassim); u && c.isLiving() && (*u < 0 || *u >= 1))
             add(check::kUnassimOutOfRange, i, key(Param::Unassim),
                 "U (unassimilated share of consumption) of " + name(i) + " is " + shown(*u) +
@@ -220,6 +228,12 @@ private:
             for (std::size_t i = 0; i < m_.size(); ++i) {
                 const double landed = fleet.landings[i], discarded = fleet.discards[i];
                 const double survival = fleet.discardSurvival[i];
+                if (!(std::fabs(landed) <= kMaxInputMagnitude) || !(std::fabs(discarded) <= kMaxInputMagnitude))
+                    addFleet(check::kValueTooLarge, i,
+                             "the catch of " + name(i) + " by " + fleetName + " is " +
+                                 shown(std::fabs(landed) > std::fabs(discarded) ? landed : discarded) +
+                                 "; values beyond 1e30 would overflow the flows computed from them",
+                             "check the unit and the exponent of the value");
                 if (landed < 0)
                     addFleet(check::kNegativeLandings, i,
                              "landings of " + name(i) + " by " + fleetName + " are " + shown(landed) +

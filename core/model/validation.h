@@ -36,6 +36,12 @@ namespace check {
 using namespace code;
 }  // namespace check
 
+// The largest magnitude an input may have (B, a rate, a catch, an import). Flows are
+// products of two or three inputs and the network indices multiply flows again, so a
+// value near the largest double (1e308) would overflow to infinity; 1e30 leaves room for
+// that in any unit a model uses (this project's own limit; common practice, no source).
+inline constexpr double kMaxInputMagnitude = 1e30;
+
 // All problems of `model`, in compartment order within each group of checks
 // (names, parameters, diet, routing, harvest, model-wide). Never throws.
 Problems validateModel(const Model& model);

@@ -4,6 +4,7 @@
 #include <system_error>
 
 #include "core/io/csv_model.h"
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 #include "core/store/project_file_detail.h"
 
@@ -52,8 +53,11 @@ void readProjectFile(const fs::path& path, const ModelSourceOptions& options, Mo
     }
     out.readOnly = opened.readOnly;
     if (options.mode == OpenMode::ReadWrite) out.readOnlyReason = opened.readOnlyReason;
-    for (Problem& p : opened.problems)  // a read-only open is what was asked: no warning for it
-        if (options.mode == OpenMode::ReadWrite || p.code != "store-newer-version") out.problems.push_back(std::move(p));
+    if (opened.readOnly && out.readOnlyReason.empty() && opened.readOnlyReason != "opened read-only on request")
+        out.readOnlyReason = opened.readOnlyReason;
+    // Every note is passed on, even when read-only was asked for: a reader is told that
+    // the file is newer than this program, or cannot be written (issue 12).
+    for (Problem& p : opened.problems) out.problems.push_back(std::move(p));
     StoreResult<Project> loaded = opened.file->load();
     out.problems.insert(out.problems.end(), loaded.problems.begin(), loaded.problems.end());
     if (!loaded.value) return;
@@ -62,7 +66,7 @@ void readProjectFile(const fs::path& path, const ModelSourceOptions& options, Mo
         const Scenario* chosen = project.findScenario(*name);
         if (!chosen) {
             const std::string names = quotedNames(project);
-            out.problems.push_back(store::detail::fileProblem(path, "store-unknown-scenario",
+            out.problems.push_back(store::detail::fileProblem(path, code::kStoreUnknownScenario,
                                                "has no scenario named '" + *name + "' (it has " +
                                                    (names.empty() ? "none" : names) + ")"));
             return;
@@ -81,7 +85,7 @@ ModelSource readModelSource(const fs::path& path, const ModelSourceOptions& opti
     ModelSource out;
     std::error_code ec;
     if (!fs::exists(path, ec)) {
-        out.problems.push_back(store::detail::fileProblem(path, "store-not-found",
+        out.problems.push_back(store::detail::fileProblem(path, code::kStoreNotFound,
                                            "no such file or folder (expected a CSV model folder or a .tledger project)"));
         return out;
     }
@@ -100,10 +104,10 @@ StoreResult<Scenario> readScenarioSource(const fs::path& path, const std::option
     if (scenarios.size() == 1) {
         result.value = std::move(scenarios.front());
     } else if (scenarios.empty()) {
-        result.problems.push_back(store::detail::fileProblem(path, "store-no-scenario", "holds no scenario yet",
+        result.problems.push_back(store::detail::fileProblem(path, code::kStoreNoScenario, "holds no scenario yet",
                                               "Import one with: tledger import CSV_FOLDER --into PROJECT --scenario NAME"));
     } else {
-        result.problems.push_back(store::detail::fileProblem(path, "store-scenario-needed",
+        result.problems.push_back(store::detail::fileProblem(path, code::kStoreScenarioNeeded,
                                               "holds " + std::to_string(scenarios.size()) + " scenarios (" +
                                                   quotedNames(*source.project) + "); say which one",
                                               "Add --scenario NAME."));

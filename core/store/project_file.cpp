@@ -2,6 +2,7 @@
 
 #include <set>
 
+#include "core/model/problem_codes.h"
 #include "core/store/project_file_detail.h"
 #include "core/store/schema.h"
 #include "core/store/sqlite_statement.h"
@@ -17,13 +18,12 @@ StoreResult<Project> ProjectFile::load()
 {
     StoreResult<Project> result;
     if (const auto error = execute(db_, "BEGIN")) {  // one read snapshot for the whole project
-        result.problems.push_back(fileProblem(path_, isBusy(db_) ? "store-busy" : "store-read-failed",
-                                              "cannot be read: " + *error));
+        result.problems.push_back(readFailure(path_, store::SqliteError::of(db_), "cannot be read"));
         return result;
     }
     const auto info = readInfo(db_);
     if (!info) {
-        result.problems.push_back(fileProblem(path_, "store-damaged", "the project information is missing"));
+        result.problems.push_back(fileProblem(path_, code::kStoreDamaged, "the project information is missing"));
         execute(db_, "ROLLBACK");
         return result;
     }
@@ -33,7 +33,7 @@ StoreResult<Project> ProjectFile::load()
     {
         Statement st(db_, "SELECT id FROM scenario ORDER BY position, id");
         while (st.step()) ids.push_back(st.integer(0));
-        if (st.failed()) result.problems.push_back(fileProblem(path_, "store-read-failed", sqliteError(db_)));
+        if (st.failed()) result.problems.push_back(fileProblem(path_, code::kStoreReadFailed, sqliteError(db_)));
     }
     for (std::int64_t id : ids)
         if (auto s = readScenario(db_, path_, schemaVersion_, id, project.info, result.problems))
@@ -57,7 +57,7 @@ StoreResult<std::vector<ScenarioSummary>> ProjectFile::listScenarios()
     while (st.step())
         list.push_back({st.text(0), st.text(1), st.text(2), st.text(3), static_cast<std::size_t>(st.integer(4))});
     if (st.failed()) {
-        result.problems.push_back(fileProblem(path_, "store-read-failed", "the scenarios cannot be listed: " + sqliteError(db_)));
+        result.problems.push_back(fileProblem(path_, code::kStoreReadFailed, "the scenarios cannot be listed: " + sqliteError(db_)));
         return result;
     }
     result.value = std::move(list);
@@ -68,15 +68,14 @@ StoreResult<Scenario> ProjectFile::loadScenario(const std::string& name)
 {
     StoreResult<Scenario> result;
     if (const auto error = execute(db_, "BEGIN")) {
-        result.problems.push_back(fileProblem(path_, isBusy(db_) ? "store-busy" : "store-read-failed",
-                                              "cannot be read: " + *error));
+        result.problems.push_back(readFailure(path_, store::SqliteError::of(db_), "cannot be read"));
         return result;
     }
     const auto info = readInfo(db_);
     const auto id = scenarioId(db_, trimmed(name));
-    if (!info) result.problems.push_back(fileProblem(path_, "store-damaged", "the project information is missing"));
+    if (!info) result.problems.push_back(fileProblem(path_, code::kStoreDamaged, "the project information is missing"));
     else if (!id)
-        result.problems.push_back(fileProblem(path_, "store-unknown-scenario", "has no scenario named '" + name + "'"));
+        result.problems.push_back(fileProblem(path_, code::kStoreUnknownScenario, "has no scenario named '" + name + "'"));
     else
         result.value = readScenario(db_, path_, schemaVersion_, *id, *info, result.problems);
     execute(db_, "ROLLBACK");
@@ -91,15 +90,17 @@ Problems writeTransaction(sqlite3* db, const fs::path& path, bool readOnly, cons
                           const std::string& what, Body&& body)
 {
     if (readOnly)
-        return {fileProblem(path, "store-read-only", what + " refused: the project is " + reason)};
+        return {fileProblem(path, code::kStoreReadOnly,
+                            what + " refused: the project was opened read-only (" + reason + "); nothing was changed",
+                            "Use Save As to keep the changes in a copy.")};
     Transaction tx(db);
-    if (!tx.begun()) return {writeFailure(path, db, what)};
+    if (!tx.begun()) return {writeFailure(path, tx.failure(), what)};
     Problems problems;
     if (!body(problems)) {
         if (problems.empty()) problems.push_back(writeFailure(path, db, what));
         return problems;  // the guard rolls back
     }
-    if (!tx.commit()) return {writeFailure(path, db, what)};
+    if (!tx.commit()) return {writeFailure(path, tx.failure(), what)};
     return problems;
 }
 
@@ -112,7 +113,7 @@ Problems ProjectFile::save(const Project& project)
     for (const Scenario& s : project.scenarios) {
         checkScenarioWritable(path_, s, problems);
         if (!names.insert(trimmed(s.name)).second)
-            problems.push_back(fileProblem(path_, "store-duplicate-name", "two scenarios are named '" + trimmed(s.name) + "'"));
+            problems.push_back(fileProblem(path_, code::kStoreDuplicateName, "two scenarios are named '" + trimmed(s.name) + "'"));
     }
     if (hasErrors(problems)) return problems;
     return writeTransaction(db_, path_, readOnly_, readOnlyReason_, "saving the project", [&](Problems&) {
@@ -153,7 +154,7 @@ Problems ProjectFile::createScenario(const Scenario& scenario)
     const std::string name = trimmed(scenario.name);
     return writeTransaction(db_, path_, readOnly_, readOnlyReason_, "creating scenario '" + name + "'", [&](Problems& out) {
         if (scenarioId(db_, name)) {
-            out.push_back(fileProblem(path_, "store-duplicate-name", "already has a scenario named '" + name + "'",
+            out.push_back(fileProblem(path_, code::kStoreDuplicateName, "already has a scenario named '" + name + "'",
                                       "Choose another name."));
             return false;
         }
@@ -165,7 +166,7 @@ StoreResult<std::int64_t> ProjectFile::addRun(const StoredRun& run)
 {
     StoreResult<std::int64_t> result;
     if (run.kind.empty()) {
-        result.problems.push_back(fileProblem(path_, "store-invalid-name", "a stored run needs a kind (it is empty)"));
+        result.problems.push_back(fileProblem(path_, code::kStoreInvalidName, "a stored run needs a kind (it is empty)"));
         return result;
     }
     std::int64_t id = 0;
@@ -175,7 +176,7 @@ StoreResult<std::int64_t> ProjectFile::addRun(const StoredRun& run)
                                            if (!run.scenario.empty()) {
                                                sid = scenarioId(db_, run.scenario);
                                                if (!sid) {
-                                                   out.push_back(fileProblem(path_, "store-unknown-scenario",
+                                                   out.push_back(fileProblem(path_, code::kStoreUnknownScenario,
                                                                              "has no scenario named '" + run.scenario + "'"));
                                                    return false;
                                                }
@@ -206,7 +207,7 @@ StoreResult<std::vector<StoredRun>> ProjectFile::listRuns()
                       "FROM stored_run r LEFT JOIN scenario s ON s.id = r.scenario_id ORDER BY r.id");
     while (st.step()) runs.push_back({st.integer(0), st.text(1), st.text(2), st.text(3), st.text(4), st.text(5)});
     if (st.failed()) {
-        result.problems.push_back(fileProblem(path_, "store-read-failed", "the stored runs cannot be read: " + sqliteError(db_)));
+        result.problems.push_back(fileProblem(path_, code::kStoreReadFailed, "the stored runs cannot be read: " + sqliteError(db_)));
         return result;
     }
     result.value = std::move(runs);
@@ -219,7 +220,7 @@ Problems ProjectFile::deleteRun(std::int64_t id)
         Statement del(db_, "DELETE FROM stored_run WHERE id = ?1");
         if (!del.bind(1, id).run()) return false;
         if (sqlite3_changes(db_) == 0) {
-            out.push_back(fileProblem(path_, "store-unknown-run", "has no stored run number " + std::to_string(id)));
+            out.push_back(fileProblem(path_, code::kStoreUnknownRun, "has no stored run number " + std::to_string(id)));
             return false;
         }
         return true;

@@ -18,6 +18,7 @@
 #include "core/model/problem.h"
 #include "core/store/project.h"
 #include "core/store/project_file.h"
+#include "core/store/sqlite_statement.h"
 
 namespace tl::store::detail {
 
@@ -29,7 +30,25 @@ inline constexpr int kDefaultBusyTimeoutMs = 5000;
 Problem fileProblem(const fs::path& file, std::string code, std::string message, std::string hint = {});
 std::string sqliteError(sqlite3* db);
 bool isBusy(sqlite3* db);
-Problem writeFailure(const fs::path& file, sqlite3* db, const std::string& what);
+// Why a SQLite call failed, in words a user can act on: the disk is full, permission
+// is denied (or the disk is read-only), another program holds the file, the disk
+// reported an I/O error, or the file is damaged (SQLITE_CORRUPT / NOTADB only: nothing
+// else is ever called damage).
+struct FailureCause {
+    const char* code;  // code::kStoreDiskFull, kStorePermissionDenied, kStoreBusy, kStoreIoError, kStoreDamaged or the fallback
+    std::string cause;
+    std::string hint;
+};
+FailureCause failureCause(const store::SqliteError& error, const char* fallback);
+bool isDamage(const store::SqliteError& error);
+// A failed write: names the cause and says the file keeps its previous content.
+Problem writeFailure(const fs::path& file, const store::SqliteError& error, const std::string& what);
+Problem writeFailure(const fs::path& file, sqlite3* db, const std::string& what);  // the error as it stands now
+// A failed read ("cannot be read: the disk reported an input/output error...").
+Problem readFailure(const fs::path& file, const store::SqliteError& error, const std::string& what);
+// Why this process may not write `file` or create files (SQLite's -wal, -shm) beside
+// it; nothing when it may.
+std::optional<std::string> whyNotWritable(const fs::path& file);
 void configureConnection(sqlite3* db, int busyTimeoutMs);
 std::optional<std::int64_t> pragmaInt(sqlite3* db, const char* sql);
 bool fraction(double v);

@@ -4,6 +4,7 @@
 #include <fstream>
 #include <system_error>
 
+#include "core/model/problem_codes.h"
 #include "core/store/schema.h"
 
 namespace tl::store::detail {
@@ -30,25 +31,25 @@ std::optional<Problem> checkHeader(const fs::path& path)
     std::error_code ec;
     const auto status = fs::status(path, ec);
     if (ec || !fs::exists(status))
-        return fileProblem(path, "store-not-found", "no such project file");
+        return fileProblem(path, code::kStoreNotFound, "no such project file");
     if (!fs::is_regular_file(status))
-        return fileProblem(path, "store-not-project", "not a Trophic Ledger project: it is not a regular file");
+        return fileProblem(path, code::kStoreNotProject, "not a Trophic Ledger project: it is not a regular file");
     std::ifstream in(path, std::ios::binary);
-    if (!in) return fileProblem(path, "store-unreadable", "cannot be read (permission denied?)");
+    if (!in) return fileProblem(path, code::kStoreUnreadable, "cannot be read (permission denied?)");
     unsigned char header[100] = {};
     in.read(reinterpret_cast<char*>(header), sizeof header);
     const std::streamsize got = in.gcount();
-    if (got == 0) return fileProblem(path, "store-not-project", "not a Trophic Ledger project: the file is empty");
+    if (got == 0) return fileProblem(path, code::kStoreNotProject, "not a Trophic Ledger project: the file is empty");
     static constexpr char kMagic[] = "SQLite format 3";  // 16 bytes with the terminating NUL
     if (got < 100 || std::char_traits<char>::compare(reinterpret_cast<const char*>(header), kMagic, 16) != 0) {
         if (got >= 16 && std::char_traits<char>::compare(reinterpret_cast<const char*>(header), kMagic, 16) == 0)
-            return fileProblem(path, "store-damaged", "damaged: the file is cut short (shorter than its own header)",
+            return fileProblem(path, code::kStoreDamaged, "damaged: the file is cut short (shorter than its own header)",
                                "The file was left unchanged; restore it from a backup.");
-        return fileProblem(path, "store-not-project", "not a Trophic Ledger project: it is not a SQLite database");
+        return fileProblem(path, code::kStoreNotProject, "not a Trophic Ledger project: it is not a SQLite database");
     }
     const std::uint32_t appId = bigEndian32(header + 68);
     if (appId != static_cast<std::uint32_t>(store::kApplicationId)) {
-        return fileProblem(path, "store-foreign-database",
+        return fileProblem(path, code::kStoreForeignDatabase,
                            appId == 0 ? "not a Trophic Ledger project: a SQLite database of another program "
                                         "(it carries no Trophic Ledger application id); it was left unchanged"
                                       : "not a Trophic Ledger project: a SQLite database of another program "
@@ -66,7 +67,7 @@ std::optional<Problem> checkHeader(const fs::path& path)
     const bool walHasContent = fs::exists(wal, ec) && fs::file_size(wal, ec) > 0;
     const auto size = fs::file_size(path, ec);
     if (!ec && pagesValid && !walHasContent && pageSize > 0 && size < pageSize * pages)
-        return fileProblem(path, "store-damaged",
+        return fileProblem(path, code::kStoreDamaged,
                            "damaged: the file is cut short (" + std::to_string(size) + " bytes of " +
                                std::to_string(pageSize * pages) + ")",
                            "The file was left unchanged; restore it from a backup.");

@@ -1,14 +1,37 @@
 #include <unistd.h>
 
+#include <cctype>
 #include <set>
 #include <system_error>
 
 #include "core/io/atomic_file.h"
+#include "core/model/problem_codes.h"
 #include "core/store/project_file_detail.h"
 #include "core/store/schema.h"
 #include "core/store/sqlite_statement.h"
 
 namespace tl::store::detail {
+namespace {
+
+// `path` for a SQLite URI (https://sqlite.org/uri.html): every byte outside the
+// unreserved set and '/' percent-encoded, so '?', '#' and '%' in a name stay a name.
+std::string uriPath(const fs::path& path)
+{
+    static constexpr char kHex[] = "0123456789ABCDEF";
+    std::string out;
+    for (unsigned char c : path.string()) {
+        if (std::isalnum(c) || c == '/' || c == '-' || c == '.' || c == '_' || c == '~') {
+            out += static_cast<char>(c);
+        } else {
+            out += '%';
+            out += kHex[c >> 4];
+            out += kHex[c & 15];
+        }
+    }
+    return out;
+}
+
+}  // namespace
 
 // Opens an existing file whose header has been checked, applies the safe defaults,
 // verifies the content and migrates it when allowed.
@@ -30,20 +53,27 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
         if (!hadShm && !fs::exists(wal, ec)) fs::remove(shm, ec);
         return std::move(result);
     };
-    // A read-only project is still opened read-write when the file system allows, with
-    // PRAGMA query_only so that no statement can change it: then closing the last
-    // connection removes the -wal and -shm files as usual, instead of leaving them
-    // beside the project. Read-only media fall back to a read-only connection.
-    auto openDb = [&](bool readOnly) -> sqlite3* {
+    // A read-only open of a file this process may write is still a read-write
+    // connection, with PRAGMA query_only so that no statement can change it: then
+    // closing the last connection removes the -wal and -shm files as usual, instead of
+    // leaving them beside the project. A file this process may NOT write (mode 444, a
+    // folder at 555, a read-only share or disk) is never given a -wal or -shm: it is
+    // read through a read-only URI, `immutable` unless a -wal left by its owner holds
+    // pages the file still needs (then plain mode=ro reads them).
+    const std::optional<std::string> denied = whyNotWritable(path);
+    const bool walHasContent = hadWal && fs::file_size(wal, ec) > 0;
+    auto openDb = [&](bool readOnly, bool immutable) -> sqlite3* {
         sqlite3* db = nullptr;
-        int rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE, nullptr);
-        if (rc != SQLITE_OK && readOnly) {
-            sqlite3_close(db);
-            db = nullptr;
-            rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READONLY, nullptr);
+        int rc = SQLITE_OK;
+        if (immutable || denied) {
+            const std::string uri = "file:" + uriPath(fs::absolute(path, ec)) +
+                                    (immutable || !walHasContent ? "?mode=ro&immutable=1" : "?mode=ro");
+            rc = sqlite3_open_v2(uri.c_str(), &db, SQLITE_OPEN_READONLY | SQLITE_OPEN_URI, nullptr);
+        } else {
+            rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE, nullptr);
         }
         if (rc != SQLITE_OK) {
-            result.problems.push_back(fileProblem(path, "store-open-failed", "cannot be opened: " + sqliteError(db)));
+            result.problems.push_back(readFailure(path, store::SqliteError::of(db), "cannot be opened"));
             sqlite3_close(db);
             return nullptr;
         }
@@ -51,34 +81,71 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
         if (readOnly) execute(db, "PRAGMA query_only = ON");
         return db;
     };
-    bool readOnly = mode == OpenMode::ReadOnly;
-    sqlite3* db = openDb(readOnly);
+    bool readOnly = mode == OpenMode::ReadOnly || denied.has_value();
+    std::string reason;
+    if (denied) {
+        reason = *denied;
+        Problem note = fileProblem(path, code::kStoreOpenedReadOnly, "opened read-only: " + *denied +
+                                                                       "; nothing is written to it or beside it",
+                                   "Use Save As to keep changes in a copy.");
+        note.severity = Severity::Warning;
+        result.problems.push_back(note);
+    }
+    sqlite3* db = openDb(readOnly, false);
     if (!db) return result;
 
-    {
+    // The content check. Only a verdict of the check, or SQLite's "corrupt" / "not a
+    // database", is damage: a full disk, a denied permission or a lock is named as such.
+    std::string verdict;
+    store::SqliteError error;
+    auto sound = [&] {
         Statement check(db, "PRAGMA quick_check");
-        const bool stepped = check.step();
-        if (!stepped || check.text(0) != "ok") {
-            const std::string why = stepped ? check.text(0) : sqliteError(db);
-            if (!stepped && isBusy(db)) {
-                result.problems.push_back(fileProblem(path, "store-busy",
-                                                      "is busy (another program holds it locked); try again in a moment"));
-            } else {
-                result.problems.push_back(fileProblem(path, "store-damaged", "damaged: " + why,
-                                                      "The file was left unchanged; restore it from a backup."));
-            }
-            return refuse(db);
+        if (check.step()) {
+            verdict = check.text(0);
+            return verdict == "ok";
         }
+        error = store::SqliteError::of(db);
+        return false;
+    };
+    bool ok = sound();
+    const int primary = error.code & 0xff;
+    bool immutable = false;
+    if (!ok && verdict.empty() && !walHasContent && !isDamage(error) && primary != SQLITE_BUSY &&
+        primary != SQLITE_LOCKED) {
+        // A connection that cannot make the -shm beside the file (a full disk, say) may
+        // still read the file as it stands on disk: read-only, and saying why.
+        sqlite3_close(db);
+        immutable = true;
+        db = openDb(true, true);
+        if (!db) return result;
+        ok = sound();
+        if (ok && !readOnly) {
+            readOnly = true;
+            reason = failureCause(error, code::kStoreReadFailed).cause;
+            Problem note = fileProblem(path, code::kStoreOpenedReadOnly,
+                                       "opened read-only: it cannot be opened for writing (" + reason + ")",
+                                       "Use Save As to keep changes in a copy.");
+            note.severity = Severity::Warning;
+            result.problems.push_back(note);
+        }
+        readOnly = true;
+    }
+    if (!ok) {
+        if (!verdict.empty())
+            result.problems.push_back(fileProblem(path, code::kStoreDamaged, "damaged: " + verdict,
+                                                  "The file was left unchanged; restore it from a backup."));
+        else
+            result.problems.push_back(readFailure(path, error, "cannot be read"));
+        return refuse(db);
     }
     const auto appId = pragmaInt(db, "PRAGMA application_id");
     const auto version = pragmaInt(db, "PRAGMA user_version");
     if (!appId || !version || *appId != store::kApplicationId || *version < 1) {
-        result.problems.push_back(fileProblem(path, "store-not-project",
+        result.problems.push_back(fileProblem(path, code::kStoreNotProject,
                                               "not a Trophic Ledger project (no schema version); it was left unchanged"));
         return refuse(db);
     }
     int schema = static_cast<int>(*version);
-    std::string reason;
     if (schema > store::kSchemaVersion) {
         reason = "made by a newer version of Trophic Ledger (schema " + std::to_string(schema) +
                  "; this program writes schema " + std::to_string(store::kSchemaVersion) +
@@ -86,13 +153,13 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
         if (!readOnly) {
             sqlite3_close(db);
             readOnly = true;
-            db = openDb(true);
+            db = openDb(true, immutable);
             if (!db) return result;
         }
-        Problem note = fileProblem(path, "store-newer-version", reason, "Open it with a newer Trophic Ledger to edit it.");
+        Problem note = fileProblem(path, code::kStoreNewerVersion, reason, "Open it with a newer Trophic Ledger to edit it.");
         note.severity = Severity::Warning;
         result.problems.push_back(note);
-    } else if (readOnly) {
+    } else if (readOnly && reason.empty()) {
         reason = "opened read-only on request";
     } else if (schema < store::kSchemaVersion) {
         // All steps in one transaction: the file ends at the current version or stays
@@ -100,7 +167,7 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
         const bool migrated = [&] {
             Transaction tx(db);
             if (!tx.begun()) {
-                result.problems.push_back(writeFailure(path, db, "updating the file to the current schema"));
+                result.problems.push_back(writeFailure(path, tx.failure(), "updating the file to the current schema"));
                 return false;
             }
             const auto current = pragmaInt(db, "PRAGMA user_version");  // another process may have migrated it
@@ -108,7 +175,7 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
             for (const store::Migration& step : store::migrations()) {
                 if (step.from != schema) continue;
                 if (const auto error = execute(db, step.sql)) {
-                    result.problems.push_back(fileProblem(path, "store-migration-failed",
+                    result.problems.push_back(fileProblem(path, code::kStoreMigrationFailed,
                                                           "could not be updated from schema " + std::to_string(schema) +
                                                               ": " + *error + "; nothing was changed",
                                                           "Open it read-only, or with the program version that made it."));
@@ -116,8 +183,12 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
                 }
                 ++schema;
             }
-            if (execute(db, "PRAGMA user_version = " + std::to_string(schema)) || !tx.commit()) {
+            if (execute(db, "PRAGMA user_version = " + std::to_string(schema))) {
                 result.problems.push_back(writeFailure(path, db, "updating the file to the current schema"));
+                return false;
+            }
+            if (!tx.commit()) {
+                result.problems.push_back(writeFailure(path, tx.failure(), "updating the file to the current schema"));
                 return false;
             }
             return true;
@@ -174,7 +245,7 @@ ProjectOpenResult ProjectFile::create(const fs::path& path, const Project& proje
     ProjectOpenResult result;
     std::error_code ec;
     if (fs::exists(fs::symlink_status(path, ec))) {
-        result.problems.push_back(fileProblem(path, "store-exists", "already exists; a new project is never written over it",
+        result.problems.push_back(fileProblem(path, code::kStoreExists, "already exists; a new project is never written over it",
                                               "Choose another file name, or open the existing project."));
         return result;
     }
@@ -182,7 +253,7 @@ ProjectOpenResult ProjectFile::create(const fs::path& path, const Project& proje
     std::set<std::string> names;
     for (const Scenario& s : project.scenarios)
         if (!names.insert(trimmed(s.name)).second)
-            result.problems.push_back(fileProblem(path, "store-duplicate-name", "two scenarios are named '" + trimmed(s.name) + "'"));
+            result.problems.push_back(fileProblem(path, code::kStoreDuplicateName, "two scenarios are named '" + trimmed(s.name) + "'"));
     if (hasErrors(result.problems)) return result;
 
     // Built beside the target under a temporary name, then linked into place, so that
@@ -198,7 +269,7 @@ ProjectOpenResult ProjectFile::create(const fs::path& path, const Project& proje
     sqlite3* db = nullptr;
     if (sqlite3_open_v2(temp.c_str(), &db, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE | SQLITE_OPEN_EXCLUSIVE, nullptr) !=
         SQLITE_OK) {
-        result.problems.push_back(fileProblem(path, "store-create-failed", "cannot be created: " + sqliteError(db)));
+        result.problems.push_back(fileProblem(path, code::kStoreCreateFailed, "cannot be created: " + sqliteError(db)));
         sqlite3_close(db);
         removeTemp();
         return result;
@@ -215,14 +286,14 @@ ProjectOpenResult ProjectFile::create(const fs::path& path, const Project& proje
         ok = ok && insertRuns(db, store::kSchemaVersion, project.runs, true) && tx.commit();
     }
     if (!ok) {
-        result.problems.push_back(fileProblem(path, "store-create-failed", "cannot be created: " + sqliteError(db)));
+        result.problems.push_back(fileProblem(path, code::kStoreCreateFailed, "cannot be created: " + sqliteError(db)));
         sqlite3_close(db);
         removeTemp();
         return result;
     }
     sqlite3_close(db);  // checkpoints the WAL into the file
     if (::link(temp.c_str(), path.c_str()) != 0) {
-        result.problems.push_back(fileProblem(path, "store-create-failed",
+        result.problems.push_back(fileProblem(path, code::kStoreCreateFailed,
                                               "cannot be created (another file appeared under that name, or the folder "
                                               "does not allow it)"));
         removeTemp();

@@ -5,6 +5,7 @@
 #include <set>
 #include <unordered_map>
 
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 #include "core/store/sqlite_statement.h"
 
@@ -20,7 +21,7 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
 {
     const std::string name = trimmed(s.name);
     if (name.empty()) {
-        out.push_back(fileProblem(file, "store-invalid-name", "a scenario needs a name (it is empty)"));
+        out.push_back(fileProblem(file, code::kStoreInvalidName, "a scenario needs a name (it is empty)"));
         return;
     }
     const Model& m = s.model;
@@ -29,14 +30,14 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
     for (std::size_t i = 0; i < m.size(); ++i) {
         const Compartment& c = m.compartment(i);
         if (c.name.empty())
-            out.push_back(fileProblem(file, "store-invalid-name",
+            out.push_back(fileProblem(file, code::kStoreInvalidName,
                                       "compartment " + std::to_string(i + 1) + in + " has no name"));
         else if (!seen.insert(c.name).second)
-            out.push_back(fileProblem(file, "store-duplicate-name", "two compartments are named '" + c.name + "'" + in));
+            out.push_back(fileProblem(file, code::kStoreDuplicateName, "two compartments are named '" + c.name + "'" + in));
         for (Param p : kAllParams) {
             const auto& v = c.value(p);
             if (v && !std::isfinite(*v)) {
-                Problem pr = fileProblem(file, "store-invalid-value",
+                Problem pr = fileProblem(file, code::kStoreInvalidValue,
                                          std::string(paramSymbol(p)) + " of '" + c.name + "'" + in + " is not a finite number");
                 pr.compartment = c.name;
                 pr.parameter = std::string(paramKey(p));
@@ -44,7 +45,7 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
             }
             const auto& cv = c.confidenceOf(p).cv;
             if (cv && !(std::isfinite(*cv) && *cv >= 0.0)) {
-                Problem pr = fileProblem(file, "store-invalid-value",
+                Problem pr = fileProblem(file, code::kStoreInvalidValue,
                                          "the CV of " + std::string(paramSymbol(p)) + " of '" + c.name + "'" + in +
                                              " must be a number of at least 0");
                 pr.compartment = c.name;
@@ -53,7 +54,7 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
             }
         }
         auto badFraction = [&](const std::string& what, const std::string& parameter, const std::string& other) {
-            Problem pr = fileProblem(file, "store-invalid-fraction", what + in + " must lie between 0 and 1");
+            Problem pr = fileProblem(file, code::kStoreInvalidFraction, what + in + " must lie between 0 and 1");
             pr.compartment = c.name;
             pr.parameter = parameter;
             pr.prey = other;
@@ -74,15 +75,15 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
     }
     std::set<std::string> fleetNames;
     for (const Fleet& f : m.fleets()) {
-        if (f.name.empty()) out.push_back(fileProblem(file, "store-invalid-name", "a fleet" + in + " has no name"));
+        if (f.name.empty()) out.push_back(fileProblem(file, code::kStoreInvalidName, "a fleet" + in + " has no name"));
         else if (!fleetNames.insert(f.name).second)
-            out.push_back(fileProblem(file, "store-duplicate-name", "two fleets are named '" + f.name + "'" + in));
+            out.push_back(fileProblem(file, code::kStoreDuplicateName, "two fleets are named '" + f.name + "'" + in));
         for (std::size_t i = 0; i < m.size(); ++i) {
             const double landed = i < f.landings.size() ? f.landings[i] : 0.0;
             const double discarded = i < f.discards.size() ? f.discards[i] : 0.0;
             const double survival = i < f.discardSurvival.size() ? f.discardSurvival[i] : 0.0;
             if (!std::isfinite(landed) || !std::isfinite(discarded) || !fraction(survival)) {
-                Problem pr = fileProblem(file, "store-invalid-value",
+                Problem pr = fileProblem(file, code::kStoreInvalidValue,
                                          "the catch of '" + m.compartment(i).name + "' by fleet '" + f.name + "'" + in +
                                              " needs finite landings and discards and a discard survival between 0 and 1");
                 pr.compartment = m.compartment(i).name;
@@ -93,7 +94,7 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
     }
     for (const auto& [compartment, pos] : s.layout)
         if (!std::isfinite(pos.x) || !std::isfinite(pos.y))
-            out.push_back(fileProblem(file, "store-invalid-value",
+            out.push_back(fileProblem(file, code::kStoreInvalidValue,
                                       "the flow-map position of '" + compartment + "'" + in + " is not finite"));
 }
 
@@ -276,7 +277,7 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
     s.model.rules = info.rules;
     const std::size_t before = problems.size();
     auto damaged = [&](const std::string& what) {
-        problems.push_back(fileProblem(file, "store-damaged", "scenario '" + s.name + "': " + what,
+        problems.push_back(fileProblem(file, code::kStoreDamaged, "scenario '" + s.name + "': " + what,
                                        "The file was left unchanged; it may have been edited by another program."));
     };
 

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <vector>
 
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 
 namespace tl {
@@ -81,20 +82,20 @@ ScorImport modelFromScor(const ScorNetwork& net, const std::string& fileName)
             if (B > 0.0) c.value(Param::Biomass) = B;
             if (imp != 0.0) c.value(Param::DetritusImport) = imp;
             if (R > 0.0)
-                out.problems.push_back(scorProblem(fileName, Severity::Warning, "scor-detritus-respiration", c.name,
+                out.problems.push_back(scorProblem(fileName, Severity::Warning, code::kScorDetritusRespiration, c.name,
                                                    "detritus pool '" + c.name + "' respires " + formatNumber(R) +
                                                        "; a model has no respiration of detritus, so it leaves as the "
                                                        "pool's surplus export"));
             for (const auto& [d, flow] : flows.out[i])
                 if (isPool(d) && flow > 0.0)
-                    out.problems.push_back(scorProblem(fileName, Severity::Warning, "scor-detritus-to-detritus", c.name,
+                    out.problems.push_back(scorProblem(fileName, Severity::Warning, code::kScorDetritusToDetritus, c.name,
                                                        "the flow from detritus pool '" + c.name + "' to '" +
                                                            m.compartment(d).name + "' (" + formatNumber(flow) +
                                                            ") cannot be expressed; it leaves as the pool's surplus export"));
             continue;
         }
         if (!(B > 0.0)) {
-            out.problems.push_back(scorProblem(fileName, Severity::Error, "scor-no-biomass", c.name,
+            out.problems.push_back(scorProblem(fileName, Severity::Error, code::kScorNoBiomass, c.name,
                                                "living compartment '" + c.name + "' has no positive stock (" +
                                                    formatNumber(B) + "); a model needs its biomass"));
             continue;
@@ -110,7 +111,7 @@ ScorImport modelFromScor(const ScorNetwork& net, const std::string& fileName)
                 if (flow > 0.0) m.setDiet(i, k, flow / Q);
             if (imp > 0.0) m.setDietImport(i, imp / Q);
             if (!(P > 0.0)) {
-                out.problems.push_back(scorProblem(fileName, Severity::Error, "scor-no-production", c.name,
+                out.problems.push_back(scorProblem(fileName, Severity::Error, code::kScorNoProduction, c.name,
                                                    "consumer '" + c.name + "' respires " + formatNumber(R) +
                                                        " of a consumption of " + formatNumber(Q) +
                                                        ", which leaves no production"));
@@ -119,7 +120,7 @@ ScorImport modelFromScor(const ScorNetwork& net, const std::string& fileName)
         } else {
             P = imp > 0.0 ? imp - R : outflow + exp;
             if (!(P > 0.0)) {
-                out.problems.push_back(scorProblem(fileName, Severity::Error, "scor-no-production", c.name,
+                out.problems.push_back(scorProblem(fileName, Severity::Error, code::kScorNoProduction, c.name,
                                                    "producer '" + c.name + "' has no net production (import " +
                                                        formatNumber(imp) + ", respiration " + formatNumber(R) + ")"));
                 continue;
@@ -135,7 +136,7 @@ ScorImport modelFromScor(const ScorNetwork& net, const std::string& fileName)
                 if (isPool(d) && flow > 0.0) m.setRouting(i, d, flow / toDetritus);
     }
     if (pools.empty())
-        out.problems.push_back(scorProblem(fileName, Severity::Warning, "scor-no-detritus", "",
+        out.problems.push_back(scorProblem(fileName, Severity::Warning, code::kScorNoDetritus, "",
                                            "the network has no non-living compartment; a model normally has a "
                                            "detritus pool"));
     if (!hasErrors(out.problems)) out.model = std::move(m);

@@ -94,7 +94,17 @@ std::optional<std::string> execute(sqlite3* db, std::string_view sql)
     return text;
 }
 
-Transaction::Transaction(sqlite3* db) : db_(db) { begun_ = !execute(db, "BEGIN IMMEDIATE"); }
+SqliteError SqliteError::of(sqlite3* db)
+{
+    if (!db) return {SQLITE_NOMEM, 0, "out of memory"};
+    return {sqlite3_extended_errcode(db), sqlite3_system_errno(db), sqlite3_errmsg(db)};
+}
+
+Transaction::Transaction(sqlite3* db) : db_(db)
+{
+    begun_ = !execute(db, "BEGIN IMMEDIATE");
+    if (!begun_) failure_ = SqliteError::of(db);
+}
 
 Transaction::~Transaction()
 {
@@ -105,7 +115,10 @@ bool Transaction::commit()
 {
     if (!begun_ || done_) return false;
     if (execute(db_, "COMMIT")) {
-        execute(db_, "ROLLBACK");
+        failure_ = SqliteError::of(db_);
+        // A full disk or an I/O error may already have rolled the transaction back;
+        // a second ROLLBACK would only add "no transaction is active".
+        if (!sqlite3_get_autocommit(db_)) execute(db_, "ROLLBACK");
         done_ = true;
         return false;
     }

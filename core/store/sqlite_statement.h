@@ -50,6 +50,15 @@ private:
     int rc_ = 0;
 };
 
+// What a failed SQLite call left behind, taken at once: a later call (a ROLLBACK after a
+// failed COMMIT) would overwrite it with its own message.
+struct SqliteError {
+    int code = 0;         // extended result code
+    int systemErrno = 0;  // errno of the failing system call (ENOSPC, EACCES, EROFS...), 0 if none
+    std::string message;
+    static SqliteError of(sqlite3* db);
+};
+
 // Runs `sql` (possibly several statements, no parameters). Returns the SQLite error
 // text, or nothing on success.
 std::optional<std::string> execute(sqlite3* db, std::string_view sql);
@@ -65,9 +74,12 @@ public:
 
     bool begun() const { return begun_; }
     bool commit();  // false on failure (the transaction is then rolled back)
+    // Why BEGIN or COMMIT failed, as SQLite said at the time.
+    const SqliteError& failure() const { return failure_; }
 
 private:
     sqlite3* db_;
+    SqliteError failure_;
     bool begun_ = false;
     bool done_ = false;
 };

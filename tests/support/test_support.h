@@ -4,6 +4,7 @@
 // values and keys, not substrings).
 #pragma once
 
+#include <grp.h>
 #include <unistd.h>
 #include <sys/wait.h>
 
@@ -12,6 +13,7 @@
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <optional>
 #include <sstream>
 #include <string>
@@ -91,6 +93,38 @@ private:
     fs::path path_;
 };
 
+// Runs `body` in a child process and returns what it reports: empty when all its checks
+// held, else the failures. Permissions do not bind root, so as root the child first
+// becomes 'nobody' (unless `asNobody` is false); `prepare` runs before that, still as
+// root (e.g. to mount a tmpfs in a namespace of its own), and a non-empty answer from it
+// is returned instead of running `body`.
+inline std::string runInChild(const std::function<std::string()>& body,
+                              const std::function<std::string()>& prepare = {}, bool asNobody = true)
+{
+    int fds[2];
+    if (::pipe(fds) != 0) return "pipe failed";
+    const pid_t pid = ::fork();
+    if (pid == 0) {
+        ::close(fds[0]);
+        std::string out = prepare ? prepare() : std::string();
+        if (out.empty() && asNobody && ::geteuid() == 0 &&
+            (::setgroups(0, nullptr) != 0 || ::setgid(65534) != 0 || ::setuid(65534) != 0))
+            out = "could not become 'nobody'";
+        if (out.empty()) out = body();
+        const ssize_t n = ::write(fds[1], out.data(), out.size());
+        ::_exit(n == static_cast<ssize_t>(out.size()) ? 0 : 3);
+    }
+    ::close(fds[1]);
+    std::string report;
+    char buffer[4096];
+    for (ssize_t n; (n = ::read(fds[0], buffer, sizeof buffer)) > 0;) report.append(buffer, static_cast<std::size_t>(n));
+    ::close(fds[0]);
+    int status = 0;
+    ::waitpid(pid, &status, 0);
+    if (!WIFEXITED(status) || WEXITSTATUS(status) != 0) report += "\n(the child process did not finish normally)";
+    return report;
+}
+
 // A CSV model folder of tests/fixtures (a path relative to it, or absolute); nullopt
 // when it does not read, with the problems in `why`.
 inline std::optional<Model> readFixtureModel(const fs::path& folder, std::string* why = nullptr)
@@ -123,10 +157,13 @@ struct CliRun {
 };
 
 // Runs `tledger ARGS` (ARGS already quoted for the shell) and captures its output.
-inline CliRun runTledger(const std::string& args)
+// `asNobody`: as root, run it as 'nobody' (setpriv), for tests of permissions.
+inline CliRun runTledger(const std::string& args, bool asNobody = false)
 {
     ScratchDir dir("cli");
-    const std::string cmd = shellQuoted(TL_TLEDGER_EXE) + " " + args + " >" + shellQuoted((dir / "out").string()) +
+    const std::string as =
+        asNobody && ::geteuid() == 0 ? "setpriv --reuid=65534 --regid=65534 --clear-groups " : "";
+    const std::string cmd = as + shellQuoted(TL_TLEDGER_EXE) + " " + args + " >" + shellQuoted((dir / "out").string()) +
                             " 2>" + shellQuoted((dir / "err").string());
     const int status = std::system(cmd.c_str());
     CliRun run;

@@ -28,8 +28,8 @@ inline const std::vector<BadCsvCase>& badCsvCases()
     static const std::vector<BadCsvCase> cases = {
         // compartments.csv: structure
         {"unknown_column", "compartments.csv", 1, 3, {"unknown column", "biomas"}},
-        {"missing_kind_column", "compartments.csv", 1, 0, {"kind"}},
-        {"empty_compartments_file", "compartments.csv", 1, 0, {"empty"}},
+        {"missing_kind_column", "compartments.csv", 1, 1, {"kind"}},  // the header line, column 1 (issue 12)
+        {"empty_compartments_file", "compartments.csv", 1, 1, {"empty"}},
         {"semicolons", "compartments.csv", 1, 1, {"semicolon"}},
         {"too_many_fields", "compartments.csv", 3, 12, {"12", "11"}},
         {"too_few_fields", "compartments.csv", 3, 3, {"3", "11"}},
@@ -56,7 +56,7 @@ inline const std::vector<BadCsvCase>& badCsvCases()
         {"diet_unknown_prey", "diet.csv", 1, 2, {"Algea"}},
         {"diet_unknown_predator", "diet.csv", 2, 1, {"Snial"}},
         {"diet_duplicate_row", "diet.csv", 3, 1, {"Snail", "line 2"}},
-        {"consumer_without_diet", "diet.csv", 0, 0, {"Snail"}},
+        {"consumer_without_diet", "compartments.csv", 3, 2, {"Snail"}},  // no diet row: its own row, kind cell
         {"producer_with_diet", "diet.csv", 3, 3, {"Algae", "producer"}},
         // diet.csv in long form (predator,prey,share): the same findings, on the entry's row
         {"long_diet_sum", "diet.csv", 2, 1, {"Snail", "0.9"}},

@@ -6,6 +6,7 @@
 #include <fstream>
 #include <map>
 #include <random>
+#include <regex>
 #include <sstream>
 
 #include "core/io/csv_table.h"
@@ -253,11 +254,11 @@ INSTANTIATE_TEST_SUITE_P(
         BadCase{"misspelt column", kC,
                 "name,kind,bioamss\nAlgae,producer,1\nGrazer,consumer,1\nFish,consumer,1\nDetritus,detritus,\n",
                 "csv-unknown-column", 1, 3, "'bioamss'"},
-        BadCase{"missing kind column", kC, "name,biomass\nAlgae,1\n", "csv-missing-column", 1, 0, "'kind'"},
+        BadCase{"missing kind column", kC, "name,biomass\nAlgae,1\n", "csv-missing-column", 1, 1, "'kind'"},
         BadCase{"duplicate column", kC, "name,kind,pb,pb\nAlgae,producer,1,1\n", "csv-duplicate-column", 1, 4,
                 "twice"},
         BadCase{"semicolons", kC, "name;kind;biomass\nAlgae;producer;1,5\n", "csv-header", 1, 1, "semicolons"},
-        BadCase{"empty file", kC, "", "csv-header", 1, 0, "empty"},
+        BadCase{"empty file", kC, "", "csv-header", 1, 1, "empty"},
         BadCase{"latin-1 name", kC, kHeadAndAlgae + "Gr\xE4zer,consumer,5,10,40,,,,,,\n" + kFishAndDetritus,
                 "csv-encoding", 3, 1, "UTF-8"},
         BadCase{"unclosed quote", kC, kHeadAndAlgae + "\"Grazer,consumer,5,10,40,,,,,,\n" + kFishAndDetritus,
@@ -385,6 +386,64 @@ TEST(CsvModel, ProblemsCarryTheCellTheyAreAbout)
     EXPECT_EQ(r.problems.size(), 1u) << listed(r.problems);
 }
 
+// Issue 12, defect 5: the best place there is, and one message per problem.
+TEST(CsvModel, AConsumerWithoutADietRowIsPlacedOnItsRowInCompartmentsCsv)
+{
+    TempFolder dir("nodiet");
+    Files files = validFiles();
+    files["diet.csv"] = kDietHead + "Grazer,0.8,,0.2,\n";  // Fish has no row
+    const CsvReadResult r = readFiles(dir, files);
+    const Problem* p = findCode(r.problems, check::kDietSum);
+    ASSERT_NE(p, nullptr) << listed(r.problems);
+    ASSERT_TRUE(p->location);
+    EXPECT_EQ(fs::path(p->location->file).filename(), "compartments.csv") << p->describe();
+    EXPECT_EQ(p->location->line, 4);    // Fish's row
+    EXPECT_EQ(p->location->column, 2);  // its kind: consumer
+}
+
+TEST(CsvModel, WholeLineProblemsNameLineAndColumn)
+{
+    {
+        TempFolder dir("nocolumn");
+        Files files = validFiles();
+        files["compartments.csv"] = "name,biomass\nAlgae,10\n";  // no 'kind'
+        const CsvReadResult r = readFiles(dir, files);
+        const Problem* p = findCode(r.problems, "csv-missing-column");
+        ASSERT_NE(p, nullptr) << listed(r.problems);
+        EXPECT_EQ(p->location->line, 1);
+        EXPECT_EQ(p->location->column, 1);
+    }
+    {
+        TempFolder dir("nul");
+        Files files = validFiles();
+        files["compartments.csv"] = kCompartmentsHeader + "\nAlgae,producer,1" + std::string(1, '\0') + "0,100,,,,,,,\n";
+        const CsvReadResult r = readFiles(dir, files);
+        EXPECT_FALSE(r.model);
+        std::size_t aboutCompartments = 0;
+        for (const Problem& p : r.problems)
+            if (p.location && fs::path(p.location->file).filename() == "compartments.csv") ++aboutCompartments;
+        EXPECT_EQ(aboutCompartments, 1u) << "a NUL byte is one problem, not also 'the file is empty'\n" << listed(r.problems);
+        const Problem* p = findCode(r.problems, "csv-encoding");
+        ASSERT_NE(p, nullptr) << listed(r.problems);
+        EXPECT_EQ(p->location->line, 2);
+        EXPECT_EQ(p->location->column, 3);  // the biomass cell
+        for (const Problem& q : r.problems)
+            EXPECT_EQ(q.message.find("empty"), std::string::npos) << listed(r.problems);
+    }
+    {
+        TempFolder dir("nuldiet");
+        Files files = validFiles();
+        files["diet.csv"] = kDietHead + "Grazer,0.8,,0.2," + std::string(1, '\0') + "\n";
+        const CsvReadResult r = readFiles(dir, files);
+        std::size_t aboutDiet = 0;
+        for (const Problem& p : r.problems)
+            if (p.location && fs::path(p.location->file).filename() == "diet.csv") ++aboutDiet;
+        EXPECT_EQ(aboutDiet, 1u) << listed(r.problems);
+        for (const Problem& q : r.problems)
+            EXPECT_EQ(q.message.find("the file is empty"), std::string::npos) << listed(r.problems);
+    }
+}
+
 TEST(CsvModel, HintsNameTheLikelyFix)
 {
     TempFolder dir("hint");
@@ -427,7 +486,7 @@ TEST(CsvModel, ValidationFindingsArePlacedOnTheirCellOnce)
         int line, column;
     };
     for (const Expected& e : {Expected{check::kDietSum, "Grazer", "diet.csv", 3, 1},
-                              Expected{check::kDietSum, "Snail", "diet.csv", 0, 0},  // no row at all
+                              Expected{check::kDietSum, "Snail", "compartments.csv", 5, 2},  // no diet row: its row, kind
                               Expected{check::kDietOfNonConsumer, "Algae", "diet.csv", 2, 3},
                               Expected{check::kRoutingSum, "Fish", "detritus_routing.csv", 2, 1}}) {
         const auto same = [&](const Problem& p) { return p.code == e.code && p.compartment == e.compartment; };
@@ -579,7 +638,9 @@ Model randomModel(std::mt19937_64& rng)
         std::string s;
         const std::size_t n = 1 + rng() % maxPieces;
         for (std::size_t k = 0; k < n; ++k) s += pieces[rng() % std::size(pieces)];
-        return "a" + std::string(trim(s)) + "z";
+        // Names may begin as a spreadsheet formula would (guarded on writing).
+        static const char* const starts[] = {"a", "a", "a", "=", "+", "-", "@", "'", "'=", "''-", "@'"};
+        return starts[rng() % std::size(starts)] + std::string(trim(s)) + "z";
     };
 
     Model m;
@@ -676,6 +737,82 @@ TEST(CsvModel, RandomModelsRoundTripExactly)
             ASSERT_EQ(*r.model, m) << "trial " << trial << (form == DietForm::Long ? " (long form)" : " (wide form)");
         }
     }
+}
+
+// Issue 12, defect 3: names a spreadsheet would run as formulas are written with the
+// apostrophe guard in compartments.csv, diet.csv and harvest.csv, and read back to the
+// same names (OWASP "CSV injection"; the guard is the usual spreadsheet text marker).
+TEST(CsvModel, FormulaShapedNamesAreGuardedAndReadBackUnchanged)
+{
+    const std::vector<std::string> names = {"=HYPERLINK(\"http://example.invalid\",\"click\")",
+                                            "+1+1",
+                                            "@SUM(A1)",
+                                            "-2+3",
+                                            "=cmd|' /C calc'!A0",
+                                            "'=already guarded by hand",
+                                            "'plain apostrophe",
+                                            "pike"};
+    Model m;
+    for (std::size_t k = 0; k < names.size(); ++k) {
+        Compartment c;
+        c.name = names[k];
+        c.kind = k == 0 ? CompartmentKind::Detritus : k == 1 ? CompartmentKind::Producer : CompartmentKind::Consumer;
+        if (c.kind != CompartmentKind::Detritus) {
+            c.value(Param::Biomass) = 1.0 + static_cast<double>(k);
+            c.value(Param::PB) = 2.0;
+        }
+        if (c.kind == CompartmentKind::Consumer) c.value(Param::QB) = 10.0;
+        if (k == 3) c.value(Param::NetEmigration) = -0.25;  // a negative number stays a number
+        m.addCompartment(std::move(c));
+    }
+    for (std::size_t j = 2; j < names.size(); ++j) {
+        m.setDiet(j, 1, 0.5);
+        m.setDiet(j, 0, 0.5);
+    }
+    Fleet& fleet = m.fleet(m.addFleet("=1+2"));
+    fleet.landings[3] = 0.5;
+    ASSERT_FALSE(hasErrors(validateModel(m))) << listed(validateModel(m));
+
+    TempFolder dir("formula");
+    ASSERT_TRUE(writeCsvModel(m, dir.path(), {DietForm::Wide}).empty());
+    // No cell of the three files begins as a formula: '=', '+', '@', a tab, or '-' not
+    // starting a number (each optionally inside the field's opening quote).
+    const std::regex formulaCell("(^|,)\"?([=+@\t]|-[^0-9.])");
+    for (const char* file : {"compartments.csv", "diet.csv", "harvest.csv"}) {
+        std::istringstream lines(readText(dir.path() / file));
+        std::string line;
+        for (int n = 1; std::getline(lines, line); ++n)
+            EXPECT_FALSE(std::regex_search(line, formulaCell)) << file << ":" << n << ": " << line;
+    }
+    // The bytes on disk: the guard is there, the formula is not at the start of a cell.
+    const std::string compartments = readText(dir.path() / "compartments.csv");
+    EXPECT_NE(compartments.find("\n\"'=HYPERLINK("), std::string::npos) << compartments;
+    EXPECT_NE(compartments.find("\n'+1+1,"), std::string::npos) << compartments;
+    EXPECT_NE(compartments.find("\n'@SUM(A1),"), std::string::npos) << compartments;
+    EXPECT_NE(compartments.find("\n'-2+3,"), std::string::npos) << compartments;
+    EXPECT_NE(compartments.find("\n''=already guarded by hand,"), std::string::npos) << compartments;
+    EXPECT_NE(compartments.find("\n'plain apostrophe,"), std::string::npos) << compartments;
+    EXPECT_NE(compartments.find(",-0.25"), std::string::npos) << compartments;
+    EXPECT_NE(readText(dir.path() / "harvest.csv").find("\n'=1+2,"), std::string::npos);
+    EXPECT_NE(readText(dir.path() / "diet.csv").find(",'+1+1"), std::string::npos);
+
+    const CsvReadResult back = readCsvModel(dir.path());
+    ASSERT_TRUE(back.model) << listed(back.problems);
+    EXPECT_EQ(*back.model, m);
+}
+
+TEST(CsvTable, FormulaGuardIsLosslessForAnyNumberOfApostrophes)
+{
+    for (const std::string core : {"=x", "+", "-1-", "@a", "\tx", "\rx", "x", "", "1", "'"}) {
+        for (int k = 0; k < 4; ++k) {
+            const std::string text = std::string(static_cast<std::size_t>(k), '\'') + core;
+            EXPECT_EQ(std::string(unguardFormula(guardFormula(text))), text) << text;
+        }
+    }
+    EXPECT_EQ(guardFormula("=1"), "'=1");
+    EXPECT_EQ(guardFormula("pike"), "pike");
+    EXPECT_EQ(guardFormula("'pike"), "'pike");
+    EXPECT_EQ(unguardFormula("'pike"), "'pike");
 }
 
 // --- diet.csv in long form ---------------------------------------------------------

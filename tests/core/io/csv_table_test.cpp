@@ -118,9 +118,9 @@ TEST(CsvTable, RefusesWhatIsNotUtf8Text)
         int line, column;
     };
     const Case cases[] = {
-        {std::string("\xFF\xFE" "a\0,\0", 6), 1, 0},                // UTF-16 LE with BOM
-        {std::string("PK\x03\x04\x14\x00", 6), 1, 0},              // a workbook (zip)
-        {std::string("a,b\nc,d\0\n", 9), 2, 0},                     // NUL bytes
+        {std::string("\xFF\xFE" "a\0,\0", 6), 1, 1},                // UTF-16 LE with BOM
+        {std::string("PK\x03\x04\x14\x00", 6), 1, 1},              // a workbook (zip)
+        {std::string("a,b\nc,d\0\n", 9), 2, 2},                     // NUL bytes: its line and field
         {"name\nPerche \xE0 jeun\n", 2, 1},                          // Latin-1 accent
         {"name,x\nok,\xC0\xAF\n", 2, 2},                             // overlong form
         {"name,x\nok,\xED\xA0\x80\n", 2, 2},                         // surrogate

@@ -233,8 +233,33 @@ TEST(ScorReader, MissingFinalTerminator)
     EXPECT_FALSE(r.network);
     const Problem& p = firstError(r);
     EXPECT_EQ(p.code, "scor-truncated");
-    EXPECT_EQ(p.location->line, 21);  // the line after the last one
+    // Issue 12, defect 5: the last line, just after its last character (it used to be
+    // line 21, after the end, with no column).
+    EXPECT_EQ(p.location->line, 20);
+    EXPECT_EQ(p.location->column, 9);  // the last line is "  3  2 1"
     EXPECT_NE(p.message.find("-1 -1"), std::string::npos) << p.message;
+}
+
+// Issue 12, defect 4: names with invalid UTF-8 or NUL bytes never reach JSON or the
+// terminal; the file is refused with line and column, once per bad line.
+TEST(ScorReader, InvalidUtf8AndNulBytesAreRefusedWithLineAndColumn)
+{
+    const ScorReadResult latin1 = readWith(kSmall, "Snails", "Sn\xE4ils");  // a legacy code page
+    EXPECT_FALSE(latin1.network);
+    ASSERT_EQ(latin1.problems.size(), 1u);
+    EXPECT_EQ(latin1.problems[0].code, "scor-encoding");
+    EXPECT_EQ(latin1.problems[0].location->line, 4);
+    EXPECT_EQ(latin1.problems[0].location->column, 3);
+    EXPECT_NE(latin1.problems[0].message.find("0xE4"), std::string::npos) << latin1.problems[0].message;
+    EXPECT_EQ(latin1.problems[0].describe().rfind("bad.scor:4:3", 0), 0u) << latin1.problems[0].describe();
+
+    const ScorReadResult nul = readWith(kSmall, "Detritus", std::string("Detr\0tus", 8));
+    EXPECT_FALSE(nul.network);
+    ASSERT_EQ(nul.problems.size(), 1u);
+    EXPECT_EQ(nul.problems[0].code, "scor-encoding");
+    EXPECT_EQ(nul.problems[0].location->line, 5);
+    EXPECT_EQ(nul.problems[0].location->column, 5);
+    EXPECT_NE(nul.problems[0].message.find("NUL"), std::string::npos);
 }
 
 TEST(ScorReader, MissingBlockTerminatorSwallowsTheNextBlock)

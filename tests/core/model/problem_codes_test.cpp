@@ -3,7 +3,10 @@
 // the bad-input fixtures is registered; one code never means two things.
 #include <gtest/gtest.h>
 
+#include <fstream>
+#include <regex>
 #include <set>
+#include <sstream>
 
 #include "core/balance/scenario_checks.h"
 #include "core/balance/solver.h"
@@ -57,6 +60,46 @@ TEST(ProblemCodes, EveryReportedCodeIsRegistered)
         }
     }
     EXPECT_GT(problems, 30u);
+}
+
+// The sources name codes only through the registry's constants (code::k...): a quoted
+// code, or anything shaped like a reader's code ("csv-...", "scor-...", "store-..."),
+// outside core/model/problem_codes.* fails here, so a new code cannot slip in without
+// an entry in the table. And every constant of the header is in the table.
+TEST(ProblemCodes, SourcesUseTheRegistryConstants)
+{
+    const fs::path source = fs::path(TL_FIXTURES_DIR).parent_path().parent_path();
+    ASSERT_TRUE(fs::exists(source / "core/model/problem_codes.h")) << source;
+    const std::regex literal("\"([a-z0-9]+(-[a-z0-9]+)+)\"");
+    const std::regex readerShaped("(csv|scor|store)-.*");
+    std::size_t files = 0;
+    for (const char* area : {"core", "app", "ui"}) {
+        for (const auto& e : fs::recursive_directory_iterator(source / area)) {
+            const std::string ext = e.path().extension().string();
+            if (!e.is_regular_file() || (ext != ".cpp" && ext != ".h")) continue;
+            if (e.path().filename().string().starts_with("problem_codes.")) continue;
+            ++files;
+            std::istringstream lines(slurp(e.path()));
+            std::string line;
+            for (int n = 1; std::getline(lines, line); ++n) {
+                const std::string code = line.substr(0, line.find("//"));  // comments may quote a code
+                for (std::sregex_iterator m(code.begin(), code.end(), literal), end; m != end; ++m) {
+                    const std::string text = (*m)[1];
+                    EXPECT_FALSE(findProblemCode(text) || std::regex_match(text, readerShaped))
+                        << fs::relative(e.path(), source).string() << ":" << n << ": \"" << text
+                        << "\" is a problem code written inline; use (or add) its code::k... constant";
+                }
+            }
+        }
+    }
+    EXPECT_GT(files, 100u);
+
+    const std::regex constant("inline constexpr const char\\* (k\\w+) = \"([^\"]+)\";");
+    const std::string header = slurp(source / "core/model/problem_codes.h");
+    std::size_t constants = 0;
+    for (std::sregex_iterator m(header.begin(), header.end(), constant), end; m != end; ++m, ++constants)
+        EXPECT_NE(findProblemCode((*m)[2].str()), nullptr) << "code::" << (*m)[1] << " is not in the registry's table";
+    EXPECT_EQ(constants, problemCodes().size()) << "every registered code has exactly one constant";
 }
 
 }  // namespace
