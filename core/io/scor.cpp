@@ -8,6 +8,7 @@
 #include <utility>
 
 #include "core/io/atomic_file.h"
+#include "core/model/limits.h"
 #include "core/model/text.h"
 
 namespace tl {
@@ -229,6 +230,13 @@ private:
             if (!haveLine(i, "the name of compartment " + std::to_string(k + 1) + " of " + std::to_string(n)))
                 return false;
             net.names.emplace_back(trim(lines_[i]));
+            if (const std::size_t length = limits::characterCount(net.names.back()); length > limits::kMaxNameLength) {
+                error(static_cast<int>(i) + 1, 1,
+                      "the name of compartment " + std::to_string(k + 1) + " has " + std::to_string(length) +
+                          " characters; the limit of this version is " + std::to_string(limits::kMaxNameLength),
+                      "scor-limit");
+                return false;
+            }
         }
 
         // Stocks: exactly n lines, taken by position, each value put at the index it names.
@@ -356,9 +364,28 @@ ScorReadResult readScorFile(const std::filesystem::path& path)
         result.problems.push_back(std::move(p));
         return result;
     }
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    return readScor(buffer.str(), path.string());
+    // SCOR indices have three digits (at most 999 nodes), so a real file is far below the
+    // limit. Asked first where the file has a size; counted while reading where not (a pipe).
+    const auto tooLarge = [&] {
+        ScorReadResult result;
+        Problem p;
+        p.code = "scor-limit";
+        p.message = "the file holds more than " + limits::byteSize(limits::kMaxScorFileBytes) +
+                    ", the limit of this version for a SCOR file";
+        p.location = FileLocation{path.string(), 0, 0};
+        result.problems.push_back(std::move(p));
+        return result;
+    };
+    std::error_code sizeError;
+    const auto size = std::filesystem::file_size(path, sizeError);
+    if (!sizeError && size > limits::kMaxScorFileBytes) return tooLarge();
+    std::string text;
+    std::vector<char> chunk(1 << 16);
+    while (in.read(chunk.data(), static_cast<std::streamsize>(chunk.size())) || in.gcount() > 0) {
+        text.append(chunk.data(), static_cast<std::size_t>(in.gcount()));
+        if (text.size() > limits::kMaxScorFileBytes) return tooLarge();
+    }
+    return readScor(text, path.string());
 }
 
 std::optional<std::string> checkScorWritable(const ScorNetwork& net)

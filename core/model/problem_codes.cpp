@@ -75,8 +75,10 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {"csv-unknown-setting", E, "settings.csv has a key the reader does not know."},
     {"csv-too-many-problems", E, "More problems were found than are listed (a warning when only warnings were left out)."},
     {"csv-write", E, "A CSV file could not be written."},
+    {"csv-limit", E, "A CSV model exceeds a limit of this version (compartments, name length, diet entries or file size)."},
     // SCOR files.
     {"scor-open", E, "The SCOR file cannot be opened."},
+    {"scor-limit", E, "The SCOR file exceeds a limit of this version (name length or file size)."},
     {"scor-syntax", E, "A line of the SCOR file is not in the expected form."},
     {"scor-number", E, "A SCOR entry that should be a number is not."},
     {"scor-counts", E, "The node counts on the SCOR header do not fit the file."},
@@ -92,6 +94,7 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {"scor-detritus-to-detritus", W, "A SCOR flow runs between two non-living nodes; the scenario cannot keep it."},
     // Project files.
     {"store-not-found", E, "No file or folder at the given path."},
+    {"store-limit", E, "A scenario exceeds a limit of this version (compartments, name length or diet entries)."},
     {"store-not-project", E, "The file is not a Trophic Ledger project; it is left untouched."},
     {"store-foreign-database", E, "The file is a database of another program; it is left untouched."},
     {"store-damaged", E, "The project file is damaged; it is left as it is."},
