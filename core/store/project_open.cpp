@@ -55,20 +55,22 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
     sqlite3* db = openDb(readOnly);
     if (!db) return result;
 
-    {
+    // The check's statement is finalized before refuse() closes the connection: with a
+    // statement still open, sqlite3_close fails and the connection and its file handle
+    // leak (found by tests/fuzz/fuzz_project).
+    const std::optional<Problem> unusable = [&]() -> std::optional<Problem> {
         Statement check(db, "PRAGMA quick_check");
         const bool stepped = check.step();
-        if (!stepped || check.text(0) != "ok") {
-            const std::string why = stepped ? check.text(0) : sqliteError(db);
-            if (!stepped && isBusy(db)) {
-                result.problems.push_back(fileProblem(path, "store-busy",
-                                                      "is busy (another program holds it locked); try again in a moment"));
-            } else {
-                result.problems.push_back(fileProblem(path, "store-damaged", "damaged: " + why,
-                                                      "The file was left unchanged; restore it from a backup."));
-            }
-            return refuse(db);
-        }
+        if (stepped && check.text(0) == "ok") return std::nullopt;
+        const std::string why = stepped ? check.text(0) : sqliteError(db);
+        if (!stepped && isBusy(db))
+            return fileProblem(path, "store-busy", "is busy (another program holds it locked); try again in a moment");
+        return fileProblem(path, "store-damaged", "damaged: " + why,
+                           "The file was left unchanged; restore it from a backup.");
+    }();
+    if (unusable) {
+        result.problems.push_back(*unusable);
+        return refuse(db);
     }
     const auto appId = pragmaInt(db, "PRAGMA application_id");
     const auto version = pragmaInt(db, "PRAGMA user_version");
