@@ -395,6 +395,12 @@ std::optional<std::string> checkScorWritable(const ScorNetwork& net)
     if (n > 999) return "SCOR holds at most 999 compartments (three-digit index fields); this network has " +
                         std::to_string(n);
     if (net.livingCount > n) return "more living compartments than compartments";
+    for (std::size_t k = 0; k < n; ++k)  // as written: sanitiseLine may lengthen a name; the reader must take it back
+        if (const std::size_t length = limits::characterCount(sanitiseLine(net.names[k]));
+            length > limits::kMaxNameLength)
+            return "the name of compartment " + std::to_string(k + 1) + " would be written with " +
+                   std::to_string(length) + " characters; the limit of this version is " +
+                   std::to_string(limits::kMaxNameLength);
     const auto checkVector = [&](const std::vector<double>& v, const char* what) -> std::optional<std::string> {
         if (v.size() != n) return std::string(what) + ": expected one value per compartment";
         for (std::size_t k = 0; k < n; ++k)

@@ -46,7 +46,10 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
 
     if (!checkScorWritable(net)) {
         const ScorReadResult again = readScor(writeScor(net), "written.scor");
-        if (!again.network) fail("the reader refuses what the writer wrote");
+        if (!again.network) {
+            for (const Problem& p : again.problems) std::fprintf(stderr, "%s\n", p.describe().c_str());
+            fail("the reader refuses what the writer wrote");
+        }
         const ScorNetwork& back = *again.network;
         if (back.names.size() != net.names.size() || back.livingCount != net.livingCount ||
             back.stocks != net.stocks || back.imports != net.imports || back.exports != net.exports ||

@@ -188,6 +188,21 @@ TEST(ScorLimits, LongNameIsRefusedAtItsLine)
     EXPECT_EQ(p->location->column, 1);
 }
 
+// The writer turns " -1" inside a name into " - 1" (readers key on " -1"): a name at
+// the limit with one in it would come back one character too long, so it is refused
+// before writing (found by tests/fuzz/fuzz_scor; tests/fuzz/regressions/scor).
+TEST(ScorLimits, WriterRefusesANameThatWritingWouldLengthenPastTheLimit)
+{
+    ScorReadResult read = readScor(scorWithName(repeated("a", limits::kMaxNameLength - 3) + " -1"), "x.scor");
+    ASSERT_TRUE(read.network.has_value());
+    const auto refused = checkScorWritable(*read.network);
+    ASSERT_TRUE(refused.has_value());
+    EXPECT_NE(refused->find("201 characters"), std::string::npos) << *refused;
+    read.network->names[0] = repeated("a", limits::kMaxNameLength - 4) + " -1";  // 200 as written
+    EXPECT_FALSE(checkScorWritable(*read.network).has_value());
+    EXPECT_TRUE(readScor(writeScor(*read.network), "y.scor").network.has_value());
+}
+
 TEST(ScorLimits, OversizedFileIsRefused)
 {
     ScratchDir dir("limits");
