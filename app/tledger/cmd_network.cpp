@@ -1,5 +1,5 @@
-// tledger network MODEL [--scenario NAME] [--json] [--keep-feeding-cycles]
-// tledger network --scor FILE [--producers A,B] [--json] [--keep-feeding-cycles]
+// tledger network MODEL [--scenario NAME] [--json [--impact-matrix]] [--keep-feeding-cycles]
+// tledger network --scor FILE [--producers A,B] [--json [--impact-matrix]] [--keep-feeding-cycles]
 // Trophic structure, level decomposition, mixed trophic impact and system indicators
 // of a solved scenario or of a plain SCOR flow network (DESIGN 3.3-3.5, 5.2, 5.3).
 #include <iostream>
@@ -39,6 +39,12 @@ AnalysisOptions analysisOptions(const ParsedOptions& opts)
     return options;
 }
 
+// --impact-matrix: the impact matrix in the JSON at any size (kImpactMatrixJsonLimit).
+NetworkJsonOptions jsonOptions(const ParsedOptions& opts)
+{
+    return NetworkJsonOptions{opts.has("--impact-matrix")};
+}
+
 int fromModel(const ParsedOptions& opts)
 {
     const auto model = loadModelForCli(opts.positional[0], opts.value("--scenario"), std::cerr);
@@ -60,7 +66,7 @@ int fromModel(const ParsedOptions& opts)
     const NetworkAnalysis r = analyseNetwork(*model, sheet, analysisOptions(opts));
     if (!r.available()) return unavailable("the scenario has no compartments, so it has no flow network");
     for (const Problem& p : r.network.adjustments) std::cerr << "warning: " << p.describe() << '\n';
-    std::cout << (opts.has("--json") ? networkReportJson(r) : networkReportTables(r));
+    std::cout << (opts.has("--json") ? networkReportJson(r, jsonOptions(opts)) : networkReportTables(r));
     if (sheet.status != BalanceStatus::Balanced) {
         std::cerr << "tledger network: the scenario does not balance; figures describe its flows as they stand "
                      "(run `tledger solve` for the problems)\n";
@@ -79,7 +85,7 @@ int fromScor(const ParsedOptions& opts, const std::string& file)
         std::cerr << "tledger network: --producers names '" << name << "', which is no living node of " << file << "\n";
     if (!r.unknownProducers.empty()) return 2;
     if (!opts.has("--json")) std::cout << "Network: " << read.network->title << " (units as the title states)\n\n";
-    std::cout << (opts.has("--json") ? networkReportJson(r) : networkReportTables(r));
+    std::cout << (opts.has("--json") ? networkReportJson(r, jsonOptions(opts)) : networkReportTables(r));
     return 0;
 }
 
@@ -87,9 +93,14 @@ int fromScor(const ParsedOptions& opts, const std::string& file)
 
 int cmdNetwork(const Args& args)
 {
-    const auto opts = parseOptions(args, {"--scenario", "--scor", "--producers"}, {"--json", "--keep-feeding-cycles"},
+    const auto opts = parseOptions(args, {"--scenario", "--scor", "--producers"}, {"--json", "--keep-feeding-cycles", "--impact-matrix"},
                                    "network", std::cerr);
     if (!opts) return 2;
+    if (opts->has("--impact-matrix") && !opts->has("--json")) {
+        std::cerr << "tledger network: --impact-matrix goes with --json (the tables print the matrix up to 16 "
+                     "compartments)\n";
+        return 2;
+    }
     if (opts->value("--producers") && !opts->value("--scor")) {
         std::cerr << "tledger network: --producers is for SCOR networks; a scenario's producers are its compartments' kind\n";
         return 2;

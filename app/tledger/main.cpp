@@ -26,12 +26,18 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                input that may change (default b,pb,qb,diet);
                                                PARAM: b, pb, qb, catch, diet. Exit 1 when only
                                                a least-violating change exists.
+            [--impact-matrix]                  with --json: the impact matrix above 200 compartments too
+                                               (it grows as n x n: 45 MB of JSON at 1 000)
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
 
 MODEL is a CSV model folder (compartments.csv, diet.csv, ...) or a .tledger project.
 Exit codes: 0 success, 1 model problems reported, 2 bad input or usage.
+
+Limits of this version (more is refused with the file, line and column): 20 000
+compartments, 200 fleets and 2 000 000 non-zero diet shares per model; names of
+200 characters; 256 MiB per CSV file, 64 MiB per SCOR file (at most 999 nodes).
 )";
 
 }  // namespace

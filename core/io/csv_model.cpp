@@ -5,11 +5,13 @@
 #include <map>
 #include <set>
 #include <unordered_map>
+#include <utility>
 #include <span>
 
 #include "core/io/atomic_file.h"
 #include "core/io/csv_table.h"
 #include "core/model/problem_codes.h"
+#include "core/model/limits.h"
 #include "core/model/text.h"
 #include "core/model/validation.h"
 
@@ -99,6 +101,19 @@ private:
     mutable std::unordered_map<std::string, std::size_t> folded_;  // lower-case name -> first index
 };
 
+// A name longer than limits::kMaxNameLength is refused at its cell.
+bool nameTooLong(const CsvField& f, std::string_view name, const std::string& file, const char* what,
+                 Problems& problems)
+{
+    const std::size_t length = limits::characterCount(name);
+    if (length <= limits::kMaxNameLength) return false;
+    problems.push_back(errorAt(code::kCsvLimit, file, f,
+                               std::string("the ") + what + " name " + shown(name) + " has " + std::to_string(length) +
+                                   " characters; the limit is " + std::to_string(limits::kMaxNameLength),
+                               "Shorten the name; the notes of a compartment can hold the longer description."));
+    return true;
+}
+
 std::string joinKeys(std::span<const std::string_view> keys)
 {
     std::string out;
@@ -126,6 +141,7 @@ struct Locations {
     std::map<std::size_t, int> dietLine;               // predator -> line of its row (long form: its first row)
     std::map<std::size_t, int> preyColumn;             // wide form: prey -> column in the header
     int importColumn = 0;                              // wide form
+    std::size_t dietEntries = 0;                       // non-zero shares read so far (limits::kMaxDietEntries)
     std::unordered_map<std::uint64_t, int> dietEntryLine;  // long form: dietEntryKey -> line of the entry
     // detritus_routing.csv
     struct RoutingRow { int line; int sourceColumn, detritusColumn, fractionColumn; };
@@ -426,6 +442,7 @@ std::optional<std::string> compartmentName(const CsvField& f, const std::string&
                                    "Give every compartment a name; diet, harvest and routing refer to it by name."));
         return std::nullopt;
     }
+    if (nameTooLong(f, name, file, "compartment", problems)) return std::nullopt;
     if (name == kImportColumn) {
         problems.push_back(errorAt(code::kCsvName, file, f, "'import' is reserved for the import column of diet.csv",
                                    "Choose another name, e.g. 'imported food'."));
@@ -453,6 +470,16 @@ void readCompartments(const CsvTable& table, Model& model, Locations& loc, Probl
     if (sheet->rows.empty() && table.records.size() == 1)
         problems.push_back(problemAt(code::kCsvNoRows, Severity::Error, table.file, 2, 1,
                                      "the file lists no compartments, only its header"));
+    if (sheet->rows.size() > limits::kMaxCompartments) {  // refused whole: no model comes of it anyway
+        problems.push_back(problemAt(code::kCsvLimit, Severity::Error, table.file, sheet->rows[limits::kMaxCompartments]->line,
+                                     1, "more than " + limits::groupedNumber(limits::kMaxCompartments) +
+                                            " compartments (this is row " +
+                                            limits::groupedNumber(limits::kMaxCompartments + 1) +
+                                            "); the limit of this version is " +
+                                            limits::groupedNumber(limits::kMaxCompartments),
+                                     "Aggregate compartments, or split the model into sub-systems."));
+        return;
+    }
     std::map<std::string, int, std::less<>> seen;
     model.reserve(sheet->rows.size());
     for (const CsvRecord* r : sheet->rows) {
@@ -509,6 +536,20 @@ bool isLongDietHeader(const CsvRecord& header, const NameIndex& names)
     return !(names.find(kLongDietKeys[1]) && names.find(kLongDietKeys[2]));
 }
 
+// Counts one non-zero diet share; false (and one error, at the first share too many)
+// once the model holds limits::kMaxDietEntries.
+bool dietEntryAllowed(const std::string& file, const CsvField& shareField, Locations& loc, Problems& problems)
+{
+    if (++loc.dietEntries <= limits::kMaxDietEntries) return true;
+    if (loc.dietEntries == limits::kMaxDietEntries + 1)
+        problems.push_back(errorAt(code::kCsvLimit, file, shareField,
+                                   "more than " + limits::groupedNumber(limits::kMaxDietEntries) +
+                                       " non-zero diet shares; the limit of this version is " +
+                                       limits::groupedNumber(limits::kMaxDietEntries),
+                                   "Leave out shares too small to matter, or aggregate prey."));
+    return false;
+}
+
 // One row of the long form, whose header isLongDietHeader has accepted.
 void readLongDietRow(const CsvRecord& r, const std::string& file, Model& model, const NameIndex& names,
                      Locations& loc, Problems& problems)
@@ -539,6 +580,7 @@ void readLongDietRow(const CsvRecord& r, const std::string& file, Model& model, 
         return;
     }
     if (const auto share = parseNumber(trim(shareField.text))) {  // the common case, without message text
+        if (*share != 0.0 && !dietEntryAllowed(file, shareField, loc, problems)) return;
         if (isImport) model.setDietImport(*predator, *share);
         else model.setDiet(*predator, *prey, *share);
         return;
@@ -642,6 +684,7 @@ public:
                 continue;
             }
             if (!v.value) continue;
+            if (*v.value != 0.0 && !dietEntryAllowed(file_, f, loc_, problems_)) break;
             if (prey_[col] == kImport) model_.setDietImport(*predator, *v.value);
             else model_.setDiet(*predator, static_cast<std::size_t>(prey_[col]), *v.value);
         }
@@ -713,6 +756,7 @@ void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Lo
 {
     const auto sheet = openKeyed(table, kHarvestKeys, kHarvestRequired, problems);
     if (!sheet) return;
+    bool fleetLimitReported = false;
     for (const CsvRecord* r : sheet->rows) {
         const CsvField& fleetField = *sheet->field(*r, 0);
         const std::string fleetName(trim(fleetField.text));
@@ -723,6 +767,16 @@ void readHarvest(const CsvTable& table, Model& model, const NameIndex& names, Lo
         }
         const std::size_t fleet = model.fleetIndexOf(fleetName).value_or(model.fleets().size());
         if (fleet == model.fleets().size()) {
+            if (nameTooLong(fleetField, fleetName, table.file, "fleet", problems)) continue;
+            if (fleet == limits::kMaxFleets) {  // each fleet holds a catch per compartment
+                if (std::exchange(fleetLimitReported, true)) continue;
+                problems.push_back(errorAt(code::kCsvLimit, table.file, fleetField,
+                                           "fleet " + shown(fleetName) + " would be fleet " +
+                                               std::to_string(fleet + 1) + "; the limit of this version is " +
+                                               std::to_string(limits::kMaxFleets) + " fleets",
+                                           "Group gears or licence groups into fewer fleets."));
+                continue;
+            }
             model.addFleet(fleetName);
             loc.fleetCell[fleet] = {fleetField.line, fleetField.column};
         }
@@ -983,6 +1037,11 @@ Problems unwritableNames(const Model& model)
         p.hint = "Rename it before exporting; names must be unique, non-empty and without spaces around them.";
         out.push_back(std::move(p));
     };
+    for (const std::string& beyond : limits::exceededLimits(model)) {  // the reader would refuse the folder
+        refuse(beyond);
+        out.back().code = code::kCsvLimit;
+        out.back().hint.clear();
+    }
     std::set<std::string, std::less<>> seen;
     for (const Compartment& c : model.compartments()) {
         if (trim(c.name).empty()) refuse("a compartment has no name");

@@ -2,8 +2,10 @@
 
 #include <fstream>
 #include <sstream>
+#include <vector>
 
 #include "core/model/problem_codes.h"
+#include "core/model/limits.h"
 #include "core/model/text.h"
 
 namespace tl {
@@ -186,15 +188,25 @@ Problems readCsvFileRecords(const std::filesystem::path& path, const CsvRecordSi
     if (in) {  // read in one piece: a stream buffer would copy the text twice more
         std::error_code sizeError;
         const auto size = std::filesystem::file_size(path, sizeError);
+        if (!sizeError && size > limits::kMaxCsvFileBytes)
+            return {fileProblem(code::kCsvLimit, file, 0, 0,
+                                "the file holds " + limits::byteSize(size) + "; the limit of this version is " +
+                                    limits::byteSize(limits::kMaxCsvFileBytes) + " per CSV file")};
         if (!sizeError) {
             content.resize(static_cast<std::size_t>(size));
             in.read(content.data(), static_cast<std::streamsize>(content.size()));
             content.resize(static_cast<std::size_t>(in.gcount()));
             if (in.eof()) in.clear();  // a file that shrank meanwhile: keep what was read
-        } else {
-            std::ostringstream buffer;
-            buffer << in.rdbuf();
-            content = std::move(buffer).str();
+        } else {  // no size to ask for (a pipe, a device): read up to the limit
+            std::vector<char> chunk(1 << 16);
+            while (in.read(chunk.data(), static_cast<std::streamsize>(chunk.size())) || in.gcount() > 0) {
+                content.append(chunk.data(), static_cast<std::size_t>(in.gcount()));
+                if (content.size() > limits::kMaxCsvFileBytes)
+                    return {fileProblem(code::kCsvLimit, file, 0, 0,
+                                        "the file holds more than " + limits::byteSize(limits::kMaxCsvFileBytes) +
+                                            ", the limit of this version per CSV file")};
+            }
+            in.clear();
         }
     }
     if (!in || in.bad()) {

@@ -39,7 +39,7 @@ void writeLevels(JsonWriter& w, const ChainDecomposition& chains)
 
 }  // namespace
 
-std::string networkReportJson(const NetworkAnalysis& r)
+std::string networkReportJson(const NetworkAnalysis& r, const NetworkJsonOptions& options)
 {
     const SystemIndicators& s = r.indicators;
     const FlowNetwork& net = r.network;
@@ -131,13 +131,20 @@ std::string networkReportJson(const NetworkAnalysis& r)
     w.key("cols").beginArray();
     for (const std::string& name : r.mti.names) w.value(name);
     w.endArray();
-    w.key("values").beginArray();
-    for (Eigen::Index i = 0; i < r.mti.total.rows(); ++i) {
-        w.beginArray();
-        for (Eigen::Index j = 0; j < r.mti.total.cols(); ++j) w.value(r.mti.total(i, j));
+    if (options.impactMatrix || r.mti.names.size() <= kImpactMatrixJsonLimit) {
+        w.key("values").beginArray();
+        for (Eigen::Index i = 0; i < r.mti.total.rows(); ++i) {
+            w.beginArray();
+            for (Eigen::Index j = 0; j < r.mti.total.cols(); ++j) w.value(r.mti.total(i, j));
+            w.endArray();
+        }
         w.endArray();
+    } else {
+        w.key("values").null();
+        w.field("omitted", std::to_string(r.mti.names.size()) + " rows and columns exceed the " +
+                               std::to_string(kImpactMatrixJsonLimit) +
+                               " written by default (the matrix grows as n x n); ask for it with --impact-matrix");
     }
-    w.endArray();
     w.endObject();
 
     w.key("keystone").beginArray();
@@ -286,7 +293,8 @@ std::string networkReportTables(const NetworkAnalysis& r)
         out += "Mixed trophic impact\n" + m.render() + "\n";
     } else {
         out += "Mixed trophic impact: " + std::to_string(r.mti.names.size()) +
-               " rows and columns, too wide to print; use --json\n\n";
+               " rows and columns, too wide to print; use --json (above " +
+               std::to_string(kImpactMatrixJsonLimit) + " compartments with --impact-matrix)\n\n";
     }
 
     if (!r.fromScor) {

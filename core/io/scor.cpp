@@ -10,6 +10,7 @@
 
 #include "core/io/atomic_file.h"
 #include "core/model/problem_codes.h"
+#include "core/model/limits.h"
 #include "core/model/text.h"
 #include "core/model/validation.h"
 
@@ -263,6 +264,13 @@ private:
             if (!haveLine(i, "the name of compartment " + std::to_string(k + 1) + " of " + std::to_string(n)))
                 return false;
             net.names.emplace_back(trim(lines_[i]));
+            if (const std::size_t length = limits::characterCount(net.names.back()); length > limits::kMaxNameLength) {
+                error(static_cast<int>(i) + 1, 1,
+                      "the name of compartment " + std::to_string(k + 1) + " has " + std::to_string(length) +
+                          " characters; the limit of this version is " + std::to_string(limits::kMaxNameLength),
+                      code::kScorLimit);
+                return false;
+            }
         }
 
         // Stocks: exactly n lines, taken by position, each value put at the index it names.
@@ -390,9 +398,28 @@ ScorReadResult readScorFile(const std::filesystem::path& path)
         result.problems.push_back(std::move(p));
         return result;
     }
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    return readScor(buffer.str(), path.string());
+    // SCOR indices have three digits (at most 999 nodes), so a real file is far below the
+    // limit. Asked first where the file has a size; counted while reading where not (a pipe).
+    const auto tooLarge = [&] {
+        ScorReadResult result;
+        Problem p;
+        p.code = code::kScorLimit;
+        p.message = "the file holds more than " + limits::byteSize(limits::kMaxScorFileBytes) +
+                    ", the limit of this version for a SCOR file";
+        p.location = FileLocation{path.string(), 0, 0};
+        result.problems.push_back(std::move(p));
+        return result;
+    };
+    std::error_code sizeError;
+    const auto size = std::filesystem::file_size(path, sizeError);
+    if (!sizeError && size > limits::kMaxScorFileBytes) return tooLarge();
+    std::string text;
+    std::vector<char> chunk(1 << 16);
+    while (in.read(chunk.data(), static_cast<std::streamsize>(chunk.size())) || in.gcount() > 0) {
+        text.append(chunk.data(), static_cast<std::size_t>(in.gcount()));
+        if (text.size() > limits::kMaxScorFileBytes) return tooLarge();
+    }
+    return readScor(text, path.string());
 }
 
 std::optional<std::string> checkScorWritable(const ScorNetwork& net)
@@ -402,6 +429,12 @@ std::optional<std::string> checkScorWritable(const ScorNetwork& net)
     if (n > 999) return "SCOR holds at most 999 compartments (three-digit index fields); this network has " +
                         std::to_string(n);
     if (net.livingCount > n) return "more living compartments than compartments";
+    for (std::size_t k = 0; k < n; ++k)  // as written: sanitiseLine may lengthen a name; the reader must take it back
+        if (const std::size_t length = limits::characterCount(sanitiseLine(net.names[k]));
+            length > limits::kMaxNameLength)
+            return "the name of compartment " + std::to_string(k + 1) + " would be written with " +
+                   std::to_string(length) + " characters; the limit of this version is " +
+                   std::to_string(limits::kMaxNameLength);
     const auto checkVector = [&](const std::vector<double>& v, const char* what) -> std::optional<std::string> {
         if (v.size() != n) return std::string(what) + ": expected one value per compartment";
         for (std::size_t k = 0; k < n; ++k)

@@ -46,7 +46,8 @@ ScorReadResult readScorFile(const std::filesystem::path& path);
 // Writes the layout of SCOR_FORMAT.md ("%3d%3d" counts and flow indices, shortest
 // round-trip numbers, zero entries left out of sparse blocks, LF). Names and title
 // containing " -1" or a line break are sanitised, since readers key on them.
-// Fails (returns the message) for more than 999 compartments or negative values.
+// Fails (returns the message) for more than 999 compartments, negative values, or a
+// name longer than limits::kMaxNameLength as written (the reader would refuse it).
 std::optional<std::string> checkScorWritable(const ScorNetwork& network);
 std::string writeScor(const ScorNetwork& network);
 std::optional<std::string> writeScorFile(const ScorNetwork& network, const std::filesystem::path& path);  // atomic

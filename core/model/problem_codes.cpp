@@ -82,8 +82,10 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kCsvUnknownSetting, E, "settings.csv has a key the reader does not know."},
     {code::kCsvTooManyProblems, E, "More problems were found than are listed (a warning when only warnings were left out)."},
     {code::kCsvWrite, E, "A CSV file could not be written."},
+    {code::kCsvLimit, E, "A CSV model exceeds a limit of this version (compartments, name length, diet entries or file size)."},
     // SCOR files.
     {code::kScorOpen, E, "The SCOR file cannot be opened."},
+    {code::kScorLimit, E, "The SCOR file exceeds a limit of this version (name length or file size)."},
     {code::kScorEncoding, E, "A SCOR file holds bytes that are not UTF-8 text, or NUL bytes."},
     {code::kScorSyntax, E, "A line of the SCOR file is not in the expected form."},
     {code::kScorNumber, E, "A SCOR entry that should be a number is not."},
@@ -100,6 +102,7 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kScorDetritusToDetritus, W, "A SCOR flow runs between two non-living nodes; the scenario cannot keep it."},
     // Project files.
     {code::kStoreNotFound, E, "No file or folder at the given path."},
+    {code::kStoreLimit, E, "A scenario exceeds a limit of this version (compartments, name length or diet entries)."},
     {code::kStoreNotProject, E, "The file is not a Trophic Ledger project; it is left untouched."},
     {code::kStoreForeignDatabase, E, "The file is a database of another program; it is left untouched."},
     {code::kStoreDamaged, E, "The project file is damaged; it is left as it is."},

@@ -93,8 +93,10 @@ inline constexpr const char* kCsvDiscardPool = "csv-discard-pool";
 inline constexpr const char* kCsvUnknownSetting = "csv-unknown-setting";
 inline constexpr const char* kCsvTooManyProblems = "csv-too-many-problems";
 inline constexpr const char* kCsvWrite = "csv-write";
+inline constexpr const char* kCsvLimit = "csv-limit";
 // --- SCOR files (core/io/scor, core/store/scor_import) ---------------------------------
 inline constexpr const char* kScorOpen = "scor-open";
+inline constexpr const char* kScorLimit = "scor-limit";
 inline constexpr const char* kScorEncoding = "scor-encoding";
 inline constexpr const char* kScorSyntax = "scor-syntax";
 inline constexpr const char* kScorNumber = "scor-number";
@@ -111,6 +113,7 @@ inline constexpr const char* kScorDetritusRespiration = "scor-detritus-respirati
 inline constexpr const char* kScorDetritusToDetritus = "scor-detritus-to-detritus";
 // --- project files (core/store) -------------------------------------------------------
 inline constexpr const char* kStoreNotFound = "store-not-found";
+inline constexpr const char* kStoreLimit = "store-limit";
 inline constexpr const char* kStoreNotProject = "store-not-project";
 inline constexpr const char* kStoreForeignDatabase = "store-foreign-database";
 inline constexpr const char* kStoreDamaged = "store-damaged";

@@ -1,11 +1,13 @@
 #include "core/store/project_file_detail.h"
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <set>
 #include <unordered_map>
 
 #include "core/model/problem_codes.h"
+#include "core/model/limits.h"
 #include "core/model/text.h"
 #include "core/store/sqlite_statement.h"
 
@@ -26,6 +28,8 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
     }
     const Model& m = s.model;
     const std::string in = " in scenario '" + name + "'";
+    for (const std::string& beyond : limits::exceededLimits(m))  // the loader would refuse the file
+        out.push_back(fileProblem(file, code::kStoreLimit, "scenario '" + name + "': " + beyond));
     std::set<std::string> seen;
     for (std::size_t i = 0; i < m.size(); ++i) {
         const Compartment& c = m.compartment(i);
@@ -281,13 +285,28 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
                                        "The file was left unchanged; it may have been edited by another program."));
     };
 
+    // Limits of this version (core/model/limits.h): refused, never cut.
+    auto beyondLimit = [&](const std::string& what) {
+        problems.push_back(fileProblem(file, code::kStoreLimit, "scenario '" + s.name + "': " + what,
+                                       "The file was left unchanged; this version cannot open a scenario that large."));
+    };
     std::unordered_map<std::int64_t, std::size_t> index;  // row id -> compartment index
     Statement comps(db, "SELECT id, name, kind, diet_import FROM compartment WHERE scenario_id = ?1 ORDER BY position");
     comps.bind(1, id);
     std::vector<std::pair<std::int64_t, double>> imports;
     while (comps.step()) {
+        if (s.model.size() == limits::kMaxCompartments) {
+            beyondLimit("more than " + limits::groupedNumber(limits::kMaxCompartments) +
+                        " compartments; the limit of this version is " + limits::groupedNumber(limits::kMaxCompartments));
+            return std::nullopt;
+        }
         Compartment c;
         c.name = comps.text(1);
+        if (const std::size_t length = limits::characterCount(c.name); length > limits::kMaxNameLength) {
+            beyondLimit("compartment " + std::to_string(s.model.size() + 1) + " has a name of " + std::to_string(length) +
+                        " characters; the limit of this version is " + std::to_string(limits::kMaxNameLength));
+            return std::nullopt;
+        }
         const auto kind = parseKind(comps.text(2));
         if (!kind) {
             damaged("compartment '" + c.name + "' has an unknown kind '" + comps.text(2) + "'");
@@ -331,9 +350,17 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
         }
         if (st.failed()) damaged(sqliteError(db));
     };
+    std::size_t dietEntries = static_cast<std::size_t>(
+        std::count_if(imports.begin(), imports.end(), [](const auto& entry) { return entry.second != 0.0; }));
     readPairs("SELECT d.predator_id, d.prey_id, d.fraction FROM diet d JOIN compartment c ON c.id = d.predator_id "
               "WHERE c.scenario_id = ?1",
-              "diet", [&](std::size_t pred, std::size_t prey, double v) { s.model.setDiet(pred, prey, v); });
+              "diet", [&](std::size_t pred, std::size_t prey, double v) {
+                  if (v != 0.0 && ++dietEntries == limits::kMaxDietEntries + 1)
+                      beyondLimit("more than " + limits::groupedNumber(limits::kMaxDietEntries) +
+                                  " non-zero diet shares; the limit of this version is " +
+                                  limits::groupedNumber(limits::kMaxDietEntries));
+                  if (dietEntries <= limits::kMaxDietEntries) s.model.setDiet(pred, prey, v);
+              });
     readPairs("SELECT r.source_id, r.pool_id, r.fraction FROM routing r JOIN compartment c ON c.id = r.source_id "
               "WHERE c.scenario_id = ?1",
               "routing", [&](std::size_t src, std::size_t pool, double v) { s.model.setRouting(src, pool, v); });
@@ -342,6 +369,17 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
     Statement fleets(db, "SELECT id, name, discard_pool_id FROM fleet WHERE scenario_id = ?1 ORDER BY position");
     fleets.bind(1, id);
     while (fleets.step()) {
+        if (s.model.fleets().size() == limits::kMaxFleets) {  // each fleet holds a catch per compartment
+            beyondLimit("more than " + std::to_string(limits::kMaxFleets) + " fleets; the limit of this version is " +
+                        std::to_string(limits::kMaxFleets));
+            return std::nullopt;
+        }
+        if (const std::size_t length = limits::characterCount(fleets.text(1)); length > limits::kMaxNameLength) {
+            beyondLimit("fleet " + std::to_string(s.model.fleets().size() + 1) + " has a name of " +
+                        std::to_string(length) + " characters; the limit of this version is " +
+                        std::to_string(limits::kMaxNameLength));
+            return std::nullopt;
+        }
         const std::size_t f = s.model.addFleet(fleets.text(1));
         fleetIndex[fleets.integer(0)] = f;
         if (!fleets.isNull(2)) {
