@@ -19,6 +19,7 @@
 
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"
+#include "workbench_test_support.h"
 #include "ui/results/balance_sheet_page.h"
 #include "ui/tables/ledger_table_view.h"
 #include "ui/widgets/checks_panel.h"
@@ -51,15 +52,6 @@ double greyStdDev(const QImage& image)
     return std::sqrt(std::max(0.0, sum2 / n - mean * mean));
 }
 
-tl::ui::MainWindowOptions testOptions(const QTemporaryDir& dir)
-{
-    tl::ui::MainWindowOptions o;
-    o.recoveryDirectory = dir.path() + QStringLiteral("/recovery");
-    o.useSettings = false;
-    o.askBeforeClosing = false;
-    return o;
-}
-
 }  // namespace
 
 class MainWindowTest : public QObject {
@@ -68,7 +60,7 @@ private slots:
     void opensTheSampleAndSolvesIt()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QString error;
         QVERIFY2(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true, &error), qPrintable(error));
         w.runner()->waitForIdle();
@@ -93,7 +85,7 @@ private slots:
     void resultsPageOffScreenCatchesUpWhenShown()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
         w.show();
         w.showPage(QStringLiteral("balance-sheet"));
@@ -117,7 +109,7 @@ private slots:
     void clickingACheckSelectsTheOffendingCell()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
         // Break Pike's diet: the row no longer sums to 1.
         auto* diet = w.dietPage()->diet();
@@ -201,7 +193,7 @@ private slots:
     void scenarioOperationsAreUndoable()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
         auto* doc = w.document();
         const std::string base = doc->scenario().name;
@@ -225,7 +217,7 @@ private slots:
     void slowSolvesRunInTheBackgroundAndOnlyTheNewestResultArrives()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
         w.runner()->waitForIdle();
         w.runner()->setInlineLimitMs(-1.0);  // treat every solve as slow
@@ -246,7 +238,7 @@ private slots:
     void keyboardPasteDeleteAndFillDownInATable()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake"), true));
         w.show();
         QVERIFY(QTest::qWaitForWindowExposed(&w));
@@ -270,7 +262,7 @@ private slots:
     void snapshotOfTheSampleGivesNonBlankImagesForEveryPage()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QString error;
         QVERIFY2(w.openPath(sampleProject(), true, &error), qPrintable(error));
         const QStringList files = w.renderSnapshots(dir.path() + QStringLiteral("/shots"), &error);

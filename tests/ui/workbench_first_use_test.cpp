@@ -34,6 +34,7 @@
 #include "core/model/problem_codes.h"
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"
+#include "workbench_test_support.h"
 #include "ui/results/balance_sheet_model.h"
 #include "ui/results/balance_sheet_page.h"
 #include "ui/style/palette.h"
@@ -49,15 +50,6 @@ using tl::ui::CompartmentTableModel;
 namespace {
 
 const QString kTinyLake = QStringLiteral(TL_FIXTURES_DIR "/ui/tiny_lake");
-
-tl::ui::MainWindowOptions testOptions(const QTemporaryDir& dir)
-{
-    tl::ui::MainWindowOptions o;
-    o.recoveryDirectory = dir.path() + QStringLiteral("/recovery");
-    o.useSettings = false;
-    o.askBeforeClosing = false;
-    return o;
-}
 
 QString statusText(const tl::ui::MainWindow& w)
 {
@@ -139,7 +131,7 @@ private slots:
     void checksPanelShowsExactlyTheCurrentProblems()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         w.resize(1400, 880);
         w.show();
@@ -245,7 +237,7 @@ private slots:
     void statusNamesWhatTheScenarioIs()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         w.runner()->waitForIdle();
         QVERIFY2(statusText(w).startsWith(QStringLiteral("No compartments yet")), qPrintable(statusText(w)));
 
@@ -286,7 +278,7 @@ private slots:
     void removingAnEatenCompartmentAsksAndUndoRestoresAll()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         w.show();
         w.runner()->waitForIdle();
@@ -326,7 +318,7 @@ private slots:
     void tabAndEnterAfterNamingANewRowKeepWhatIsTyped()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         w.show();
         QVERIFY(QTest::qWaitForWindowExposed(&w));
@@ -374,7 +366,7 @@ private slots:
     void nearDuplicateNamesAreRefusedAndAbsurdValuesWarned()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         auto* table = w.compartmentsPage()->compartments();
         const QModelIndex pikeName = table->index(3, CompartmentTableModel::kNameColumn);
@@ -395,7 +387,7 @@ private slots:
     void eeAboveItsMaximumIsMarkedInTheTables()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         w.show();
         setCell(w, 3, Param::Biomass, QStringLiteral("40"));
@@ -424,7 +416,7 @@ private slots:
     void oneClickFixesAreUndoable()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         auto* diet = w.dietPage()->diet();
         const int pikeRow = diet->rowOfPredator(3);
@@ -473,7 +465,7 @@ private slots:
     void dietHeadersAreNotClipped()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QString error;
         QVERIFY2(w.openPath(QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger"), true, &error), qPrintable(error));
         w.resize(1024, 700);
@@ -519,7 +511,7 @@ private slots:
     void oneNoDetritusPoolWarning()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         w.compartmentsPage()->compartments()->removeCompartments({4});
         w.runner()->waitForIdle();
@@ -537,7 +529,7 @@ private slots:
     void balanceSheetNamesStayInViewWhenScrolled()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         w.resize(1024, 700);
         w.show();
@@ -566,7 +558,7 @@ private slots:
     void duplicateDialogLetsTheUserCorrectAClashingName()
     {
         QTemporaryDir dir;
-        tl::ui::MainWindow w(testOptions(dir));
+        tl::ui::MainWindow w(tl::testing::workbenchTestOptions(dir));
         QVERIFY(w.openPath(kTinyLake, true));
         const std::string first = w.document()->scenario().name;
         bool stayedOpen = false;

@@ -9,6 +9,7 @@
 
 #include "core/store/schema.h"
 #include "tests/core/store/store_test_support.h"
+#include "tests/support/raw_sqlite.h"
 
 namespace tl {
 namespace {
@@ -37,19 +38,6 @@ std::string allMessages(const Problems& problems)
     std::string text;
     for (const Problem& p : problems) text += p.describe() + "\n";
     return text;
-}
-
-// Runs one SQL statement on a file with plain SQLite (outside the store).
-void rawExec(const std::filesystem::path& file, const std::string& sql)
-{
-    sqlite3* db = nullptr;
-    ASSERT_EQ(sqlite3_open(file.c_str(), &db), SQLITE_OK);
-    char* error = nullptr;
-    const int rc = sqlite3_exec(db, sql.c_str(), nullptr, nullptr, &error);
-    const std::string message = error ? error : "";
-    sqlite3_free(error);
-    sqlite3_close(db);
-    ASSERT_EQ(rc, SQLITE_OK) << message;
 }
 
 std::int64_t rawInt(const std::filesystem::path& file, const std::string& sql)
@@ -207,7 +195,7 @@ TEST(ProjectFile, TriggersPlantedInAFileDoNotRun)
     TempDir dir;
     const auto path = dir / "planted.tledger";
     ASSERT_TRUE(ProjectFile::create(path, inventedProject()).file);
-    rawExec(path, "CREATE TRIGGER wipe AFTER INSERT ON compartment BEGIN DELETE FROM diet; "
+    tl::testing::rawExec(path, "CREATE TRIGGER wipe AFTER INSERT ON compartment BEGIN DELETE FROM diet; "
                   "UPDATE project_info SET title = 'owned'; END;");
     auto file = ProjectFile::open(path).file;
     ASSERT_TRUE(file);
@@ -366,12 +354,12 @@ TEST(ProjectFileRefusal, AnotherProgramsSqliteDatabase)
 {
     TempDir dir;
     const auto path = dir / "contacts.tledger";
-    rawExec(path, "CREATE TABLE person(name TEXT, phone TEXT); INSERT INTO person VALUES ('Ann', '123');");
+    tl::testing::rawExec(path, "CREATE TABLE person(name TEXT, phone TEXT); INSERT INTO person VALUES ('Ann', '123');");
     expectRefusedUnchanged(path, "store-foreign-database", "foreign database without application id");
     EXPECT_NE(allMessages(ProjectFile::open(path).problems).find("another program"), std::string::npos);
 
     const auto other = dir / "other.tledger";
-    rawExec(other, "PRAGMA application_id = 1234567; CREATE TABLE t(x);");
+    tl::testing::rawExec(other, "PRAGMA application_id = 1234567; CREATE TABLE t(x);");
     expectRefusedUnchanged(other, "store-foreign-database", "foreign database with its own application id");
     EXPECT_NE(allMessages(ProjectFile::open(other).problems).find("0x0012D687"), std::string::npos);
 }
@@ -409,7 +397,7 @@ TEST(ProjectFileRefusal, NewerSchemaOpensReadOnlyAndStaysUnchanged)
     TempDir dir;
     const auto path = dir / "future.tledger";
     ASSERT_TRUE(ProjectFile::create(path, inventedProject()).file);
-    rawExec(path, "PRAGMA user_version = " + std::to_string(store::kSchemaVersion + 1) +
+    tl::testing::rawExec(path, "PRAGMA user_version = " + std::to_string(store::kSchemaVersion + 1) +
                       "; CREATE TABLE future_feature(x); PRAGMA wal_checkpoint(TRUNCATE);");
     const std::string before = fileBytes(path);
     {

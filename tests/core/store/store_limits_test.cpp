@@ -12,6 +12,7 @@
 #include "core/store/model_source.h"
 #include "core/store/project_save.h"
 #include "tests/core/store/store_test_support.h"
+#include "tests/support/raw_sqlite.h"
 
 namespace tl::testing {
 namespace {
@@ -20,19 +21,6 @@ const Problem* findCode(const Problems& problems, std::string_view code)
 {
     const auto it = std::find_if(problems.begin(), problems.end(), [&](const Problem& p) { return p.code == code; });
     return it == problems.end() ? nullptr : &*it;
-}
-
-// Runs SQL on a saved project as another program would.
-void editWithSql(const fs::path& path, const std::string& sql)
-{
-    sqlite3* db = nullptr;
-    ASSERT_EQ(sqlite3_open(path.c_str(), &db), SQLITE_OK);
-    char* error = nullptr;
-    const int rc = sqlite3_exec(db, sql.c_str(), nullptr, nullptr, &error);
-    const std::string message = error ? error : "";
-    sqlite3_free(error);
-    sqlite3_close(db);
-    ASSERT_EQ(rc, SQLITE_OK) << message;
 }
 
 struct Saved {
@@ -44,7 +32,7 @@ struct Saved {
 TEST(StoreLimits, TooLongCompartmentNameInTheFileIsRefused)
 {
     Saved saved;
-    editWithSql(saved.file, "UPDATE compartment SET name = replace(hex(zeroblob(201)), '00', 'x') WHERE name = 'pike'");
+    tl::testing::rawExec(saved.file, "UPDATE compartment SET name = replace(hex(zeroblob(201)), '00', 'x') WHERE name = 'pike'");
     const std::string before = fileBytes(saved.file);
     const ModelSource source = readModelSource(saved.file);
     EXPECT_FALSE(source.project.has_value());
@@ -59,7 +47,7 @@ TEST(StoreLimits, TooManyCompartmentsInTheFileAreRefused)
 {
     Saved saved;
     // 20 001 more producers in the first scenario, added as another program might.
-    editWithSql(saved.file,
+    tl::testing::rawExec(saved.file,
                 "WITH RECURSIVE k(i) AS (SELECT 1 UNION ALL SELECT i + 1 FROM k WHERE i < 20001) "
                 "INSERT INTO compartment (scenario_id, position, name, kind) "
                 "SELECT (SELECT min(id) FROM scenario), 1000 + i, 'alga ' || i, 'producer' FROM k");
