@@ -52,9 +52,9 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kTLFromImport, W, "A consumer eats only imported food, so its trophic level is set to 2."},
     {code::kTLUndefined, W, "A feeding loop has no producer or detritus below it, so its trophic level is undefined."},
     // Reconcile (core/reconcile).
-    {"reconcile-unsolvable", E, "Reconcile needs a scenario the balance can solve, with positive B, P/B and Q/B."},
-    {"reconcile-option", E, "A reconcile pin or bound names a compartment or parameter that cannot move."},
-    {"reconcile-conflict", E, "No change within the pins and bounds satisfies this constraint together with the others."},
+    {code::kReconcileUnsolvable, E, "Reconcile needs a scenario the balance can solve, with positive B, P/B and Q/B."},
+    {code::kReconcileOption, E, "A reconcile pin or bound names a compartment or parameter that cannot move."},
+    {code::kReconcileConflict, E, "No change within the pins and bounds satisfies this constraint together with the others."},
     // Flow network.
     {code::kNetworkShortfallImport, W,
      "An unbalanced flow would be negative; the shortfall enters the flow network as an import."},

@@ -43,9 +43,10 @@ inline constexpr const char* kDuplicateFleet = "duplicate-fleet";
 inline constexpr const char* kNoDetritusPool = "no-detritus-pool";  // also found by the solver: reported once
 // The one sentence for a scenario without a detritus pool: validation and the solver
 // both find it, and the Checks panel and the Balance sheet must not word it twice.
-inline constexpr const char* kNoDetritusPoolMessage =
+// (Sentences, not codes: declared as arrays so the registry test does not take them for codes.)
+inline constexpr char kNoDetritusPoolMessage[] =
     "The model has no detritus pool, so egestion, other mortality and dead discards have nowhere to go.";
-inline constexpr const char* kNoDetritusPoolHint = "Add a compartment of kind detritus.";
+inline constexpr char kNoDetritusPoolHint[] = "Add a compartment of kind detritus.";
 inline constexpr const char* kImplausibleValue = "implausible-value";  // above the rules' plausible range (warning)
 // --- balance (core/balance) ----------------------------------------------------------
 // Structure (status Invalid).
@@ -139,6 +140,10 @@ inline constexpr const char* kStoreOpenedReadOnly = "store-opened-read-only";   
 inline constexpr const char* kStoreDiskFull = "store-disk-full";
 inline constexpr const char* kStorePermissionDenied = "store-permission-denied";
 inline constexpr const char* kStoreIoError = "store-io-error";
+// Reconcile (core/reconcile).
+inline constexpr const char* kReconcileUnsolvable = "reconcile-unsolvable";
+inline constexpr const char* kReconcileOption = "reconcile-option";
+inline constexpr const char* kReconcileConflict = "reconcile-conflict";
 }  // namespace code
 
 struct ProblemCodeInfo {

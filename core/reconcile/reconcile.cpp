@@ -12,6 +12,7 @@
 
 #include "core/balance/solver.h"
 #include "core/io/text_table.h"
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 
 namespace tl {
@@ -470,7 +471,7 @@ ReconcileResult reconcile(const Model& model, const ReconcileOptions& options)
         }
     for (const ReconcileConflict& conflict : result.conflicts) {
         Problem p;
-        p.code = "reconcile-conflict";
+        p.code = code::kReconcileConflict;
         p.compartment = conflict.compartment;
         p.message = conflict.constraint + " cannot hold within the pins and bounds";
         for (const std::string& s : conflict.relax) p.hint += (p.hint.empty() ? "" : "; ") + s;

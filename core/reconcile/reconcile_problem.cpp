@@ -6,6 +6,7 @@
 #include <set>
 
 #include "core/io/text_table.h"
+#include "core/model/problem_codes.h"
 
 namespace tl {
 namespace {
@@ -25,7 +26,7 @@ Param modelParam(AdjustParam p)
 Problem optionProblem(const Model& model, std::size_t i, std::string message)
 {
     Problem p;
-    p.code = "reconcile-option";
+    p.code = code::kReconcileOption;
     p.compartment = i < model.size() ? model.compartment(i).name : "";
     p.message = std::move(message);
     return p;
@@ -112,7 +113,7 @@ ReconcileProblem ReconcileProblem::build(const Model& model, const ReconcileOpti
     if (plan.hasStructuralErrors()) {
         pr.problems_ = plan.problems();
         Problem p;
-        p.code = "reconcile-unsolvable";
+        p.code = code::kReconcileUnsolvable;
         p.message = "the scenario cannot be balanced as it stands (see the problems above); reconcile changes "
                     "values, not which values are unknown";
         pr.problems_.push_back(std::move(p));
@@ -124,7 +125,7 @@ ReconcileProblem ReconcileProblem::build(const Model& model, const ReconcileOpti
     plan.solve(in, ws, v);
     if (v.status != NumericStatus::Solved) {
         Problem p;
-        p.code = "reconcile-unsolvable";
+        p.code = code::kReconcileUnsolvable;
         p.message = "the balance equations of the scenario are singular; reconcile needs a solvable scenario";
         pr.problems_.push_back(std::move(p));
         return pr;
@@ -211,7 +212,7 @@ ReconcileProblem ReconcileProblem::build(const Model& model, const ReconcileOpti
         const double b0 = v.biomass[ii], pb0 = v.pb[ii], qb0 = v.qb[ii];
         if (!(b0 > 0.0) || !(pb0 > 0.0) || (consumer && !(qb0 > 0.0)) || !std::isfinite(b0 * pb0 * (consumer ? qb0 : 1.0))) {
             Problem p;
-            p.code = "reconcile-unsolvable";
+            p.code = code::kReconcileUnsolvable;
             p.compartment = c.name;
             p.message = "the balance gives " + c.name + " B = " + displayNumber(b0) + ", P/B = " + displayNumber(pb0) +
                         (consumer ? ", Q/B = " + displayNumber(qb0) : std::string()) +
