@@ -1,8 +1,9 @@
 #!/usr/bin/env bash
-# Install what is missing, build, and run the whole test suite with ctest; then the
-# core and CLI tests again under AddressSanitizer + UndefinedBehaviorSanitizer
-# (CMakePresets.json "sanitize": no GUI, no benchmarks, into build-sanitize/).
-# TL_SKIP_SANITIZERS=1 skips that second run (a quicker local check).
+# Install what is missing, build, and run the whole test suite with ctest.
+# TL_RUN_SANITIZERS=1 then runs the core and CLI tests again under AddressSanitizer +
+# UndefinedBehaviorSanitizer (CMakePresets.json "sanitize": no GUI, no benchmarks, into
+# build-sanitize/). It is off by default until a full sanitizer run has been seen green
+# and its time on CI measured (issue 12, item 10).
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/../app/bootstrap.sh"
 tl_install_missing_packages
@@ -10,7 +11,7 @@ tl_build -DTL_BUILD_TESTS=ON
 export QT_QPA_PLATFORM="${QT_QPA_PLATFORM:-offscreen}"
 (cd "$TL_BUILD_DIR" && ctest --output-on-failure --parallel "$(nproc)" --timeout 900)
 
-if [ "${TL_SKIP_SANITIZERS:-0}" != 1 ]; then
+if [ "${TL_RUN_SANITIZERS:-0}" = 1 ]; then
   echo "== Sanitizer run (AddressSanitizer + UBSan): core and CLI tests, fuzz corpus replay"
   start=$(date +%s)
   cd "$TL_ROOT"
