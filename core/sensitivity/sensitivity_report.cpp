@@ -1,0 +1,185 @@
+#include "core/sensitivity/sensitivity_report.h"
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+#include <vector>
+
+#include "core/io/balance_report.h"
+#include "core/io/json_writer.h"
+#include "core/io/text_table.h"
+
+namespace tl {
+
+const char* const kDietPathNote =
+    "A diet share moves with the rest of its predator's diet (import included) giving up the change in "
+    "proportion to their shares, so the row still sums to the same total.";
+
+namespace {
+
+// Input columns of one output row with a defined, non-zero elasticity, largest first.
+std::vector<std::size_t> ranked(const ElasticityResult& result, std::size_t output, std::optional<std::size_t> top)
+{
+    std::vector<std::size_t> order;
+    const auto o = static_cast<Eigen::Index>(output);
+    for (std::size_t k = 0; k < result.inputs.size(); ++k) {
+        const double e = result.elasticity(o, static_cast<Eigen::Index>(k));
+        if (std::isfinite(e) && e != 0.0) order.push_back(k);
+    }
+    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+        return std::abs(result.elasticity(o, static_cast<Eigen::Index>(a))) >
+               std::abs(result.elasticity(o, static_cast<Eigen::Index>(b)));
+    });
+    if (top && order.size() > *top) order.resize(*top);
+    return order;
+}
+
+std::string outputNote(const SensitivityOutput& output)
+{
+    return output.value == 0.0 ? "the output is 0 at the point estimate, so it has no relative change" : "";
+}
+
+void writeInputFields(JsonWriter& w, const Model& model, const SensitivityInput& input)
+{
+    w.field("input", inputName(model, input));
+    w.field("compartment", model.compartment(input.compartment).name);
+    w.field("parameter", inputKindKey(input.kind));
+    w.key("prey");
+    if (input.kind != SensitivityInputKind::Diet) w.null();
+    else w.value(input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name);
+    w.field("value", input.value);
+}
+
+std::string quantityLabel(SensitivityOutputKind kind)
+{
+    switch (kind) {
+    case SensitivityOutputKind::Biomass: return "B";
+    case SensitivityOutputKind::PB: return "P/B";
+    case SensitivityOutputKind::QB: return "Q/B";
+    case SensitivityOutputKind::EE: return "EE";
+    case SensitivityOutputKind::PQ: return "P/Q";
+    case SensitivityOutputKind::TL: return "TL";
+    }
+    return "";
+}
+
+std::string inputLabel(const Model& model, const SensitivityInput& input)
+{
+    const std::string& name = model.compartment(input.compartment).name;
+    switch (input.kind) {
+    case SensitivityInputKind::Biomass: return "B of " + name;
+    case SensitivityInputKind::PB: return "P/B of " + name;
+    case SensitivityInputKind::QB: return "Q/B of " + name;
+    case SensitivityInputKind::EE: return "EE of " + name;
+    case SensitivityInputKind::PQ: return "P/Q of " + name;
+    case SensitivityInputKind::Catch: return "catch of " + name;
+    case SensitivityInputKind::Diet:
+        return (input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name) + " in " +
+               name + "'s diet";
+    }
+    return name;
+}
+
+}  // namespace
+
+std::string sensitivityJson(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options)
+{
+    JsonWriter w;
+    w.beginObject();
+    w.field("scenario", options.scenario);
+    w.field("status", statusKey(result.status));
+    w.key("error");
+    if (result.error.empty()) w.null();
+    else w.value(result.error);
+    w.key("method_note");
+    if (result.methodNote.empty()) w.null();
+    else w.value(result.methodNote);
+    w.field("log_step", result.logStep);
+    w.field("diet_path", kDietPathNote);
+    w.field("input_count", result.inputs.size());
+    w.field("output_count", result.outputs.size());
+    w.key("outputs").beginArray();
+    for (std::size_t o = 0; o < result.outputs.size(); ++o) {
+        const SensitivityOutput& out = result.outputs[o];
+        w.beginObject();
+        w.field("output", outputName(model, out));
+        w.field("compartment", model.compartment(out.compartment).name);
+        w.field("quantity", outputKindKey(out.kind));
+        w.field("value", out.value);
+        w.field("solved", out.solved);
+        w.field("method", methodKey(out.method));
+        const std::string note = outputNote(out);
+        w.key("note");
+        if (note.empty()) w.null();
+        else w.value(note);
+        w.key("elasticities").beginArray();
+        for (std::size_t k : ranked(result, o, options.top)) {
+            w.beginObject();
+            writeInputFields(w, model, result.inputs[k]);
+            w.field("elasticity", result.elasticity(static_cast<Eigen::Index>(o), static_cast<Eigen::Index>(k)));
+            w.endObject();
+        }
+        w.endArray();
+        w.endObject();
+    }
+    w.endArray();
+    w.key("inputs").beginArray();
+    for (const SensitivityInput& input : result.inputs) {
+        w.beginObject();
+        writeInputFields(w, model, input);
+        w.endObject();
+    }
+    w.endArray();
+    w.key("prcc").null();
+    w.field("notice", kDecisionSupportNotice);
+    w.endObject();
+    return w.str() + "\n";
+}
+
+std::string sensitivityText(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options)
+{
+    std::string out = "Elasticities of scenario '" + options.scenario + "' (" + std::string(statusKey(result.status)) +
+                      "): d ln(output) / d ln(input) at the point estimate; a 1 % rise of the input moves the "
+                      "output by about e %.\n";
+    if (!result.error.empty()) return out + "Not computed: " + result.error + "\n";
+    if (result.status == BalanceStatus::Unbalanced)
+        out += "Note: the scenario does not balance; these describe its unbalanced point.\n";
+    if (!result.methodNote.empty()) out += "Method: " + result.methodNote + ".\n";
+    out += std::to_string(result.inputs.size()) + " inputs, " + std::to_string(result.outputs.size()) + " outputs. " +
+           kDietPathNote + "\n";
+    for (std::size_t o = 0; o < result.outputs.size(); ++o) {
+        const SensitivityOutput& output = result.outputs[o];
+        out += '\n';
+        out += quantityLabel(output.kind) + " of " + model.compartment(output.compartment).name + " (" +
+               outputName(model, output) + ") = " + displayNumber(output.value) + (output.solved ? ", solved" : "") +
+               "; " + (output.method == DerivativeMethod::Analytic ? "analytic" : "central differences") + "\n";
+        const std::string note = outputNote(output);
+        if (!note.empty()) {
+            out += "  " + note + "\n";
+            continue;
+        }
+        const std::vector<std::size_t> order = ranked(result, o, options.top);
+        if (order.empty()) {
+            out += "  no input moves it\n";
+            continue;
+        }
+        TextTable table;
+        table.addColumn("Input", TextTable::Align::Left);
+        table.addColumn("Value");
+        table.addColumn("Elasticity");
+        for (std::size_t k : order)
+            table.addRow({inputLabel(model, result.inputs[k]), displayNumber(result.inputs[k].value),
+                          displayNumber(result.elasticity(static_cast<Eigen::Index>(o), static_cast<Eigen::Index>(k)))});
+        out += table.render();
+        const std::size_t all = ranked(result, o, std::nullopt).size();
+        if (order.size() < all) {
+            out += "  (";
+            out += std::to_string(all - order.size());
+            out += " smaller not shown; --top N shows more)\n";
+        }
+    }
+    out += std::string("\n") + kDecisionSupportNotice + "\n";
+    return out;
+}
+
+}  // namespace tl

@@ -1,0 +1,38 @@
+// Reports of `tledger sensitivity` (DESIGN.md 5.2): the JSON (keys stable: add, never
+// rename) and a readable table, each output's elasticities ranked by magnitude.
+//
+// JSON: {"scenario", "status": "balanced"|"unbalanced", "method_note", "log_step",
+//        "diet_path", "input_count", "output_count",
+//        "outputs": [{"output": "C.param", "compartment", "quantity", "value", "solved",
+//                     "method": "analytic"|"central_difference", "note",
+//                     "elasticities": [{"input": "C.param[.prey]", "compartment",
+//                                       "parameter", "prey", "value", "elasticity"}]}],
+//        "inputs": [{"input", "compartment", "parameter", "prey", "value"}],
+//        "prcc": null, "notice"}
+// "elasticities" lists every defined, non-zero elasticity, largest magnitude first
+// (`top` keeps the first K); "prey" is null except for diet entries ("import" for the
+// import share); "note" says why an output has none (its value is 0). "prcc" is null until
+// the ensemble provides draws (the seam of `--prcc`).
+#pragma once
+
+#include <cstddef>
+#include <optional>
+#include <string>
+
+#include "core/model/model.h"
+#include "core/sensitivity/elasticity.h"
+
+namespace tl {
+
+struct SensitivityReportOptions {
+    std::string scenario;
+    std::optional<std::size_t> top;  // elasticities per output; all when unset
+};
+
+std::string sensitivityJson(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options);
+std::string sensitivityText(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options);
+
+// The sentence the reports give for the diet path (elasticity.h).
+extern const char* const kDietPathNote;
+
+}  // namespace tl
