@@ -28,6 +28,10 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                a least-violating change exists.
             [--impact-matrix]                  with --json: the impact matrix above 200 compartments too
                                                (it grows as n x n: 45 MB of JSON at 1 000)
+  sensitivity MODEL [--scenario NAME] [--output COMPARTMENT.QUANTITY] [--top N]
+            [--central-differences] [--json]   local elasticities d ln(output) / d ln(input),
+                                               ranked; QUANTITY: biomass (or b), pb, qb, ee,
+                                               pq, tl (default: every output)
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
@@ -48,6 +52,7 @@ int main(int argc, char** argv)
     const std::map<std::string, Command> commands = {
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
+        {"sensitivity", tl::cli::cmdSensitivity},
     };
     if (argc < 2) {
         std::cerr << kUsage;

@@ -42,11 +42,11 @@ struct Point {
 // Derivatives of the completed values along one input's path, per unit of ln(input).
 struct Tangent {
     Eigen::VectorXd dB, dPB, dQB, dEE, dY, dDeadDiscards;
-    // A diet path: the predator and the change of each of its modelled prey entries
-    // and of its import share.
+    // A diet path: the predator and the change of each of its modelled prey entries (the
+    // import share enters no equation; TL leaves it out).
     std::optional<std::size_t> dietPredator;
     std::vector<std::pair<std::size_t, double>> dDiet;
-    double dImport = 0.0;
+    bool movesImportOnly = false;  // the path of the import share itself
 
     explicit Tangent(Eigen::Index n)
         : dB(Eigen::VectorXd::Zero(n)), dPB(Eigen::VectorXd::Zero(n)), dQB(Eigen::VectorXd::Zero(n)),
@@ -58,7 +58,7 @@ struct Tangent {
         for (Eigen::VectorXd* v : {&dB, &dPB, &dQB, &dEE, &dY, &dDeadDiscards}) v->setZero();
         dietPredator.reset();
         dDiet.clear();
-        dImport = 0.0;
+        movesImportOnly = false;
     }
 };
 
@@ -134,8 +134,7 @@ void seedTangent(const Point& p, const SensitivityInput& input, Tangent& t)
         t.dietPredator = j;
         for (const auto& [prey, dc] : p.model.dietRow(j))
             t.dDiet.emplace_back(prey, prey == input.prey ? dc : dc * give);
-        const double import = p.model.dietImport(j);
-        t.dImport = input.prey == kImportPrey ? import : import * give;
+        t.movesImportOnly = input.prey == kImportPrey;
         break;
     }
     }
@@ -191,6 +190,8 @@ public:
     {
         Eigen::VectorXd rhs = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(model_.size()));
         if (!t.dietPredator || notes_[*t.dietPredator] != TrophicLevelNote::Computed) return rhs;
+        // Moving the import share rescales the modelled prey alike: D' does not change.
+        if (t.movesImportOnly) return rhs;
         const std::size_t j = *t.dietPredator;
         const double s = modelledSum(j);
         double ds = 0.0;

@@ -17,14 +17,19 @@ const char* const kDietPathNote =
 
 namespace {
 
-// Input columns of one output row with a defined, non-zero elasticity, largest first.
+// Elasticities smaller than this are rounding residue of the solve, not an effect (this
+// project's choice: the solve's relative accuracy is about 1e-14 times its conditioning).
+constexpr double kNegligibleElasticity = 1e-12;
+
+// Input columns of one output row with a defined elasticity above kNegligibleElasticity,
+// largest first.
 std::vector<std::size_t> ranked(const ElasticityResult& result, std::size_t output, std::optional<std::size_t> top)
 {
     std::vector<std::size_t> order;
     const auto o = static_cast<Eigen::Index>(output);
     for (std::size_t k = 0; k < result.inputs.size(); ++k) {
         const double e = result.elasticity(o, static_cast<Eigen::Index>(k));
-        if (std::isfinite(e) && e != 0.0) order.push_back(k);
+        if (std::isfinite(e) && std::abs(e) > kNegligibleElasticity) order.push_back(k);
     }
     std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
         return std::abs(result.elasticity(o, static_cast<Eigen::Index>(a))) >
@@ -74,8 +79,8 @@ std::string inputLabel(const Model& model, const SensitivityInput& input)
     case SensitivityInputKind::PQ: return "P/Q of " + name;
     case SensitivityInputKind::Catch: return "catch of " + name;
     case SensitivityInputKind::Diet:
-        return (input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name) + " in " +
-               name + "'s diet";
+        return (input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name) +
+               " in the diet of " + name;
     }
     return name;
 }
@@ -139,14 +144,15 @@ std::string sensitivityJson(const Model& model, const ElasticityResult& result, 
 std::string sensitivityText(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options)
 {
     std::string out = "Elasticities of scenario '" + options.scenario + "' (" + std::string(statusKey(result.status)) +
-                      "): d ln(output) / d ln(input) at the point estimate; a 1 % rise of the input moves the "
+                      ")\nd ln(output) / d ln(input) at the point estimate: a 1 % rise of the input moves the "
                       "output by about e %.\n";
     if (!result.error.empty()) return out + "Not computed: " + result.error + "\n";
     if (result.status == BalanceStatus::Unbalanced)
         out += "Note: the scenario does not balance; these describe its unbalanced point.\n";
     if (!result.methodNote.empty()) out += "Method: " + result.methodNote + ".\n";
-    out += std::to_string(result.inputs.size()) + " inputs, " + std::to_string(result.outputs.size()) + " outputs. " +
-           kDietPathNote + "\n";
+    out += std::to_string(result.inputs.size()) + " inputs, " + std::to_string(result.outputs.size()) + " outputs.\n";
+    out += kDietPathNote;
+    out += '\n';
     for (std::size_t o = 0; o < result.outputs.size(); ++o) {
         const SensitivityOutput& output = result.outputs[o];
         out += '\n';

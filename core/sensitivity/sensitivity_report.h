@@ -9,7 +9,8 @@
 //                                       "parameter", "prey", "value", "elasticity"}]}],
 //        "inputs": [{"input", "compartment", "parameter", "prey", "value"}],
 //        "prcc": null, "notice"}
-// "elasticities" lists every defined, non-zero elasticity, largest magnitude first
+// "elasticities" lists every defined elasticity above 1e-12 in magnitude (smaller ones are
+// rounding residue), largest magnitude first
 // (`top` keeps the first K); "prey" is null except for diet entries ("import" for the
 // import share); "note" says why an output has none (its value is 0). "prcc" is null until
 // the ensemble provides draws (the seam of `--prcc`).
