@@ -7,6 +7,7 @@
 // listed (all of them for one --output); the JSON all unless --top.
 // `--prcc --draws N --seed S` (partial rank correlations over an ensemble) is the seam for
 // core/ensemble: refused until the ensemble is built.
+// Every output of a very large web (more than 5e7 elasticities) is refused: name outputs.
 // Exit: 0 balanced, 1 the scenario does not balance or does not solve (reported), 2 bad input.
 #include <charconv>
 #include <iostream>
@@ -126,6 +127,10 @@ int cmdSensitivity(const Args& args)
         }
     }
     const ElasticityResult result = computeElasticities(model, options);
+    if (result.tooLarge) {
+        std::cerr << "tledger sensitivity: " << result.error << "\n";
+        return 2;
+    }
 
     SensitivityReportOptions report;
     report.scenario = scenario.name;

@@ -533,6 +533,15 @@ ElasticityResult computeElasticities(const Model& model, const ElasticityOptions
     }
     result.inputs = sensitivityInputs(model);
     result.outputs = selectedOutputs(model, sheet, options);
+    if (static_cast<double>(result.outputs.size()) * static_cast<double>(result.inputs.size()) >
+        static_cast<double>(options.maxEntries)) {
+        result.tooLarge = true;
+        result.error = std::to_string(result.outputs.size()) + " outputs x " + std::to_string(result.inputs.size()) +
+                       " inputs is more than " + std::to_string(options.maxEntries) +
+                       " elasticities for one run; choose the outputs (tledger sensitivity --output C.QUANTITY)";
+        result.outputs.clear();
+        return result;
+    }
     result.elasticity.setConstant(static_cast<Eigen::Index>(result.outputs.size()),
                                   static_cast<Eigen::Index>(result.inputs.size()), kNaN);
 

@@ -84,11 +84,16 @@ struct ElasticityOptions {
     double logStep = 1e-5;  // h of the central differences, on ln(input)
     // Restrict the outputs to these (empty: all); see findOutput.
     std::vector<std::pair<std::size_t, SensitivityOutputKind>> only;
+    // The outputs x inputs matrix is dense: above this many entries (400 MB) nothing is
+    // computed and `error` says to choose outputs (a 1000-compartment web has about
+    // 5 000 outputs and 10 000 inputs: 5e7).
+    std::size_t maxEntries = 50'000'000;
 };
 
 struct ElasticityResult {
     BalanceStatus status = BalanceStatus::Invalid;  // of the point estimate
-    std::string error;       // why nothing was computed (status Invalid); empty otherwise
+    std::string error;       // why nothing was computed (status Invalid, or too large); empty otherwise
+    bool tooLarge = false;   // refused by ElasticityOptions::maxEntries
     std::string methodNote;  // why central differences were used, if they were
     double logStep = 0.0;
     std::vector<SensitivityInput> inputs;

@@ -227,6 +227,21 @@ TEST(Elasticity, OnlyTheAskedOutputIsComputed)
         EXPECT_EQ(one.elasticity(0, k), all.elasticity(static_cast<Eigen::Index>(*row), k));
 }
 
+TEST(Elasticity, TooManyElasticitiesAreRefusedWithAReason)
+{
+    const Model m = testing::handPond();
+    ElasticityOptions o;
+    o.maxEntries = 10;
+    const ElasticityResult r = computeElasticities(m, o);
+    EXPECT_TRUE(r.tooLarge);
+    EXPECT_NE(r.error.find("--output"), std::string::npos) << r.error;
+    EXPECT_TRUE(r.outputs.empty());
+    o.only = {{1, SensitivityOutputKind::Biomass}};  // one output x 15 inputs: above 10 still
+    EXPECT_TRUE(computeElasticities(m, o).tooLarge);
+    o.maxEntries = 100;
+    EXPECT_FALSE(computeElasticities(m, o).tooLarge);
+}
+
 TEST(Elasticity, OutputNamesParse)
 {
     EXPECT_EQ(parseOutputKind("b"), SensitivityOutputKind::Biomass);
