@@ -18,6 +18,45 @@ constexpr double kCollinearShare = 1e-9;
 
 Eigen::VectorXd centred(const Eigen::VectorXd& v) { return v.array() - v.mean(); }
 
+// Continued fraction of the incomplete beta function, evaluated by the modified Lentz
+// method (Lentz 1976 Appl Opt 15:668; Thompson & Barnett 1986 J Comput Phys 64:490):
+// I_x(a, b) = x^a (1-x)^b / (a B(a, b)) / (1 + d1 / (1 + d2 / (1 + ...))), with
+// d_{2m+1} = -(a+m)(a+b+m) x / ((a+2m)(a+2m+1)), d_{2m} = m(b-m) x / ((a+2m-1)(a+2m)).
+double incompleteBetaFraction(double a, double b, double x)
+{
+    constexpr double tiny = 1e-300, eps = 1e-16;
+    double c = 1.0, d = 1.0 - (a + b) * x / (a + 1.0);
+    if (std::abs(d) < tiny) d = tiny;
+    d = 1.0 / d;
+    double f = d;
+    for (int m = 1; m <= 10000; ++m) {
+        const double dm = static_cast<double>(m);
+        const double even = dm * (b - dm) * x / ((a + 2.0 * dm - 1.0) * (a + 2.0 * dm));
+        const double odd = -(a + dm) * (a + b + dm) * x / ((a + 2.0 * dm) * (a + 2.0 * dm + 1.0));
+        for (const double coefficient : {even, odd}) {
+            d = 1.0 + coefficient * d;
+            if (std::abs(d) < tiny) d = tiny;
+            c = 1.0 + coefficient / c;
+            if (std::abs(c) < tiny) c = tiny;
+            d = 1.0 / d;
+            f *= c * d;
+        }
+        if (std::abs(c * d - 1.0) < eps) break;
+    }
+    return f;
+}
+
+// Regularized incomplete beta I_x(a, b), using the symmetry I_x(a,b) = 1 - I_{1-x}(b,a)
+// where the fraction converges slowly (x > (a+1)/(a+b+2)).
+double regularizedIncompleteBeta(double a, double b, double x)
+{
+    if (x <= 0.0) return 0.0;
+    if (x >= 1.0) return 1.0;
+    const double logFront = std::lgamma(a + b) - std::lgamma(a) - std::lgamma(b) + a * std::log(x) + b * std::log1p(-x);
+    if (x < (a + 1.0) / (a + b + 2.0)) return std::exp(logFront) * incompleteBetaFraction(a, b, x) / a;
+    return 1.0 - std::exp(logFront) * incompleteBetaFraction(b, a, 1.0 - x) / b;
+}
+
 double pearson(const Eigen::VectorXd& a, const Eigen::VectorXd& b)
 {
     const Eigen::VectorXd ca = centred(a), cb = centred(b);
@@ -25,7 +64,26 @@ double pearson(const Eigen::VectorXd& a, const Eigen::VectorXd& b)
     return denominator > 0.0 ? ca.dot(cb) / denominator : kNaN;
 }
 
+// Two-sided p-values of the defined coefficients (prcc.h).
+void addSignificance(PrccResult& result, std::size_t kept)
+{
+    result.degreesOfFreedom = static_cast<double>(result.draws) - 2.0 - (static_cast<double>(kept) - 1.0);
+    for (Eigen::Index j = 0; j < result.coefficient.size(); ++j) {
+        const double r = result.coefficient[j];
+        if (!std::isfinite(r) || result.degreesOfFreedom <= 0.0) continue;
+        result.pValue[j] = std::abs(r) >= 1.0 ? 0.0
+                                              : studentTwoSidedP(r * std::sqrt(result.degreesOfFreedom / (1.0 - r * r)),
+                                                                 result.degreesOfFreedom);
+    }
+}
+
 }  // namespace
+
+double studentTwoSidedP(double t, double df)
+{
+    if (!std::isfinite(t)) return std::isnan(t) ? kNaN : 0.0;
+    return regularizedIncompleteBeta(0.5 * df, 0.5, df / (df + t * t));
+}
 
 const char* prccNoteKey(PrccNote note)
 {
@@ -62,6 +120,7 @@ PrccResult partialRankCorrelation(const Eigen::MatrixXd& allDraws, const Eigen::
     const Eigen::Index inputs = allDraws.cols();
     PrccResult result;
     result.coefficient = Eigen::VectorXd::Constant(inputs, kNaN);
+    result.pValue = Eigen::VectorXd::Constant(inputs, kNaN);
     result.note.assign(static_cast<std::size_t>(inputs), PrccNote::Defined);
     if (allOutput.size() != allDraws.rows()) {
         result.note.assign(static_cast<std::size_t>(inputs), PrccNote::TooFewDraws);
@@ -72,6 +131,7 @@ PrccResult partialRankCorrelation(const Eigen::MatrixXd& allDraws, const Eigen::
     for (Eigen::Index r = 0; r < allDraws.rows(); ++r)
         if (std::isfinite(allOutput[r]) && allDraws.row(r).allFinite()) rows.push_back(r);
     const auto n = static_cast<Eigen::Index>(rows.size());
+    result.draws = rows.size();
     Eigen::MatrixXd draws(n, inputs);
     Eigen::VectorXd output(n);
     for (Eigen::Index r = 0; r < n; ++r) {
@@ -109,6 +169,7 @@ PrccResult partialRankCorrelation(const Eigen::MatrixXd& allDraws, const Eigen::
             for (Eigen::Index k = 0; k < p; ++k)
                 result.coefficient[kept[static_cast<std::size_t>(k)]] =
                     -precision(k, p) / std::sqrt(precision(k, k) * precision(p, p));
+            addSignificance(result, kept.size());
             return result;
         }
     }
@@ -133,6 +194,7 @@ PrccResult partialRankCorrelation(const Eigen::MatrixXd& allDraws, const Eigen::
         }
         result.coefficient[j] = pearson(rx, ry);
     }
+    addSignificance(result, kept.size());
     return result;
 }
 

@@ -17,8 +17,14 @@
 // for an input the others determine exactly (residual r_x is 0), and for all when there
 // are too few draws (fewer than the inputs kept + 3: no residual degrees of freedom left).
 // Draws holding a value that is not finite (a draw that did not solve) are left out.
+//
+// Significance: a PRCC r of k kept inputs over N draws is tested as a partial correlation
+// controlled for k - 1 variables, T = r sqrt(df / (1 - r^2)) with df = N - 2 - (k - 1)
+// degrees of freedom, Student's t (the test Marino et al. 2008 give, recalled from memory;
+// the standard test of a partial correlation), two-sided p-value.
 #pragma once
 
+#include <cstddef>
 #include <cstdint>
 #include <vector>
 
@@ -36,9 +42,17 @@ struct PrccOptions {
 
 struct PrccResult {
     Eigen::VectorXd coefficient;  // one per input column; NaN where not defined
+    Eigen::VectorXd pValue;       // two-sided, of the t test above; NaN where not defined
     std::vector<PrccNote> note;   // why, per input
     bool viaResiduals = false;    // which computation was used
+    std::size_t draws = 0;        // draws used (finite rows)
+    double degreesOfFreedom = 0.0;
 };
+
+// P(|T| >= |t|) for Student's t with df degrees of freedom (df > 0), through the
+// regularized incomplete beta function I_x(df/2, 1/2) at x = df / (df + t^2), evaluated
+// by its continued fraction (modified Lentz method).
+double studentTwoSidedP(double t, double df);
 
 // Mid-ranks 1..n, ties averaged.
 Eigen::VectorXd averageRanks(const Eigen::Ref<const Eigen::VectorXd>& values);

@@ -65,12 +65,7 @@ int main(int argc, char** argv)
     for (int a = 1; a < argc; ++a) {
         const std::string arg = argv[a];
         if (arg == "--sizes" && a + 1 < argc) {
-            sizes.clear();
-            for (std::string list = argv[++a]; !list.empty();) {
-                const auto comma = list.find(',');
-                sizes.push_back(std::stoul(list.substr(0, comma)));
-                list = comma == std::string::npos ? "" : list.substr(comma + 1);
-            }
+            sizes = tl::bench::parseSizes(argv[++a]);
         } else if (arg == "--seed" && a + 1 < argc) {
             seed = std::stoull(argv[++a]);
         } else if (arg == "--scipy" && a + 1 < argc) {

@@ -31,6 +31,17 @@ std::optional<UnknownMix> parseMix(std::string_view key)
     return std::nullopt;
 }
 
+std::vector<std::size_t> parseSizes(const std::string& list)
+{
+    std::vector<std::size_t> sizes;
+    for (std::string rest = list; !rest.empty();) {
+        const auto comma = rest.find(',');
+        sizes.push_back(std::stoul(rest.substr(0, comma)));
+        rest = comma == std::string::npos ? "" : rest.substr(comma + 1);
+    }
+    return sizes;
+}
+
 namespace {
 
 // A consumer's place in the web: its layer (1 eats producers and detritus; L is the

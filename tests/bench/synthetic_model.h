@@ -29,7 +29,9 @@
 #include <cstddef>
 #include <cstdint>
 #include <optional>
+#include <string>
 #include <string_view>
+#include <vector>
 
 #include "core/model/model.h"
 
@@ -38,6 +40,9 @@ namespace tl::bench {
 enum class UnknownMix { EE, EEBiomass, EEQbPq };
 std::string_view mixKey(UnknownMix mix);  // "ee", "ee-biomass", "ee-qb-pq"
 std::optional<UnknownMix> parseMix(std::string_view key);
+// "50,200" -> {50, 200}: the --sizes argument of the benchmark drivers (throws
+// std::invalid_argument on a list that is not whole numbers).
+std::vector<std::size_t> parseSizes(const std::string& list);
 
 struct SyntheticModel {
     Model model;  // the inputs, with the mix's unknowns hidden

@@ -1,7 +1,8 @@
 // PRCC (core/sensitivity/prcc.h; Marino et al. 2008 J Theor Biol 254:178) against an
 // independent computation: tests/crosscheck/prcc_scipy.py ranks with
 // scipy.stats.rankdata, regresses with numpy.linalg.lstsq and correlates the residuals
-// with scipy.stats.pearsonr, step by step, on the same draws written to CSV. The C++
+// with scipy.stats.pearsonr, step by step, on the same draws written to CSV; the
+// p-values of the t test come from scipy.stats.t.sf. The C++
 // uses the precision-matrix identity (or its own step-by-step path when the ranked
 // covariance is singular), so the two share no code.
 //
@@ -65,6 +66,9 @@ void expectSame(const Eigen::MatrixXd& x, const Eigen::VectorXd& y, const testin
             continue;
         }
         EXPECT_NEAR(ours.coefficient[j], ref.get<double>(), 1e-9) << name << " input " << j;
+        // p-values span hundreds of decades: compared relatively (scipy.stats.t.sf).
+        const double p = py.at("p")[static_cast<std::size_t>(j)].get<double>();
+        EXPECT_NEAR(ours.pValue[j], p, 1e-7 * p + 1e-300) << name << " input " << j;
         ++*defined;
     }
 }

@@ -8,12 +8,14 @@ method is written: rank every column (scipy.stats.rankdata, ties averaged); for 
 input, regress its ranks and the output's ranks on the other inputs' ranks with an
 intercept (numpy.linalg.lstsq), and take the Pearson correlation of the two residuals
 (scipy.stats.pearsonr). A constant input is left out of the others' regressions and
-gets null, as does everything when the output is constant."""
+gets null, as does everything when the output is constant. Two-sided p-values of the
+test T = r sqrt(df / (1 - r^2)), df = draws - 2 - (kept inputs - 1), by
+scipy.stats.t.sf."""
 import json
 import sys
 
 import numpy as np
-from scipy.stats import pearsonr, rankdata
+from scipy.stats import pearsonr, rankdata, t as student_t
 
 
 def prcc(x, y):
@@ -21,7 +23,7 @@ def prcc(x, y):
     keep = [j for j in range(p) if np.ptp(x[:, j]) > 0]
     out = [None] * p
     if np.ptp(y) == 0:
-        return out
+        return out, [None] * p
     ranks = {j: rankdata(x[:, j]) for j in keep}
     ry = rankdata(y)
     for j in keep:
@@ -32,13 +34,18 @@ def prcc(x, y):
         if np.linalg.norm(res_x) <= 1e-9 * np.linalg.norm(ranks[j] - ranks[j].mean()):
             continue  # the other inputs determine this one
         out[j] = float(pearsonr(res_x, res_y)[0])
-    return out
+    df = n - 2 - (len(keep) - 1)
+    pvalues = [None if r is None else
+               (0.0 if abs(r) >= 1 else float(2 * student_t.sf(abs(r) * np.sqrt(df / (1 - r * r)), df)))
+               for r in out]
+    return out, pvalues
 
 
 def main():
     data = np.genfromtxt(sys.argv[1], delimiter=",", skip_header=1, ndmin=2)
     x, y = data[:, :-1], data[:, -1]
-    print(json.dumps({"prcc": prcc(x, y), "draws": int(len(y))}))
+    coefficients, pvalues = prcc(x, y)
+    print(json.dumps({"prcc": coefficients, "p": pvalues, "draws": int(len(y))}))
 
 
 if __name__ == "__main__":

@@ -110,6 +110,32 @@ TEST(Prcc, DuplicatedInputIsCollinear)
     EXPECT_GT(r.coefficient[1], 0.5);
 }
 
+// Student's t two-sided tail against its closed forms: df = 1 is the Cauchy distribution,
+// P(|T| >= t) = 1 - 2 atan(t) / pi; df = 2 gives 1 - t / sqrt(2 + t^2) (textbook results).
+TEST(Prcc, StudentTailMatchesClosedForms)
+{
+    const double pi = std::acos(-1.0);
+    for (double t : {0.0, 0.1, 0.5, 1.0, 2.5, 10.0, 300.0}) {
+        EXPECT_NEAR(studentTwoSidedP(t, 1.0), 1.0 - 2.0 * std::atan(t) / pi, 1e-13) << t;
+        EXPECT_NEAR(studentTwoSidedP(-t, 2.0), 1.0 - t / std::sqrt(2.0 + t * t), 1e-13) << t;
+    }
+    // Far tail, relative: df = 2, t = 1e4: 1 - t / sqrt(2 + t^2) ~ 1 / t^2.
+    EXPECT_NEAR(studentTwoSidedP(1e4, 2.0) / 1e-8, 1.0, 1e-6);
+}
+
+TEST(Prcc, SignificanceFollowsStrengthAndDraws)
+{
+    const Eigen::MatrixXd x = randomDraws(12, 200, 3);
+    const Eigen::VectorXd y = x.col(0) + 0.05 * x.col(1) + 0.3 * randomDraws(13, 200, 1).col(0);
+    const PrccResult r = partialRankCorrelation(x, y);
+    EXPECT_EQ(r.draws, 200u);
+    EXPECT_EQ(r.degreesOfFreedom, 200.0 - 2.0 - 2.0);
+    EXPECT_LT(r.pValue[0], 1e-20);  // the strong driver
+    EXPECT_GT(r.pValue[2], 0.001);   // no effect
+    const double rr = r.coefficient[0], df = r.degreesOfFreedom;
+    EXPECT_DOUBLE_EQ(r.pValue[0], studentTwoSidedP(rr * std::sqrt(df / (1.0 - rr * rr)), df));
+}
+
 TEST(Prcc, TooFewDrawsAndNonFiniteDraws)
 {
     const PrccResult few = partialRankCorrelation(randomDraws(8, 5, 3), randomDraws(9, 5, 1).col(0));
