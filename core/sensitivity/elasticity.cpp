@@ -15,7 +15,8 @@ namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 using SparseMatrix = Eigen::SparseMatrix<double>;
 
-bool hasPositiveOrNegative(const std::optional<double>& v) { return v && *v != 0.0 && std::isfinite(*v); }
+// A given, finite, non-zero value: one that has a relative change.
+bool isGivenAndNonZero(const std::optional<double>& v) { return v && *v != 0.0 && std::isfinite(*v); }
 
 // d ln(y) from dy = dy/d ln(theta): NaN where y is 0 or undefined.
 double relative(double dy, double y) { return y != 0.0 && std::isfinite(y) ? dy / y : kNaN; }
@@ -31,12 +32,13 @@ bool pqIsUsed(const Compartment& c)
 // The point estimate and what the derivatives need of it.
 struct Point {
     const Model& model;
-    const BalanceSheet& sheet;
     const BalancePlan& plan;
     const BalanceInputs& in;
     Eigen::VectorXd b, pb, qb, ee, pq;  // completed values; Q/B 0 for producers and pools
     Eigen::VectorXd production, consumption;
     Eigen::VectorXd detritusConsumption, detritusInflow;
+    // The diet by prey rows (in.diet is by predator columns), for a pool's consumption.
+    Eigen::SparseMatrix<double, Eigen::RowMajor> dietByPrey;
 };
 
 // Derivatives of the completed values along one input's path, per unit of ln(input).
@@ -145,7 +147,7 @@ void seedTangent(const Point& p, const SensitivityInput& input, Tangent& t)
 double poolEEElasticity(const Point& p, const Tangent& t, const Eigen::VectorXd& dQ, std::size_t d)
 {
     const auto dd = static_cast<Eigen::Index>(d);
-    double dConsumption = p.in.diet.row(dd).dot(dQ);
+    double dConsumption = p.dietByPrey.row(dd).dot(dQ);
     if (t.dietPredator)
         for (const auto& [prey, delta] : t.dDiet)
             if (prey == d) dConsumption += p.consumption[static_cast<Eigen::Index>(*t.dietPredator)] * delta;
@@ -252,7 +254,7 @@ void analyticDerivatives(const Model& model, const BalanceSheet& sheet, const Ba
     const BalanceInputs in = BalanceInputs::fromModel(model);
     const std::size_t n = model.size();
     const auto en = static_cast<Eigen::Index>(n);
-    Point p{model, sheet, plan, in, {}, {}, {}, {}, {}, {}, {}, {}, {}};
+    Point p{model, plan, in, {}, {}, {}, {}, {}, {}, {}, {}, {}, in.diet};
     for (Eigen::VectorXd* v : {&p.b, &p.pb, &p.qb, &p.ee, &p.pq, &p.production, &p.consumption,
                                &p.detritusConsumption, &p.detritusInflow})
         v->setZero(en);
@@ -403,9 +405,11 @@ std::string outputName(const Model& model, const SensitivityOutput& output)
 
 std::string inputName(const Model& model, const SensitivityInput& input)
 {
+    // The ensemble names its drawn inputs the same way (core/ensemble), so that PRCC and
+    // elasticities of one input line up.
     std::string name = model.compartment(input.compartment).name + "." + std::string(inputKindKey(input.kind));
     if (input.kind == SensitivityInputKind::Diet)
-        name += "." + (input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name);
+        name += ":" + (input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name);
     return name;
 }
 
@@ -417,7 +421,7 @@ std::vector<SensitivityInput> sensitivityInputs(const Model& model)
         if (!c.isLiving()) continue;
         const bool consumer = c.kind == CompartmentKind::Consumer;
         auto add = [&](SensitivityInputKind kind, const std::optional<double>& v) {
-            if (hasPositiveOrNegative(v)) inputs.push_back({kind, i, 0, *v});
+            if (isGivenAndNonZero(v)) inputs.push_back({kind, i, 0, *v});
         };
         add(SensitivityInputKind::Biomass, c.value(Param::Biomass));
         add(SensitivityInputKind::PB, c.value(Param::PB));

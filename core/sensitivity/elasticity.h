@@ -76,7 +76,7 @@ struct SensitivityOutput {
 
 // "Perch.biomass", "Perch.tl": the output names of the CLI and its JSON.
 std::string outputName(const Model& model, const SensitivityOutput& output);
-// "Perch.pb", "Perch.catch", "Perch.diet.Roach", "Perch.diet.import".
+// "Perch.pb", "Perch.catch", "Perch.diet:Roach", "Perch.diet:import".
 std::string inputName(const Model& model, const SensitivityInput& input);
 
 struct ElasticityOptions {

@@ -5,7 +5,7 @@
 //        "diet_path", "input_count", "output_count",
 //        "outputs": [{"output": "C.param", "compartment", "quantity", "value", "solved",
 //                     "method": "analytic"|"central_difference", "note",
-//                     "elasticities": [{"input": "C.param[.prey]", "compartment",
+//                     "elasticities": [{"input": "C.param" or "C.diet:PREY", "compartment",
 //                                       "parameter", "prey", "value", "elasticity"}]}],
 //        "inputs": [{"input", "compartment", "parameter", "prey", "value"}],
 //        "prcc": null, "notice"}

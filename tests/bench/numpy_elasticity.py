@@ -17,7 +17,7 @@ for every output (B, P/B, Q/B, EE, P/Q and TL of each compartment; EE of each po
 
 Prints JSON: {"inputs": [names], "outputs": [names], "elasticity": [[per input] per
 output], "timing": {"seconds", "solves", "numpy"}}; names as tledger sensitivity writes
-them ("Perch.pb", "Perch.catch", "Perch.diet.Roach", "Perch.diet.import").
+them ("Perch.pb", "Perch.catch", "Perch.diet:Roach", "Perch.diet:import").
 """
 import json
 import math
@@ -54,9 +54,9 @@ def inputs_of(t):
         if len(prey) + (t["diet_import"][i] > 0) < 2:
             continue
         for k in prey:
-            out.append((f"{name}.diet.{names[k]}", ("diet", i, k)))
+            out.append((f"{name}.diet:{names[k]}", ("diet", i, k)))
         if t["diet_import"][i] > 0:
-            out.append((f"{name}.diet.import", ("diet", i, None)))
+            out.append((f"{name}.diet:import", ("diet", i, None)))
     return out
 
 

@@ -67,9 +67,9 @@ TEST(Elasticity, PondWorkedByHand)
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Grazer.pb"), -1.0, tol);
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Grazer.ee"), -1.0, tol);
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Grazer.qb"), 0.0, tol);
-    EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Pike.diet.Grazer"), predation, tol);
-    EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Pike.diet.Algae"), -3.0 / 7.0 * predation, tol);
-    EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Pike.diet.import"), -0.25 * predation, tol);
+    EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Pike.diet:Grazer"), predation, tol);
+    EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Pike.diet:Algae"), -3.0 / 7.0 * predation, tol);
+    EXPECT_NEAR(elasticityOf(m, r, "Grazer.biomass", "Pike.diet:import"), -0.25 * predation, tol);
 
     const double grazing = 15.75 / 17.25;
     EXPECT_NEAR(elasticityOf(m, r, "Algae.ee", "Grazer.qb"), grazing, tol);
@@ -83,9 +83,9 @@ TEST(Elasticity, PondWorkedByHand)
     EXPECT_NEAR(elasticityOf(m, r, "Pike.ee", "Pike.pb"), -1.0, tol);
     EXPECT_NEAR(elasticityOf(m, r, "Pike.ee", "Grazer.catch"), 0.0, tol);
 
-    EXPECT_NEAR(elasticityOf(m, r, "Pike.tl", "Pike.diet.Grazer"), 0.46875 / 2.625, tol);
-    EXPECT_NEAR(elasticityOf(m, r, "Pike.tl", "Pike.diet.import"), 0.0, tol);  // import is renormalised away
-    EXPECT_NEAR(elasticityOf(m, r, "Grazer.tl", "Grazer.diet.Algae"), 0.0, tol);  // both prey at level 1
+    EXPECT_NEAR(elasticityOf(m, r, "Pike.tl", "Pike.diet:Grazer"), 0.46875 / 2.625, tol);
+    EXPECT_NEAR(elasticityOf(m, r, "Pike.tl", "Pike.diet:import"), 0.0, tol);  // import is renormalised away
+    EXPECT_NEAR(elasticityOf(m, r, "Grazer.tl", "Grazer.diet:Algae"), 0.0, tol);  // both prey at level 1
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.pq", "Grazer.pb"), 1.0, tol);
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.pq", "Grazer.qb"), -1.0, tol);
 
