@@ -91,8 +91,10 @@ int cmdSensitivity(const Args& args)
         return 2;
     }
     if (opts->has("--prcc") || opts->value("--draws") || opts->value("--seed")) {
-        // The seam for the ensemble: partialRankCorrelation (core/sensitivity/prcc.h) is
-        // ready for its draws; this command will pass them once core/ensemble exists.
+        // The seam for the ensemble: run it keeping the balanced draws, then
+        //   const PrccTable t = prccTable(kept.inputNames, kept.inputs, kept.outputNames, kept.outputs);
+        //   report.prcc = &t;   // the JSON's "prcc" and the text's PRCC tables
+        // (core/sensitivity/prcc.h, sensitivity_report.h; both tested on their own).
         std::cerr << "tledger sensitivity: --prcc, --draws and --seed (partial rank correlations over an ensemble) "
                      "need the ensemble, which this version does not have yet; local elasticities need neither\n";
         return 2;

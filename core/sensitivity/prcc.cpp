@@ -198,4 +198,14 @@ PrccResult partialRankCorrelation(const Eigen::MatrixXd& allDraws, const Eigen::
     return result;
 }
 
+PrccTable prccTable(const std::vector<std::string>& inputNames, const Eigen::MatrixXd& inputs,
+                    const std::vector<std::string>& outputNames, const Eigen::MatrixXd& outputs)
+{
+    PrccTable table{inputNames, outputNames, {}};
+    table.outputs.reserve(static_cast<std::size_t>(outputs.cols()));
+    for (Eigen::Index o = 0; o < outputs.cols(); ++o)
+        table.outputs.push_back(partialRankCorrelation(inputs, outputs.col(o)));
+    return table;
+}
+
 }  // namespace tl

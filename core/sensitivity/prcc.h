@@ -26,6 +26,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <string>
 #include <vector>
 
 #include <Eigen/Dense>
@@ -60,5 +61,15 @@ Eigen::VectorXd averageRanks(const Eigen::Ref<const Eigen::VectorXd>& values);
 // draws: one row per draw, one column per input; output: one value per draw.
 PrccResult partialRankCorrelation(const Eigen::MatrixXd& draws, const Eigen::VectorXd& output,
                                   const PrccOptions& options = {});
+
+// PRCC of every output column against the input columns of one set of draws, with their
+// names: the form of the ensemble's kept draws (rows = draws, names "C.pb", "C.diet:PREY",
+// "C.ee", ...), which `tledger sensitivity --prcc` will pass here once the ensemble exists.
+struct PrccTable {
+    std::vector<std::string> inputNames, outputNames;
+    std::vector<PrccResult> outputs;  // one per output column
+};
+PrccTable prccTable(const std::vector<std::string>& inputNames, const Eigen::MatrixXd& inputs,
+                    const std::vector<std::string>& outputNames, const Eigen::MatrixXd& outputs);
 
 }  // namespace tl

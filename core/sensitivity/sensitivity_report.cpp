@@ -85,6 +85,54 @@ std::string inputLabel(const Model& model, const SensitivityInput& input)
     return name;
 }
 
+// Input columns of one PRCC result with a defined coefficient, largest magnitude first.
+std::vector<std::size_t> rankedDrivers(const PrccResult& r, std::optional<std::size_t> top)
+{
+    std::vector<std::size_t> order;
+    for (std::size_t k = 0; k < r.note.size(); ++k)
+        if (std::isfinite(r.coefficient[static_cast<Eigen::Index>(k)])) order.push_back(k);
+    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+        return std::abs(r.coefficient[static_cast<Eigen::Index>(a)]) > std::abs(r.coefficient[static_cast<Eigen::Index>(b)]);
+    });
+    if (top && order.size() > *top) order.resize(*top);
+    return order;
+}
+
+void writePrcc(JsonWriter& w, const PrccTable& table, std::optional<std::size_t> top)
+{
+    w.beginObject();
+    w.field("method", "partial rank correlation (Marino et al. 2008), two-sided t test");
+    w.key("outputs").beginArray();
+    for (std::size_t o = 0; o < table.outputs.size(); ++o) {
+        const PrccResult& r = table.outputs[o];
+        w.beginObject();
+        w.field("output", table.outputNames[o]);
+        w.field("draws", r.draws);
+        w.field("degrees_of_freedom", r.degreesOfFreedom);
+        w.key("drivers").beginArray();
+        for (std::size_t k : rankedDrivers(r, top)) {
+            w.beginObject();
+            w.field("input", table.inputNames[k]);
+            w.field("prcc", r.coefficient[static_cast<Eigen::Index>(k)]);
+            w.field("p_value", r.pValue[static_cast<Eigen::Index>(k)]);
+            w.endObject();
+        }
+        w.endArray();
+        w.key("undefined").beginArray();
+        for (std::size_t k = 0; k < r.note.size(); ++k) {
+            if (r.note[k] == PrccNote::Defined) continue;
+            w.beginObject();
+            w.field("input", table.inputNames[k]);
+            w.field("reason", prccNoteKey(r.note[k]));
+            w.endObject();
+        }
+        w.endArray();
+        w.endObject();
+    }
+    w.endArray();
+    w.endObject();
+}
+
 }  // namespace
 
 std::string sensitivityJson(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options)
@@ -135,10 +183,37 @@ std::string sensitivityJson(const Model& model, const ElasticityResult& result, 
         w.endObject();
     }
     w.endArray();
-    w.key("prcc").null();
+    w.key("prcc");
+    if (options.prcc) writePrcc(w, *options.prcc, options.top);
+    else w.null();
     w.field("notice", kDecisionSupportNotice);
     w.endObject();
     return w.str() + "\n";
+}
+
+std::string prccText(const PrccTable& table, std::optional<std::size_t> top)
+{
+    std::string out = "\nPartial rank correlation over the draws (Marino et al. 2008): the monotone effect of each "
+                      "input once the others' are taken out; p from a two-sided t test.\n";
+    for (std::size_t o = 0; o < table.outputs.size(); ++o) {
+        const PrccResult& r = table.outputs[o];
+        out += '\n';
+        out += table.outputNames[o] + " (" + std::to_string(r.draws) + " draws)\n";
+        const std::vector<std::size_t> order = rankedDrivers(r, top);
+        if (order.empty()) {
+            out += "  no input has a defined coefficient\n";
+            continue;
+        }
+        TextTable t;
+        t.addColumn("Input", TextTable::Align::Left);
+        t.addColumn("PRCC");
+        t.addColumn("p");
+        for (std::size_t k : order)
+            t.addRow({table.inputNames[k], displayNumber(r.coefficient[static_cast<Eigen::Index>(k)]),
+                      displayNumber(r.pValue[static_cast<Eigen::Index>(k)])});
+        out += t.render();
+    }
+    return out;
 }
 
 std::string sensitivityText(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options)
@@ -184,6 +259,7 @@ std::string sensitivityText(const Model& model, const ElasticityResult& result, 
             out += " smaller not shown; --top N shows more)\n";
         }
     }
+    if (options.prcc) out += prccText(*options.prcc, options.top);
     out += std::string("\n") + kDecisionSupportNotice + "\n";
     return out;
 }
