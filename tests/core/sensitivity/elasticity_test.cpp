@@ -53,6 +53,11 @@ double elasticityOf(const Model& m, const ElasticityResult& r, const std::string
 //           along DC_GP's path dDC_GP = 0.5, dDC_AP = -0.3 * 0.5 / 0.5 = -0.3, so
 //           dTL = (0.7 * 0.8 - 1.3 * 0.2) / 0.8^2 = 0.46875 and e = 0.46875 / 2.625.
 //   Grazer's P/Q = 5 / 20: +1 to P/B_G, -1 to Q/B_G.
+//   Detritus: EE_D = C / I, C = B_G QB_G 0.3 = 6.75; I = unused production + egestion of all
+//           (one pool) = (2000 - 17.25) + (0.2 * 5.625 + 0.2 * 22.5) + (0.8 * 1 + 0.2 * 5)
+//           = 1990.175. Algae's B moves only I, by B_A P/B_A = 2000 (its demand is fixed): e =
+//           -2000 / I. The Grazer's catch moves B_G by 4/9 (dB_G = 0.5): dC / C = 4/9; dI =
+//           -0.7 * 20 * 0.5 (more algae eaten) + 0.2 * 5 * 0.5 + 0.2 * 20 * 0.5 = -4.5.
 TEST(Elasticity, PondWorkedByHand)
 {
     const Model m = testing::handPond();
@@ -88,6 +93,9 @@ TEST(Elasticity, PondWorkedByHand)
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.tl", "Grazer.diet:Algae"), 0.0, tol);  // both prey at level 1
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.pq", "Grazer.pb"), 1.0, tol);
     EXPECT_NEAR(elasticityOf(m, r, "Grazer.pq", "Grazer.qb"), -1.0, tol);
+    const double inflow = 1990.175;
+    EXPECT_NEAR(elasticityOf(m, r, "Detritus.ee", "Algae.biomass"), -2000.0 / inflow, tol);
+    EXPECT_NEAR(elasticityOf(m, r, "Detritus.ee", "Grazer.catch"), fishing + 4.5 / inflow, tol);
 
     // Every output is analytic here, and the outputs are the ones the brief lists.
     for (const SensitivityOutput& o : r.outputs) EXPECT_EQ(o.method, DerivativeMethod::Analytic);
