@@ -250,6 +250,45 @@ TEST(Elasticity, TooManyElasticitiesAreRefusedWithAReason)
     EXPECT_FALSE(computeElasticities(m, o).tooLarge);
 }
 
+// Damaged inputs (values removed, zeroed, negated, diets cut to one entry) never crash the
+// computation: either a reason and no numbers, or a matrix of the listed size.
+TEST(Elasticity, DamagedWebsGiveAReasonOrAFullMatrix)
+{
+    int refused = 0, computed = 0;
+    for (std::uint32_t seed = 100; seed < 300; ++seed) {
+        Model m = testing::randomSquareWeb(seed, 3 + seed % 7);
+        std::mt19937 rng(seed);
+        for (int damage = 0; damage < 3; ++damage) {
+            const std::size_t i = rng() % m.size();
+            Compartment& c = m.compartment(i);
+            const Param p = kAllParams[rng() % 5];
+            switch (rng() % 4) {
+            case 0: c.value(p).reset(); break;
+            case 1: c.value(p) = 0.0; break;
+            case 2: c.value(p) = -c.valueOr(p, 1.0); break;
+            default:
+                if (!m.dietRow(i).empty()) {
+                    const std::size_t keep = m.dietRow(i).front().col;
+                    for (const GridEntry e : std::vector<GridEntry>(m.dietRow(i).begin(), m.dietRow(i).end()))
+                        m.setDiet(i, e.col, e.col == keep ? 1.0 : 0.0);
+                    m.setDietImport(i, 0.0);
+                }
+            }
+        }
+        const ElasticityResult r = computeElasticities(m);
+        if (!r.error.empty()) {
+            ++refused;
+            EXPECT_EQ(r.elasticity.size(), 0) << seed;
+            continue;
+        }
+        ++computed;
+        EXPECT_EQ(r.elasticity.rows(), static_cast<Eigen::Index>(r.outputs.size())) << seed;
+        EXPECT_EQ(r.elasticity.cols(), static_cast<Eigen::Index>(r.inputs.size())) << seed;
+    }
+    EXPECT_GT(refused, 10);
+    EXPECT_GT(computed, 10);
+}
+
 TEST(Elasticity, OutputNamesParse)
 {
     EXPECT_EQ(parseOutputKind("b"), SensitivityOutputKind::Biomass);
