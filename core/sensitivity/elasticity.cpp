@@ -44,6 +44,9 @@ struct Point {
 // Derivatives of the completed values along one input's path, per unit of ln(input).
 struct Tangent {
     Eigen::VectorXd dB, dPB, dQB, dEE, dY, dDeadDiscards;
+    Eigen::VectorXd dDemand;  // E + BA: demand on a compartment's production besides predation and catch
+    Eigen::VectorXd dU;       // unassimilated fraction (egestion goes to detritus)
+    Eigen::VectorXd dImport;  // a pool's external import
     // A diet path: the predator and the change of each of its modelled prey entries (the
     // import share enters no equation; TL leaves it out).
     std::optional<std::size_t> dietPredator;
@@ -52,12 +55,13 @@ struct Tangent {
 
     explicit Tangent(Eigen::Index n)
         : dB(Eigen::VectorXd::Zero(n)), dPB(Eigen::VectorXd::Zero(n)), dQB(Eigen::VectorXd::Zero(n)),
-          dEE(Eigen::VectorXd::Zero(n)), dY(Eigen::VectorXd::Zero(n)), dDeadDiscards(Eigen::VectorXd::Zero(n))
+          dEE(Eigen::VectorXd::Zero(n)), dY(Eigen::VectorXd::Zero(n)), dDeadDiscards(Eigen::VectorXd::Zero(n)),
+          dDemand(Eigen::VectorXd::Zero(n)), dU(Eigen::VectorXd::Zero(n)), dImport(Eigen::VectorXd::Zero(n))
     {
     }
     void clear()
     {
-        for (Eigen::VectorXd* v : {&dB, &dPB, &dQB, &dEE, &dY, &dDeadDiscards}) v->setZero();
+        for (Eigen::VectorXd* v : {&dB, &dPB, &dQB, &dEE, &dY, &dDeadDiscards, &dDemand, &dU, &dImport}) v->setZero();
         dietPredator.reset();
         dDiet.clear();
         movesImportOnly = false;
@@ -75,7 +79,7 @@ Eigen::VectorXd residualTangent(const Point& p, const Tangent& t)
 {
     const Eigen::VectorXd dQ = consumptionTangent(p, t);
     Eigen::VectorXd dG = (t.dB.cwiseProduct(p.pb) + p.b.cwiseProduct(t.dPB)).cwiseProduct(p.ee) +
-                         p.production.cwiseProduct(t.dEE) - t.dY;
+                         p.production.cwiseProduct(t.dEE) - t.dY - t.dDemand;
     dG.noalias() -= p.in.diet * dQ;
     if (t.dietPredator) {
         const auto j = static_cast<Eigen::Index>(*t.dietPredator);
@@ -127,6 +131,10 @@ void seedTangent(const Point& p, const SensitivityInput& input, Tangent& t)
         t.dY[ii] = p.in.catchTotal[ii];
         t.dDeadDiscards[ii] = p.in.deadDiscards[ii];
         break;
+    case SensitivityInputKind::Unassim: t.dU[ii] = input.value; break;
+    case SensitivityInputKind::NetEmigration:
+    case SensitivityInputKind::BiomassAccum: t.dDemand[ii] = input.value; break;
+    case SensitivityInputKind::DetritusImport: t.dImport[ii] = input.value; break;
     case SensitivityInputKind::Diet: {
         // The simplex path of elasticity.h: d DC_k = DC_k, d DC_l = -DC_l DC_k / (S - DC_k).
         const std::size_t j = i;
@@ -151,11 +159,12 @@ double poolEEElasticity(const Point& p, const Tangent& t, const Eigen::VectorXd&
     if (t.dietPredator)
         for (const auto& [prey, delta] : t.dDiet)
             if (prey == d) dConsumption += p.consumption[static_cast<Eigen::Index>(*t.dietPredator)] * delta;
-    double dInflow = 0.0;
+    double dInflow = t.dImport[dd];
     for (SparseColumns::InnerIterator it(p.in.routing, dd); it; ++it) {
         const Eigen::Index i = it.index();
         const double dP = t.dB[i] * p.pb[i] + p.b[i] * t.dPB[i];
-        dInflow += it.value() * (-t.dEE[i] * p.production[i] + (1.0 - p.ee[i]) * dP + p.in.unassim[i] * dQ[i]);
+        dInflow += it.value() * (-t.dEE[i] * p.production[i] + (1.0 - p.ee[i]) * dP + p.in.unassim[i] * dQ[i] +
+                                 t.dU[i] * p.consumption[i]);
     }
     for (SparseColumns::InnerIterator it(p.in.discardsToPool, dd); it; ++it)
         if (p.in.deadDiscards[it.index()] != 0.0)
@@ -367,6 +376,10 @@ std::string_view inputKindKey(SensitivityInputKind k)
     case SensitivityInputKind::PQ: return "pq";
     case SensitivityInputKind::Catch: return "catch";
     case SensitivityInputKind::Diet: return "diet";
+    case SensitivityInputKind::Unassim: return paramKey(Param::Unassim);
+    case SensitivityInputKind::NetEmigration: return paramKey(Param::NetEmigration);
+    case SensitivityInputKind::BiomassAccum: return paramKey(Param::BiomassAccum);
+    case SensitivityInputKind::DetritusImport: return paramKey(Param::DetritusImport);
     }
     return "";
 }
@@ -418,17 +431,23 @@ std::vector<SensitivityInput> sensitivityInputs(const Model& model)
     std::vector<SensitivityInput> inputs;
     for (std::size_t i = 0; i < model.size(); ++i) {
         const Compartment& c = model.compartment(i);
-        if (!c.isLiving()) continue;
-        const bool consumer = c.kind == CompartmentKind::Consumer;
         auto add = [&](SensitivityInputKind kind, const std::optional<double>& v) {
             if (isGivenAndNonZero(v)) inputs.push_back({kind, i, 0, *v});
         };
+        if (!c.isLiving()) {
+            add(SensitivityInputKind::DetritusImport, c.value(Param::DetritusImport));
+            continue;
+        }
+        const bool consumer = c.kind == CompartmentKind::Consumer;
         add(SensitivityInputKind::Biomass, c.value(Param::Biomass));
         add(SensitivityInputKind::PB, c.value(Param::PB));
         if (consumer) add(SensitivityInputKind::QB, c.value(Param::QB));
         add(SensitivityInputKind::EE, c.value(Param::EE));
         if (pqIsUsed(c)) add(SensitivityInputKind::PQ, c.value(Param::PQ));
         add(SensitivityInputKind::Catch, model.totalCatch(i));
+        if (consumer) add(SensitivityInputKind::Unassim, c.value(Param::Unassim));
+        add(SensitivityInputKind::NetEmigration, c.value(Param::NetEmigration));
+        add(SensitivityInputKind::BiomassAccum, c.value(Param::BiomassAccum));
         if (!consumer) continue;
         std::size_t entries = model.dietImport(i) > 0.0 ? 1 : 0;
         for (const auto& e : model.dietRow(i)) entries += e.value > 0.0;
@@ -501,6 +520,10 @@ Model perturbedModel(const Model& model, const SensitivityInput& input, double l
     case SensitivityInputKind::QB: scale(Param::QB); break;
     case SensitivityInputKind::EE: scale(Param::EE); break;
     case SensitivityInputKind::PQ: scale(Param::PQ); break;
+    case SensitivityInputKind::Unassim: scale(Param::Unassim); break;
+    case SensitivityInputKind::NetEmigration: scale(Param::NetEmigration); break;
+    case SensitivityInputKind::BiomassAccum: scale(Param::BiomassAccum); break;
+    case SensitivityInputKind::DetritusImport: scale(Param::DetritusImport); break;
     case SensitivityInputKind::Catch:
         for (std::size_t f = 0; f < m.fleets().size(); ++f) {
             m.fleet(f).landings[i] *= factor;

@@ -4,9 +4,10 @@
 // about e %).
 //
 // Inputs (each only where the scenario gives it and it is not 0):
-//   B, P/B, Q/B, EE of living compartments; P/Q where it stands in for P/B or Q/B or
-//   ties them; a compartment's total catch (every fleet's landings and discards of it
-//   scaled together); every non-zero diet share, import included. A diet row must stay
+//   B, P/B, Q/B, EE, U, net emigration E and biomass accumulation BA of living
+//   compartments; P/Q where it stands in for P/B or Q/B or ties them; a compartment's
+//   total catch (every fleet's landings and discards of it scaled together); a detritus
+//   pool's import; every non-zero diet share, import included. A diet row must stay
 //   on its simplex, so a diet entry moves along
 //       DC_k(t) = DC_k e^t,   DC_l(t) = DC_l (S - DC_k e^t) / (S - DC_k)   (l != k),
 //   S the row sum: the other entries of the row, import included, give up the change
@@ -45,8 +46,12 @@
 
 namespace tl {
 
-enum class SensitivityInputKind { Biomass, PB, QB, EE, PQ, Catch, Diet };
-std::string_view inputKindKey(SensitivityInputKind k);  // "biomass", "pb", "qb", "ee", "pq", "catch", "diet"
+enum class SensitivityInputKind {
+    Biomass, PB, QB, EE, PQ, Catch, Diet, Unassim, NetEmigration, BiomassAccum, DetritusImport
+};
+// "biomass", "pb", "qb", "ee", "pq", "catch", "diet", and the CSV keys "unassim",
+// "net_emigration", "biomass_accum", "detritus_import".
+std::string_view inputKindKey(SensitivityInputKind k);
 
 // Prey index of a diet input that is the `import` column.
 inline constexpr std::size_t kImportPrey = std::numeric_limits<std::size_t>::max();

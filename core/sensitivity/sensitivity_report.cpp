@@ -78,6 +78,10 @@ std::string inputLabel(const Model& model, const SensitivityInput& input)
     case SensitivityInputKind::EE: return "EE of " + name;
     case SensitivityInputKind::PQ: return "P/Q of " + name;
     case SensitivityInputKind::Catch: return "catch of " + name;
+    case SensitivityInputKind::Unassim: return "U of " + name;
+    case SensitivityInputKind::NetEmigration: return "net emigration of " + name;
+    case SensitivityInputKind::BiomassAccum: return "BA of " + name;
+    case SensitivityInputKind::DetritusImport: return "import into " + name;
     case SensitivityInputKind::Diet:
         return (input.prey == kImportPrey ? std::string("import") : model.compartment(input.prey).name) +
                " in the diet of " + name;

@@ -2,8 +2,9 @@
 """Local elasticities of a CSV model folder by central differences in NumPy: the reference
 side of sensitivity_bench (issue 15), in speed and in value.
 
-Each input (given, non-zero B, P/B, Q/B, EE of a living compartment; P/Q where it stands
-in for P/B or Q/B; a compartment's catch, landings and dead discards scaled together; each
+Each input (given, non-zero B, P/B, Q/B, EE, E, BA of a living compartment and U of a
+consumer; P/Q where it stands in for P/B or Q/B; a pool's import; a compartment's catch,
+landings and dead discards scaled together; each
 non-zero diet share of a predator with two or more, moved on its simplex: the others,
 import included, give up the change in proportion to their shares) is moved to
 value * exp(+-h); each side is a full solve by numpy_balance.solve (an independent dense
@@ -37,6 +38,8 @@ def inputs_of(t):
     out = []
     for i, name in enumerate(names):
         if kinds[i] == "detritus":
+            if v["detritus_import"][i] not in (None, 0.0):
+                out.append((f"{name}.detritus_import", ("value", "detritus_import", i)))
             continue
         consumer = kinds[i] == "consumer"
         for key in ("biomass", "pb", "qb", "ee"):
@@ -48,6 +51,9 @@ def inputs_of(t):
             out.append((f"{name}.pq", ("value", "pq", i)))
         if y[i] > 0:
             out.append((f"{name}.catch", ("catch", i)))
+        for key in (("unassim",) if consumer else ()) + ("net_emigration", "biomass_accum"):
+            if v[key][i] not in (None, 0.0):
+                out.append((f"{name}.{key}", ("value", key, i)))
         if not consumer:
             continue
         prey = [k for k in range(len(names)) if dc[k, i] > 0]

@@ -2,6 +2,7 @@
 // derivatives against central differences on random webs of every unknown type, the
 // diet path on its simplex, and the central-difference fallback of an over-determined
 // system.
+#include <array>
 #include <cmath>
 
 #include <gtest/gtest.h>
@@ -136,6 +137,7 @@ TEST(Elasticity, PondAnalyticMatchesCentralDifferences) { expectAnalyticMatchesC
 TEST(Elasticity, AnalyticMatchesCentralDifferencesOnRandomWebs)
 {
     int unknownKinds[6] = {};
+    std::array<int, 11> inputKinds{};  // per SensitivityInputKind
     for (std::uint32_t seed = 1; seed <= 40; ++seed) {
         const Model m = testing::randomSquareWeb(seed, 4 + seed % 9);
         const BalanceSheet sheet = solveBalance(m);
@@ -148,8 +150,11 @@ TEST(Elasticity, AnalyticMatchesCentralDifferencesOnRandomWebs)
             else if (row.solved.contains(Param::QB)) ++unknownKinds[3];
             if (row.solved.contains(Param::EE) && isLiving(row.kind)) ++unknownKinds[4];
         }
+        for (const SensitivityInput& input : sensitivityInputs(m)) ++inputKinds[static_cast<std::size_t>(input.kind)];
         expectAnalyticMatchesCentral(m, "seed " + std::to_string(seed));
     }
+    // ... and every kind of input.
+    for (std::size_t k = 0; k < inputKinds.size(); ++k) EXPECT_GT(inputKinds[k], 5) << "input kind " << k;
     // The webs did exercise every kind of unknown (B, tied P/B and Q/B, P/B, Q/B from P/Q, EE).
     for (int k = 0; k < 5; ++k) EXPECT_GT(unknownKinds[k], 5) << "unknown kind " << k;
 }

@@ -36,7 +36,8 @@ inline Model handPond()
 // A consistent random web: every value drawn, EE computed so each equation closes, then
 // exactly one value per living compartment left unknown (EE, B, P/B, or P/B and Q/B tied
 // by a given P/Q), some Q/B or P/B given through P/Q, cannibalism, import, catches with
-// discards, two detritus pools with routing. One unknown each keeps the system square.
+// discards, net emigration and biomass accumulation, given U, two detritus pools with
+// routing and an import. One unknown each keeps the system square.
 inline Model randomSquareWeb(std::uint32_t seed, std::size_t consumers)
 {
     std::mt19937 rng(seed);
@@ -96,7 +97,11 @@ inline Model randomSquareWeb(std::uint32_t seed, std::size_t consumers)
     for (std::size_t i = 0; i < 2 + consumers; ++i) {
         Compartment& c = m.compartment(i);
         const double production = *c.value(Param::Biomass) * *c.value(Param::PB);
-        double demand = m.totalCatch(i), self = 0.0;
+        // Net emigration (negative: immigration) and biomass accumulation on some.
+        if (chance(0.25)) c.value(Param::NetEmigration) = uniform(-0.05, 0.1) * production;
+        if (chance(0.25)) c.value(Param::BiomassAccum) = uniform(-0.05, 0.05) * production;
+        double demand = m.totalCatch(i) + c.valueOr(Param::NetEmigration, 0.0) + c.valueOr(Param::BiomassAccum, 0.0);
+        double self = 0.0;
         for (std::size_t j = 2; j < 2 + consumers; ++j) {
             const double eaten = *m.compartment(j).value(Param::Biomass) * *m.compartment(j).value(Param::QB) * m.diet(j, i);
             (j == i ? self : demand) += eaten;
