@@ -28,6 +28,9 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                a least-violating change exists.
             [--impact-matrix]                  with --json: the impact matrix above 200 compartments too
                                                (it grows as n x n: 45 MB of JSON at 1 000)
+  compare   PROJECT --scenarios A,B[,C...] [--json]
+                                               inputs that differ and every output side by side,
+                                               with differences against the first scenario named
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
@@ -48,6 +51,7 @@ int main(int argc, char** argv)
     const std::map<std::string, Command> commands = {
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
+        {"compare", tl::cli::cmdCompare},
     };
     if (argc < 2) {
         std::cerr << kUsage;
