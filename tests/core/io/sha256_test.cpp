@@ -51,7 +51,7 @@ TEST(Sha256, PaddingBoundariesAgreeWithPythonHashlib)
     const testing::ScratchDir dir("sha256");
     for (std::size_t n : {55u, 56u, 63u, 64u, 65u, 119u, 120u, 1000u}) {
         const std::string text(n, static_cast<char>('a' + n % 26));
-        const auto path = dir / ("m" + std::to_string(n));
+        const auto path = dir / std::string("m").append(std::to_string(n));
         testing::writeText(path, text);
         EXPECT_EQ(sha256Hex(text), pythonSha256(path.string())) << n;
     }
