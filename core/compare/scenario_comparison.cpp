@@ -196,6 +196,14 @@ std::vector<InputDifference> compareInputs(const std::vector<const Scenario*>& s
                 discards.push_back(entry(fleet ? fleet->discards : std::vector<double>{}));
                 survival.push_back(entry(fleet ? fleet->discardSurvival : std::vector<double>{}));
             }
+            // Where the fleet is absent and takes nothing of this compartment where it is
+            // present, the fleet's own row (below) says all there is.
+            const auto nothingTaken = [](const std::vector<std::optional<double>>& v) {
+                return std::all_of(v.begin(), v.end(), [](const auto& x) { return !x || *x == 0.0; });
+            };
+            if (nothingTaken(landings)) landings.assign(n, 0.0);
+            if (nothingTaken(discards)) discards.assign(n, 0.0);
+            if (nothingTaken(survival)) survival.assign(n, 0.0);
             const std::string& fleetName = fleets.names[f];
             addNumericRow(out, name, "landings:" + fleetName, "Landings by " + fleetName, std::move(landings));
             addNumericRow(out, name, "discards:" + fleetName, "Discards by " + fleetName, std::move(discards));
