@@ -32,7 +32,10 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                inputs that differ and every output side by side,
                                                with differences against the first scenario named
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
-  export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
+  export    MODEL --scenario NAME --format csv|scor|json|html|pdf --out PATH
+            PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH
+                                               html/pdf: the report (every scenario, the one named,
+                                               or a comparison), charts included, with provenance
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
 
 MODEL is a CSV model folder (compartments.csv, diet.csv, ...) or a .tledger project.
