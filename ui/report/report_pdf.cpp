@@ -30,19 +30,6 @@ void ensureGuiApplication()
     new QGuiApplication(argc, argv);
 }
 
-// Replaces each figure marker paragraph's text by one SVG object character.
-void placeFigures(QTextDocument& doc, const tl::HtmlReport& report)
-{
-    for (std::size_t k = 0; k < report.figures.size(); ++k) {
-        if (report.figures[k].svg.empty()) continue;
-        QTextCursor at = doc.find(QString::fromStdString(tl::figureMarker(k)));
-        if (at.isNull()) continue;
-        at.insertText(QString(QChar::ObjectReplacementCharacter),
-                      SvgTextObject::format(QByteArray::fromStdString(report.figures[k].svg),
-                                            QSizeF(report.figures[k].width, report.figures[k].height)));
-    }
-}
-
 }  // namespace
 
 std::string writeReportPdf(const tl::HtmlReport& report, const std::string& path)
@@ -67,7 +54,7 @@ std::string writeReportPdf(const tl::HtmlReport& report, const std::string& path
         font.setStyleStrategy(QFont::PreferNoShaping);  // no ligatures: the PDF's text reads and searches as typed
         doc.setDefaultFont(font);
         doc.setHtml(QString::fromStdString(report.html));
-        placeFigures(doc, report);
+        placeReportFigures(doc, report);
 
         const QSizeF page(writer.width(), writer.height());
         const double footer = 22;  // room for the page number under the text

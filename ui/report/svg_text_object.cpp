@@ -2,6 +2,10 @@
 
 #include <QPainter>
 #include <QSvgRenderer>
+#include <QTextCursor>
+#include <QTextDocument>
+
+#include "core/io/html_report.h"
 
 namespace tl::ui {
 namespace {
@@ -30,6 +34,18 @@ void SvgTextObject::drawObject(QPainter* painter, const QRectF& rect, QTextDocum
 {
     QSvgRenderer renderer(format.property(kSvgData).toByteArray());
     if (renderer.isValid()) renderer.render(painter, rect);
+}
+
+void placeReportFigures(QTextDocument& doc, const tl::HtmlReport& report)
+{
+    for (std::size_t k = 0; k < report.figures.size(); ++k) {
+        if (report.figures[k].svg.empty()) continue;
+        QTextCursor at = doc.find(QString::fromStdString(tl::figureMarker(k)));
+        if (at.isNull()) continue;
+        at.insertText(QString(QChar::ObjectReplacementCharacter),
+                      SvgTextObject::format(QByteArray::fromStdString(report.figures[k].svg),
+                                            QSizeF(report.figures[k].width, report.figures[k].height)));
+    }
 }
 
 }  // namespace tl::ui

@@ -8,6 +8,12 @@
 #include <QTextCharFormat>
 #include <QTextObjectInterface>
 
+namespace tl {
+struct HtmlReport;
+}
+
+class QTextDocument;
+
 namespace tl::ui {
 
 class SvgTextObject : public QObject, public QTextObjectInterface {
@@ -31,5 +37,10 @@ public:
 private:
     QSizeF maximum_{680, 900};
 };
+
+// Replaces each figure marker of `report` (made with ReportOptions::figureMarkers) in
+// `doc`, laid out from report.html, by an SVG object; `doc`'s layout needs an
+// SvgTextObject registered for SvgTextObject::kType.
+void placeReportFigures(QTextDocument& doc, const tl::HtmlReport& report);
 
 }  // namespace tl::ui
