@@ -1,6 +1,10 @@
 #include "ui/compare/compare_page.h"
 
+#include <QApplication>
 #include <QCheckBox>
+#include <QFutureWatcher>
+#include <QThread>
+#include <QtConcurrent/QtConcurrentRun>
 #include <QComboBox>
 #include <QHBoxLayout>
 #include <QHeaderView>
@@ -173,23 +177,64 @@ void ComparePage::recompute()
     for (const QString& n : picked()) names.push_back(n.toStdString());
     std::string error;
     const auto scenarios = tl::pickScenarios(project_, names, error);
+    const quint64 generation = ++generation_;
+    if (scenarios.empty()) {
+        install(nullptr);
+        summary_->setText(project_.scenarios.size() < 2
+                              ? tr("A comparison needs two scenarios: duplicate this one on the Scenarios shelf and change the copy.")
+                              : tr("Tick at least one scenario to set beside the reference."));
+        return;
+    }
+    std::size_t size = 0;
+    for (const tl::Scenario* s : scenarios) size += s->model.size();
+    if (size <= inlineLimit_) {
+        install(std::make_unique<tl::ScenarioComparison>(tl::compareScenarios(scenarios)));
+        return;
+    }
+    // In the background, on copies (the project may change meanwhile); a late result of an
+    // older pick is dropped.
+    install(nullptr);
+    summary_->setText(tr("Comparing %1 scenarios (%2 compartments in all)…").arg(scenarios.size()).arg(size));
+    auto copies = std::make_shared<std::vector<tl::Scenario>>();
+    for (const tl::Scenario* s : scenarios) copies->push_back(*s);
+    auto* watcher = new QFutureWatcher<std::shared_ptr<tl::ScenarioComparison>>(this);
+    ++running_;
+    connect(watcher, &QFutureWatcherBase::finished, this, [this, watcher, generation] {
+        --running_;
+        auto result = watcher->result();
+        watcher->deleteLater();
+        if (generation == generation_) install(std::make_unique<tl::ScenarioComparison>(std::move(*result)));
+    });
+    watcher->setFuture(QtConcurrent::run([copies] {
+        std::vector<const tl::Scenario*> pointers;
+        for (const tl::Scenario& s : *copies) pointers.push_back(&s);
+        return std::make_shared<tl::ScenarioComparison>(tl::compareScenarios(pointers));
+    }));
+}
+
+void ComparePage::waitForIdle()
+{
+    while (running_ > 0) {
+        QApplication::processEvents(QEventLoop::AllEvents, 20);
+        QThread::msleep(5);
+    }
+}
+
+void ComparePage::install(std::unique_ptr<tl::ScenarioComparison> comparison)
+{
     inputs_->setComparison(nullptr);
     outputs_->setComparison(nullptr);
-    comparison_.reset();
+    comparison_ = std::move(comparison);
     while (QLayoutItem* item = changesLayout_->takeAt(0)) {
         delete item->widget();
         delete item;
     }
-    if (scenarios.empty()) {
-        summary_->setText(project_.scenarios.size() < 2
-                              ? tr("A comparison needs two scenarios: duplicate this one on the Scenarios shelf and change the copy.")
-                              : tr("Tick at least one scenario to set beside the reference."));
+    if (!comparison_) {
         levelBars_->setFigure({});
         tabs_->setTabText(0, tr("Changed inputs"));
         tabs_->setTabText(1, tr("Outputs"));
         return;
     }
-    comparison_ = std::make_unique<tl::ScenarioComparison>(tl::compareScenarios(scenarios));
     const tl::ScenarioComparison& c = *comparison_;
     inputs_->setComparison(&c);
     outputs_->setComparison(&c);

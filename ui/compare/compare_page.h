@@ -42,6 +42,11 @@ public:
     void pick(const QStringList& scenarios);
     QStringList picked() const;
     const tl::ScenarioComparison* comparison() const { return comparison_.get(); }
+    // Comparisons of more than this many compartments in all run off the GUI thread
+    // (two network analyses of 1000 compartments take seconds; tests use 0).
+    void setInlineLimit(std::size_t compartments) { inlineLimit_ = compartments; }
+    bool busy() const { return running_ > 0; }
+    void waitForIdle();  // tests: until no comparison is running
 
     QTableView* inputsView() const { return inputsView_; }
     QTableView* outputsView() const { return outputsView_; }
@@ -54,6 +59,7 @@ signals:
 
 private:
     void recompute();
+    void install(std::unique_ptr<tl::ScenarioComparison> comparison);
     void activateInput(const QModelIndex& index);
     void activateOutput(const QModelIndex& index);
     QString scenarioFor(int scenarioIndex) const;
@@ -72,6 +78,9 @@ private:
     SvgChartView* levelBars_;
     QVBoxLayout* changesLayout_;
     bool updating_ = false;
+    std::size_t inlineLimit_ = 160;
+    quint64 generation_ = 0;  // only the newest comparison is shown
+    int running_ = 0;
 };
 
 }  // namespace tl::ui
