@@ -222,6 +222,10 @@ SvgFigure flowMapSvg(const NetworkAnalysis& a)
     if (!a.available()) return nothingToDraw(title, "No flow map: the scenario has no flow network.");
     const FlowNetwork& net = a.network;
     const std::size_t n = net.size();
+    if (n > kFlowMapSvgLimit)
+        return nothingToDraw(title, "The flow map of " + std::to_string(n) + " compartments is not legible on a page (up to " +
+                                        std::to_string(kFlowMapSvgLimit) +
+                                        " are drawn here); the workbench's Flow map zooms and hides small flows.");
     double maxTl = 1.0, maxB = 0.0;
     for (std::size_t i = 0; i < n; ++i) {
         if (std::isfinite(a.tl[i])) maxTl = std::max(maxTl, a.tl[i]);

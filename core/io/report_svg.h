@@ -34,7 +34,9 @@ SvgFigure levelBarsSvg(const NetworkAnalysis& analysis);
 
 // Flow map: trophic level left to right, boxes whose area follows biomass, feeding flows
 // as curved ribbons whose width follows the log of the flow, detritus pools on a lane
-// along the bottom.
+// along the bottom. Up to kFlowMapSvgLimit compartments (more would not be legible on a
+// page; the workbench's flow map zooms).
+inline constexpr std::size_t kFlowMapSvgLimit = 60;
 SvgFigure flowMapSvg(const NetworkAnalysis& analysis);
 
 // Impact matrix (mixed trophic impact, Ulanowicz & Puccia 1990): row acts on column,

@@ -135,6 +135,31 @@ TEST(HtmlReport, ComparisonListsWhatDiffers)
     EXPECT_NE(bad.error.find("no scenario named 'no such'"), std::string::npos) << bad.error;
 }
 
+// A web too large for a legible page keeps its level bars; the flow map and impact matrix
+// say why they are left out (invented chain of 70 consumers on one producer).
+TEST(HtmlReport, LargeWebsSayWhyAFigureIsLeftOut)
+{
+    Project project;
+    project.info.title = "chain";
+    Scenario s;
+    s.name = "long chain";
+    s.model.addCompartment(testing::makeCompartment("algae", CompartmentKind::Producer, 100.0, 50.0));
+    s.model.addCompartment(testing::makeCompartment("detritus", CompartmentKind::Detritus));
+    for (int k = 0; k < 70; ++k) {
+        const std::size_t i = s.model.addCompartment(
+            testing::makeCompartment("grazer " + std::to_string(k), CompartmentKind::Consumer, 0.5, 2.0, 10.0));
+        s.model.setDiet(i, 0, 1.0);
+    }
+    project.scenarios.push_back(s);
+    const HtmlReport report = makeHtmlReport(project, {});
+    ASSERT_EQ(report.figures.size(), 3u);
+    EXPECT_FALSE(report.figures[0].svg.empty()) << "level bars";
+    EXPECT_TRUE(report.figures[1].svg.empty());
+    EXPECT_NE(report.figures[1].caption.find("72 compartments is not legible"), std::string::npos) << report.figures[1].caption;
+    EXPECT_TRUE(report.figures[2].svg.empty());
+    EXPECT_NE(report.html.find(xmlEscape(report.figures[2].caption)), std::string::npos) << "the reason is in the report";
+}
+
 TEST(HtmlReport, OneScenarioAndFigureMarkers)
 {
     const Project project = sample("reservoir.tledger");
