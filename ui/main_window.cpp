@@ -305,21 +305,22 @@ void MainWindow::openComparedCell(const QString& scenario, const QString& compar
     const auto& scenarios = doc_->project().scenarios;
     for (std::size_t s = 0; s < scenarios.size(); ++s)
         if (tl::sameName(scenarios[s].name, scenario.toStdString()) && int(s) != doc_->currentIndex()) doc_->setCurrentIndex(int(s));
-    const auto row = doc_->model().indexOf(compartment.toStdString());
-    const QString kind = item.section(QLatin1Char(':'), 0, 0);
-    if (kind == QStringLiteral("diet")) {
-        showPage(QStringLiteral("diet"));
+    // The cell is found as the Checks panel finds a problem's cell (goToProblem).
+    tl::Problem where;
+    where.compartment = compartment.toStdString();
+    const QString kind = item.section(QLatin1Char(':'), 0, 0), name = item.section(QLatin1Char(':'), 1);
+    if (kind == QStringLiteral("diet") || kind == QStringLiteral("routing")) {
+        where.parameter = kind.toStdString();
+        if (name != QStringLiteral("import")) where.prey = name.toStdString();
     } else if (kind == QStringLiteral("landings") || kind == QStringLiteral("discards") ||
                kind == QStringLiteral("discard_survival") || kind == QStringLiteral("fleet") ||
                kind == QStringLiteral("discard_pool")) {
-        showPage(QStringLiteral("harvest"));
-    } else if (kind == QStringLiteral("routing")) {
-        showPage(QStringLiteral("routing"));
+        where.parameter = "harvest";
+        where.fleet = name.toStdString();
     } else {
-        showPage(QStringLiteral("compartments"));
-        const auto param = tl::parseParamKey(item.toStdString());
-        if (row) compartments_->view()->goToCell(int(*row), param ? CompartmentTableModel::columnOf(*param) : CompartmentTableModel::kNameColumn);
+        where.parameter = item.toStdString();  // a parameter key opens its column, anything else the name
     }
+    if (!goToProblem(where)) showPage(QStringLiteral("compartments"));
     message(tr("Scenario '%1', %2: %3").arg(scenario, compartment.isEmpty() ? tr("harvest") : compartment, item));
 }
 

@@ -358,9 +358,9 @@ int cmdExport(const Args& args)
         return 2;
     }
     const fs::path model = opts->positional[0];
-    // A report of named scenarios picks them itself (and names a wrong one with the others).
-    const bool report = *format == "html" || pdfReport;
-    const auto project = loadProject(model, report ? std::nullopt : opts->value("--scenario"));
+    // A comparison picks its scenarios itself (and names a wrong one with the others);
+    // --scenario keeps the MODEL rule (a CSV folder's scenario takes that name).
+    const auto project = loadProject(model, opts->value("--scenarios") ? std::nullopt : opts->value("--scenario"));
     if (!project) return 2;
 
     int code = 2;

@@ -320,13 +320,6 @@ constexpr SystemQuantity kSystemQuantities[] = {
      [](const NetworkAnalysis& a) { return a.levels.detritusInflowConsumed; }},
 };
 
-std::string roman(int level)
-{
-    static const char* names[] = {"I", "II", "III", "IV", "V", "VI", "VII", "VIII", "IX", "X",
-                                  "XI", "XII", "XIII", "XIV", "XV", "XVI", "XVII", "XVIII", "XIX", "XX"};
-    return level >= 1 && level <= 20 ? names[level - 1] : std::to_string(level);
-}
-
 void fillDifferences(ComparedOutput& o)
 {
     const double ref = o.values.front();
@@ -429,7 +422,7 @@ ScenarioComparison compareScenarios(const std::vector<const Scenario*>& scenario
             if (k == 1 && std::string_view(q.key) == "te") continue;  // not defined at level I
             ComparedOutput o;
             o.group = OutputGroup::Level;
-            o.subject = roman(k);
+            o.subject = levelName(k);
             o.quantity = q.key;
             o.label = q.label;
             o.unit = unitText(q.unit, c.units);

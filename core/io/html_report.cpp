@@ -143,10 +143,9 @@ void levelTable(Writer& w, const NetworkAnalysis& a)
     w.add("<tr><th>Level</th><th>Throughput (" + html(a.flowUnit()) + ")</th><th>Biomass (" + html(a.stockUnit()) +
           ")</th><th>Production (" + html(a.flowUnit()) + ")</th><th>Catch (" + html(a.flowUnit()) +
           ")</th><th>TE (%)</th></tr>\n");
-    static const char* roman[] = {"I", "II", "III", "IV", "V", "VI", "VII", "VIII", "IX", "X"};
     for (const TrophicLevelBin& bin : a.levels.combined.levels) {
-        if (bin.level > 10) break;
-        w.add("<tr>" + textCell(roman[bin.level - 1]) + cell(bin.throughput) + cell(bin.biomass) + cell(bin.production) +
+        if (bin.level > 12) break;  // deeper levels of long chains hold next to nothing
+        w.add("<tr>" + textCell(levelName(bin.level)) + cell(bin.throughput) + cell(bin.biomass) + cell(bin.production) +
               cell(bin.catchTotal) + (bin.level == 1 ? textCell("not defined") : cell(100 * bin.te)) + "</tr>\n");
     }
     w.add("</table>\n<p>At level I, in place of a transfer efficiency: share of primary production consumed " +

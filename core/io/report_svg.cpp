@@ -41,13 +41,6 @@ const char* roleColour(NodeRole role)
 // Text that stays legible on the fill (white on the dark blue, black elsewhere).
 const char* textOn(const char* fill) { return std::string_view(fill) == kBlue || std::string_view(fill) == kVermillion ? "#ffffff" : "#000000"; }
 
-std::string roman(int level)
-{
-    static const char* names[] = {"I", "II", "III", "IV", "V", "VI", "VII", "VIII", "IX", "X",
-                                  "XI", "XII", "XIII", "XIV", "XV", "XVI", "XVII", "XVIII", "XIX", "XX"};
-    return level >= 1 && level <= 20 ? names[level - 1] : std::to_string(level);
-}
-
 // About the width of `text` at `size` px in a sans-serif face (0.56 em a character; an
 // estimate for deciding whether a label fits, common practice, no source).
 double textWidth(std::string_view text, double size)
@@ -193,7 +186,7 @@ SvgFigure levelBarsSvg(const NetworkAnalysis& a)
         const double y = top + static_cast<double>(row) * (barHeight + gap);
         const double total = bin.throughput / largest * barArea;
         double x = centre - total / 2;
-        svg.text(8, y + barHeight / 2 + 4, roman(bin.level), "start", 12, "#000000", true);
+        svg.text(8, y + barHeight / 2 + 4, levelName(bin.level), "start", 12, "#000000", true);
         for (std::size_t j = 0; j < a.network.size() && static_cast<Eigen::Index>(k) < c.share.cols(); ++j) {
             const double v = c.share(static_cast<Eigen::Index>(j), static_cast<Eigen::Index>(k)) * a.network.throughflow(j);
             if (!(v > 0)) continue;
@@ -404,7 +397,7 @@ SvgFigure levelBarsComparisonSvg(const ScenarioComparison& c)
     const std::string unit = c.analyses.front().flowUnit();
     for (int k = 1; k <= levels; ++k) {
         const double groupTop = top + (k - 1) * (static_cast<double>(n) * (barHeight + 2) + groupGap);
-        svg.text(8, groupTop + static_cast<double>(n) * (barHeight + 2) / 2 + 4, roman(k), "start", 12, "#000000", true);
+        svg.text(8, groupTop + static_cast<double>(n) * (barHeight + 2) / 2 + 4, levelName(k), "start", 12, "#000000", true);
         for (std::size_t s = 0; s < n; ++s) {
             const NetworkAnalysis& a = c.analyses[s];
             const double y = groupTop + static_cast<double>(s) * (barHeight + 2);
@@ -412,7 +405,7 @@ SvgFigure levelBarsComparisonSvg(const ScenarioComparison& c)
             const double v = has ? a.levels.combined.levels[static_cast<std::size_t>(k - 1)].throughput : kNotApplicable;
             const double w = has ? v / largest * barArea : 0.0;
             svg.rect(left, y, w, barHeight, kScenarioColours[s % kScenarioColours.size()],
-                     c.scenarios[s] + ", level " + roman(k) + ": " + displayNumber(v) + " " + unit);
+                     c.scenarios[s] + ", level " + levelName(k) + ": " + displayNumber(v) + " " + unit);
             svg.text(left + w + 6, y + barHeight - 3, c.scenarios[s] + ": " + (has ? displayNumber(v) : std::string("n/a")), "start", 10);
         }
     }

@@ -83,6 +83,13 @@ TEST(ReportCli, BadScenarioNamesAndOptions)
     run = runTledger("export " + shellQuoted(kLagoon.string()) + " --scenario nope --format html --out -");
     EXPECT_EQ(run.exitCode, 2);
     EXPECT_NE(run.err.find("no scenario named 'nope'"), std::string::npos) << run.err;
+    EXPECT_NE(run.err.find("'clam raking closed'"), std::string::npos) << run.err;
+    // A CSV folder's scenario takes the name --scenario gives it (the MODEL rule).
+    const fs::path folder = fs::path(TL_SAMPLES_DIR) / "lagoon";
+    run = runTledger("export " + shellQuoted(folder.string()) + " --scenario 'my lagoon' --format html --out -");
+    EXPECT_EQ(run.exitCode, 0) << run.err;
+    EXPECT_NE(run.out.find("<h2>Scenario: my lagoon</h2>"), std::string::npos);
+    EXPECT_NE(run.out.find("lagoon (CSV model folder)"), std::string::npos);
 }
 
 #ifdef TL_HAVE_FIGURE_PROGRAM

@@ -182,6 +182,18 @@ void ComparePageTest::doubleClickOpensTheCellInItsScenario()
     const QModelIndex current = w.compartmentsPage()->view()->currentIndex();
     QCOMPARE(current.row(), int(*w.document()->model().indexOf("eelgrass")));
     QCOMPARE(current.column(), CompartmentTableModel::columnOf(tl::Param::Biomass));
+    // A harvest row in the reference's column opens the harvest table of the reference.
+    w.showPage(QStringLiteral("compare"));
+    settle();
+    const int landings = rowOf(view->model(), QStringLiteral("cockles"), QStringLiteral("Landings by clam rakes"));
+    QVERIFY(landings >= 0);
+    const QModelIndex refCell = view->model()->index(landings, InputDifferencesModel::kFirstScenarioColumn);
+    view->scrollTo(refCell);
+    QTest::mouseDClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
+    settle();
+    QCOMPARE(spy.count(), 2);
+    QCOMPARE(w.document()->scenario().name, std::string("baseline"));
+    QCOMPARE(w.currentPage(), tl::testing::workbenchPage<QWidget>(w, QStringLiteral("harvest")));
     // The page follows an edit of the project: back on it, the eelgrass row is still there.
     w.resize(1024, 700);
     w.showPage(QStringLiteral("compare"));
