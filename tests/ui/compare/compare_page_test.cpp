@@ -189,6 +189,7 @@ void ComparePageTest::doubleClickOpensTheCellInItsScenario()
     QVERIFY(landings >= 0);
     const QModelIndex refCell = view->model()->index(landings, InputDifferencesModel::kFirstScenarioColumn);
     view->scrollTo(refCell);
+    QTest::mouseClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
     QTest::mouseDClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
     settle();
     QCOMPARE(spy.count(), 2);
