@@ -1,6 +1,7 @@
 #include "ui/widgets/report_dialog.h"
 
 #include <QAbstractTextDocumentLayout>
+#include <QApplication>
 #include <QComboBox>
 #include <QCoreApplication>
 #include <QDateTime>
@@ -94,7 +95,10 @@ tl::ReportOptions ReportDialog::options(bool markers) const
 
 void ReportDialog::rebuild()
 {
+    // Built here, on the GUI thread: a second or more for a thousand compartments.
+    QApplication::setOverrideCursor(Qt::WaitCursor);
     report_ = tl::makeHtmlReport(project_, options(true));
+    QApplication::restoreOverrideCursor();
     if (!report_.error.empty()) {
         note_->setText(QString::fromStdString(report_.error));
         preview_->clear();
