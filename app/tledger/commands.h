@@ -17,5 +17,6 @@ int cmdImport(const Args& args);
 int cmdExport(const Args& args);
 int cmdReconcile(const Args& args);
 int cmdSensitivity(const Args& args);
+int cmdCompare(const Args& args);
 
 }  // namespace tl::cli

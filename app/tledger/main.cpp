@@ -32,8 +32,14 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
             [--central-differences] [--json]   local elasticities d ln(output) / d ln(input),
                                                ranked; QUANTITY: biomass (or b), pb, qb, ee,
                                                pq, tl (default: every output)
+  compare   PROJECT --scenarios A,B[,C...] [--json]
+                                               inputs that differ and every output side by side,
+                                               with differences against the first scenario named
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
-  export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
+  export    MODEL --scenario NAME --format csv|scor|json|html|pdf --out PATH
+            PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH
+                                               html/pdf: the report (every scenario, the one named,
+                                               or a comparison), charts included, with provenance
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
 
 MODEL is a CSV model folder (compartments.csv, diet.csv, ...) or a .tledger project.
@@ -53,6 +59,7 @@ int main(int argc, char** argv)
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
         {"sensitivity", tl::cli::cmdSensitivity},
+        {"compare", tl::cli::cmdCompare},
     };
     if (argc < 2) {
         std::cerr << kUsage;
