@@ -16,5 +16,7 @@ int cmdNetwork(const Args& args);
 int cmdImport(const Args& args);
 int cmdExport(const Args& args);
 int cmdReconcile(const Args& args);
+int cmdEnsemble(const Args& args);
+int cmdEnsembleMerge(const Args& args);
 
 }  // namespace tl::cli

@@ -28,6 +28,18 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                a least-violating change exists.
             [--impact-matrix]                  with --json: the impact matrix above 200 compartments too
                                                (it grows as n x n: 45 MB of JSON at 1 000)
+  ensemble  MODEL [--scenario NAME] --draws N --seed S [--threads T] [--draw-range FIRST:LAST]
+            [--analyses balance,tl,levels,indicators] [--shape lognormal|truncated-normal|uniform|triangular]
+            [--diet-cv CV] [--keep-draws FILE.csv] [--out FILE] [--no-store] [--json]
+                                               Monte Carlo draws of the inputs from their data
+                                               confidence: percentiles of every output over the
+                                               balanced draws, the balanced share, the compartments
+                                               that break the balance. A project stores the run
+                                               beside its scenario. --draw-range runs a slice
+                                               (partial JSON, draws numbered from 0, both ends
+                                               included) for ensemble-merge.
+  ensemble-merge PART... [--partial] [--out FILE] [--json]
+                                               slices into exactly the result of one run
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
@@ -48,6 +60,7 @@ int main(int argc, char** argv)
     const std::map<std::string, Command> commands = {
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
+        {"ensemble", tl::cli::cmdEnsemble}, {"ensemble-merge", tl::cli::cmdEnsembleMerge},
     };
     if (argc < 2) {
         std::cerr << kUsage;
