@@ -12,7 +12,15 @@
 // Continuous variates (all deterministic given the stream; they use only +, *, /, sqrt,
 // log, exp, pow of the C++ library, so one binary gives the same bits on every run):
 //   uniform01   53 high bits / 2^53, in [0, 1)
-//   normal      Marsaglia polar method (Marsaglia & Bray 1964 SIAM Rev 6:260)
+//   normal      ziggurat method with 128 layers (Marsaglia & Tsang 2000 J Stat Softw
+//               5(8)) in the form of Doornik 2005 ("An improved ziggurat method to
+//               generate normal random samples"): the layer from 7 low bits and the
+//               uniform from the 53 high bits of one 64-bit number, so they are
+//               independent; the tail beyond R by Marsaglia's 1964 method. Constants
+//               R = 3.442619855899, V = 9.91256303526217e-3 from those papers (from
+//               memory; the test checks the normal's quantiles and moments). A profile of
+//               the ensemble put a third of its time in the logarithms of the polar method
+//               used before.
 //   gamma(a)    Marsaglia & Tsang 2000 (ACM TOMS 26:363); a < 1 by the boost
 //               G(a) = G(a + 1) U^(1/a) of the same paper.
 #pragma once
@@ -21,6 +29,28 @@
 #include <cstdint>
 
 namespace tl::ensemble {
+
+// Layers of the ziggurat (computed once at start-up).
+struct ZigguratTables {
+    static constexpr int kLayers = 128;
+    static constexpr double kR = 3.442619855899;
+    static constexpr double kV = 9.91256303526217e-3;
+    double x[kLayers + 1];  // x[0] = V / f(R) (the base strip), x[1] = R, ..., x[128] = 0
+    double ratio[kLayers];  // x[i + 1] / x[i]
+    ZigguratTables()
+    {
+        double f = std::exp(-0.5 * kR * kR);
+        x[0] = kV / f;
+        x[1] = kR;
+        x[kLayers] = 0.0;
+        for (int i = 2; i < kLayers; ++i) {
+            x[i] = std::sqrt(-2.0 * std::log(kV / x[i - 1] + f));
+            f = std::exp(-0.5 * x[i] * x[i]);
+        }
+        for (int i = 0; i < kLayers; ++i) ratio[i] = x[i + 1] / x[i];
+    }
+};
+inline const ZigguratTables kZiggurat;
 
 inline constexpr std::uint64_t kGoldenGamma = 0x9e3779b97f4a7c15ULL;
 
@@ -53,20 +83,53 @@ public:
 
     double normal()
     {
+        const ZigguratTables& z = kZiggurat;
         for (;;) {
-            const double u = 2.0 * uniform01() - 1.0;
-            const double v = 2.0 * uniform01() - 1.0;
-            const double s = u * u + v * v;
-            if (s > 0.0 && s < 1.0) return u * std::sqrt(-2.0 * std::log(s) / s);  // the pair's second value is dropped
+            const std::uint64_t bits = next();
+            const double u = 2.0 * (static_cast<double>(bits >> 11) * 0x1.0p-53) - 1.0;
+            const int i = static_cast<int>(bits & 0x7f);
+            if (std::abs(u) < z.ratio[i]) return u * z.x[i];  // inside the layer's rectangle
+            if (i == 0) {  // the base strip's tail beyond R (Marsaglia 1964)
+                double x, y;
+                do {
+                    x = std::log(uniformOpen0()) / ZigguratTables::kR;
+                    y = std::log(uniformOpen0());
+                } while (-2.0 * y < x * x);
+                return u < 0.0 ? x - ZigguratTables::kR : ZigguratTables::kR - x;
+            }
+            const double x = u * z.x[i];  // the wedge: accept under the curve
+            const double f0 = std::exp(-0.5 * (z.x[i] * z.x[i] - x * x));
+            const double f1 = std::exp(-0.5 * (z.x[i + 1] * z.x[i + 1] - x * x));
+            if (f1 + uniform01() * (f0 - f1) < 1.0) return x;
         }
     }
 
     // Gamma(shape a, scale 1), a > 0.
-    double gamma(double a)
+    double gamma(double a) { return gamma(GammaShape(a)); }
+
+    // The constants of Marsaglia & Tsang's method for one shape, computed once for a
+    // shape drawn again and again (Dirichlet rows).
+    struct GammaShape {
+        double d = 0, c = 0, inverseA = 0;  // inverseA: 1/a when a < 1 (the boost), else 0
+        GammaShape() = default;
+        explicit GammaShape(double a)
+        {
+            const double b = a < 1.0 ? a + 1.0 : a;
+            d = b - 1.0 / 3.0;
+            c = 1.0 / std::sqrt(9.0 * d);
+            inverseA = a < 1.0 ? 1.0 / a : 0.0;
+        }
+    };
+
+    double gamma(const GammaShape& g)
     {
-        if (a < 1.0) return gamma(a + 1.0) * std::pow(uniformOpen0(), 1.0 / a);
-        const double d = a - 1.0 / 3.0;
-        const double c = 1.0 / std::sqrt(9.0 * d);
+        const double value = gammaAtLeastOne(g.d, g.c);
+        return g.inverseA == 0.0 ? value : value * std::pow(uniformOpen0(), g.inverseA);
+    }
+
+private:
+    double gammaAtLeastOne(double d, double c)
+    {
         for (;;) {
             double x, v;
             do {
@@ -80,7 +143,6 @@ public:
         }
     }
 
-private:
     std::uint64_t state_;
 };
 

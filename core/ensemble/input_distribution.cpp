@@ -120,6 +120,8 @@ DirichletRow::DirichletRow(std::vector<double> shares, double cv) : shares_(std:
         for (double& p : shares_) p /= sum;
     const double largest = shares_.empty() ? 0.0 : *std::max_element(shares_.begin(), shares_.end());
     alpha0_ = shares_.size() < 2 ? 0.0 : concentrationFor(largest, cv);
+    if (alpha0_ > 0.0)
+        for (double p : shares_) gammas_.emplace_back(alpha0_ * p);
 }
 
 void DirichletRow::draw(DrawStream& s, double* out) const
@@ -131,14 +133,15 @@ void DirichletRow::draw(DrawStream& s, double* out) const
     }
     double sum = 0.0;
     for (std::size_t i = 0; i < k; ++i) {
-        out[i] = s.gamma(alpha0_ * shares_[i]);
+        out[i] = s.gamma(gammas_[i]);
         sum += out[i];
     }
     if (!(sum > 0.0)) {  // every gamma underflowed (tiny shares and concentration): keep the point
         std::copy(shares_.begin(), shares_.end(), out);
         return;
     }
-    for (std::size_t i = 0; i < k; ++i) out[i] /= sum;
+    const double inverse = 1.0 / sum;  // one division: the row sums to 1 within rounding
+    for (std::size_t i = 0; i < k; ++i) out[i] *= inverse;
 }
 
 }  // namespace tl::ensemble

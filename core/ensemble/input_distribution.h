@@ -89,6 +89,7 @@ public:
 
 private:
     std::vector<double> shares_;
+    std::vector<DrawStream::GammaShape> gammas_;  // of alpha0 p_k, precomputed
     double alpha0_ = 0.0;
 };
 

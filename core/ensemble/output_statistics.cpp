@@ -31,6 +31,19 @@ int OutputStatistics::scaleExponentOf(double pointValue)
 
 int OutputStatistics::binOf(double v) const
 {
+    // Fast path on the IEEE-754 fields (normal numbers): exponent e of frexp is the
+    // biased exponent - 1022, the mantissa bin is the top 7 of the 52 fraction bits.
+    const auto bits = std::bit_cast<std::uint64_t>(v);
+    const int biased = static_cast<int>((bits >> 52) & 0x7ff);
+    if (biased != 0 && biased != 0x7ff) {
+        const int idx = biased - 1022 - (e0_ - kExponentsBelow);
+        const bool negative = (bits >> 63) != 0;
+        if (idx < 0) return negative ? kNegTiny : kPosTiny;
+        if (idx >= kExponents) return negative ? kNegBeyond : kPosBeyond;
+        const int mb = static_cast<int>((bits >> (52 - kMantissaBits)) & (kBinsPerExponent - 1));
+        if (!negative) return kPosWindow + idx * kBinsPerExponent + mb;
+        return kNegWindow + (kExponents - 1 - idx) * kBinsPerExponent + (kBinsPerExponent - 1 - mb);
+    }
     if (v == 0.0) return kZero;
     const bool negative = v < 0.0;
     const double a = std::abs(v);
@@ -101,6 +114,11 @@ void OutputStatistics::add(double v)
     }
     ++count_;
     ++binRef(binOf(v));
+    const double scaled = v * scale_;  // a power of two: exact, as ldexp(v, 50 - e0)
+    if (std::abs(scaled) < 0x1.0p62) {
+        sum_ += static_cast<Int128>(std::llrint(scaled));  // round to nearest even, as nearbyint
+        return;
+    }
     const double x = std::nearbyint(std::ldexp(v, kFixedPointBits - e0_));
     if (std::abs(x) < 0x1.0p100)
         sum_ += static_cast<Int128>(x);

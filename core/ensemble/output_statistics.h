@@ -32,6 +32,7 @@
 #pragma once
 
 #include <array>
+#include <cmath>
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -65,7 +66,8 @@ public:
 
     OutputStatistics() = default;
     // e0: binary exponent of the point estimate (frexp); see scaleExponentOf.
-    explicit OutputStatistics(int scaleExponent) : e0_(scaleExponent) {}
+    explicit OutputStatistics(int scaleExponent)
+        : e0_(scaleExponent), scale_(std::ldexp(1.0, kFixedPointBits - scaleExponent)) {}
     static int scaleExponentOf(double pointValue);
 
     void add(double v);
@@ -102,6 +104,7 @@ private:
     std::uint64_t binCount(int bin) const;
 
     int e0_ = 0;
+    double scale_ = 0x1.0p50;  // 2^(50 - e0): exact, so v * scale_ == ldexp(v, 50 - e0)
     std::uint64_t count_ = 0, nan_ = 0, saturated_ = 0;
     double min_ = 0.0, max_ = 0.0;
     Int128 sum_ = 0;
