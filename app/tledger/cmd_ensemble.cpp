@@ -1,6 +1,7 @@
 // tledger ensemble MODEL [--scenario NAME] --draws N --seed S [--threads T]
 //                  [--draw-range FIRST:LAST] [--analyses balance,tl,levels,indicators]
 //                  [--shape lognormal|truncated-normal|uniform|triangular] [--diet-cv CV]
+//                  [--shape-of COMPARTMENT.PARAM=SHAPE ...]
 //                  [--keep-draws FILE.csv] [--out FILE] [--no-store] [--json]
 // tledger ensemble-merge PART... [--partial] [--out FILE] [--json]
 // (DESIGN 3.7, 5.2, 5.3; core/ensemble). A whole run prints the summary (table, or JSON
@@ -37,6 +38,7 @@ constexpr const char* kUsage =
     "usage: tledger ensemble MODEL [--scenario NAME] --draws N --seed S [--threads T]\n"
     "                        [--draw-range FIRST:LAST] [--analyses balance,tl,levels,indicators]\n"
     "                        [--shape lognormal|truncated-normal|uniform|triangular] [--diet-cv CV]\n"
+    "                        [--shape-of COMPARTMENT.PARAM=SHAPE ...]\n"
     "                        [--keep-draws FILE.csv] [--out FILE] [--no-store] [--json]\n"
     "       tledger ensemble-merge PART... [--partial] [--out FILE] [--json]\n";
 
@@ -95,8 +97,21 @@ int usageError(const std::string& message)
 
 }  // namespace
 
-int cmdEnsemble(const Args& args)
+int cmdEnsemble(const Args& rawArgs)
 {
+    // --shape-of repeats: pulled out before the other options are parsed.
+    Args args;
+    std::vector<std::string> shapeOf;
+    for (std::size_t k = 0; k < rawArgs.size(); ++k) {
+        if (rawArgs[k] == "--shape-of") {
+            if (k + 1 >= rawArgs.size()) return usageError("--shape-of needs COMPARTMENT.PARAM=SHAPE");
+            shapeOf.push_back(rawArgs[++k]);
+        } else if (rawArgs[k].rfind("--shape-of=", 0) == 0) {
+            shapeOf.push_back(rawArgs[k].substr(11));
+        } else {
+            args.push_back(rawArgs[k]);
+        }
+    }
     const auto opts = parseOptions(args,
                                    {"--scenario", "--draws", "--seed", "--threads", "--draw-range", "--analyses",
                                     "--shape", "--diet-cv", "--keep-draws", "--out"},
@@ -167,6 +182,20 @@ int cmdEnsemble(const Args& args)
         return 2;
     }
     const Scenario& scenario = source.project->scenarios.front();
+    for (const std::string& text : shapeOf) {
+        const auto eq = text.rfind('=');
+        const auto dot = eq == std::string::npos ? std::string::npos : text.rfind('.', eq);
+        const auto shape = eq == std::string::npos ? std::nullopt : parseShape(trim(text.substr(eq + 1)));
+        const auto index = dot == std::string::npos ? std::nullopt : scenario.model.indexOf(trim(text.substr(0, dot)));
+        const auto param = dot == std::string::npos ? std::nullopt : parseParamKey(trim(text.substr(dot + 1, eq - dot - 1)));
+        const bool drawnParam = param && (*param == Param::Biomass || *param == Param::PB || *param == Param::QB ||
+                                          *param == Param::EE || *param == Param::PQ);
+        if (!shape || !index || !drawnParam)
+            return usageError("--shape-of '" + text + "': expected COMPARTMENT.PARAM=SHAPE with a compartment of scenario '" +
+                              scenario.name + "', PARAM one of biomass, pb, qb, ee, pq and SHAPE one of lognormal, "
+                              "truncated-normal, uniform, triangular");
+        settings.shapeOf[{*index, *param}] = *shape;
+    }
 
     const bool terminal = ::isatty(STDERR_FILENO) == 1;
     EnsembleProgress progress;

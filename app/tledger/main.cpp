@@ -30,7 +30,8 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                (it grows as n x n: 45 MB of JSON at 1 000)
   ensemble  MODEL [--scenario NAME] --draws N --seed S [--threads T] [--draw-range FIRST:LAST]
             [--analyses balance,tl,levels,indicators] [--shape lognormal|truncated-normal|uniform|triangular]
-            [--diet-cv CV] [--keep-draws FILE.csv] [--out FILE] [--no-store] [--json]
+            [--diet-cv CV] [--shape-of COMPARTMENT.PARAM=SHAPE ...] [--keep-draws FILE.csv]
+            [--out FILE] [--no-store] [--json]
                                                Monte Carlo draws of the inputs from their data
                                                confidence: percentiles of every output over the
                                                balanced draws, the balanced share, the compartments

@@ -62,7 +62,10 @@ std::string ensembleJson(const EnsembleStatistics& s)
     w.beginObject();
     w.field("draws", s.drawsRun);
     w.field("balanced_share", s.balancedShare());
-    w.field("seed", static_cast<long long>(s.seed));
+    // A number as DESIGN 5.3 has it; a seed beyond 2^53 (which JSON readers cannot hold
+    // exactly as a number) as text.
+    if (s.seed <= (1ULL << 53)) w.field("seed", static_cast<long long>(s.seed));
+    else w.field("seed", std::to_string(s.seed));
     w.key("outputs").beginObject();
     for (std::size_t k = 0; k < s.outputs.size(); ++k) {
         const OutputStatistics& o = s.outputs[k];

@@ -5,6 +5,7 @@
 // names what is wrong. Models are copies of the invented samples (sample_projects/).
 #include <gtest/gtest.h>
 
+#include <cmath>
 #include <cstdlib>
 #include <filesystem>
 #include <string>
@@ -75,6 +76,42 @@ TEST(EnsembleCli, TableAndKeptDrawsAndTheRunStoredInTheProject)
     EXPECT_EQ(ProjectFile::open(project, OpenMode::ReadOnly).file->listRuns().value->size(), 1u) << "--no-store";
 }
 
+TEST(EnsembleCli, ShapeOfOneParameterIsDrawnFromThatShape)
+{
+    // Uniform on [m - sqrt(3) c m, m + sqrt(3) c m]: every kept draw of cockles' biomass
+    // lies inside; lognormal draws of 2000 would leave it.
+    const ScratchDir dir("ensemble_shape");
+    const fs::path csv = dir.path() / "kept.csv";
+    const CliRun run = runTledger("ensemble " + kLagoon + " --draws 2000 --seed 4 --diet-cv 0.1 --shape-of 'cockles.biomass=uniform'"
+                                  " --keep-draws " + shellQuoted(csv.string()));
+    ASSERT_NE(run.exitCode, 2) << run.err;
+    const std::string text = slurp(csv);
+    const std::string header = text.substr(0, text.find('\n'));
+    std::size_t column = 0, at = 0;
+    for (std::size_t next; (next = header.find(',', at)) != std::string::npos && header.substr(at, next - at) != "cockles.biomass"; at = next + 1)
+        ++column;
+    ASSERT_NE(header.find("cockles.biomass"), std::string::npos);
+    const auto model = readFixtureModel(kSamples + "lagoon");
+    ASSERT_TRUE(model);
+    const Compartment& cockles = model->compartment(*model->indexOf("cockles"));
+    const double m = *cockles.value(Param::Biomass);
+    ASSERT_EQ(cockles.confidenceOf(Param::Biomass).grade, Confidence::Grade::B);  // CV 0.25
+    const double half = std::min(std::sqrt(3.0) * 0.25 * m, m);
+    std::size_t checked = 0;
+    for (std::size_t line = text.find('\n') + 1; line < text.size(); line = text.find('\n', line) + 1) {
+        std::size_t c = 0, start = line;
+        while (c < column) {
+            start = text.find(',', start) + 1;
+            ++c;
+        }
+        const double v = std::stod(text.substr(start, text.find_first_of(",\n", start) - start));
+        EXPECT_GE(v, m - half - 1e-9);
+        EXPECT_LE(v, m + half + 1e-9);
+        ++checked;
+    }
+    EXPECT_GT(checked, 5u);
+}
+
 TEST(EnsembleCli, SlicesMergeIntoTheBytesOfOneRun)
 {
     const ScratchDir dir("ensemble_slices");
@@ -103,6 +140,19 @@ TEST(EnsembleCli, SlicesMergeIntoTheBytesOfOneRun)
     const CliRun overlap = runTledger("ensemble-merge" + parts + parts.substr(0, parts.find(' ', 1)) + " --json");
     EXPECT_EQ(overlap.exitCode, 2);
     EXPECT_NE(overlap.err.find("overlap"), std::string::npos) << overlap.err;
+}
+
+TEST(EnsembleCli, TheLargestSeedSurvivesSlicesAndJson)
+{
+    const ScratchDir dir("ensemble_seed");
+    const std::string common = "ensemble " + kLagoon + " --draws 200 --seed 18446744073709551615 --diet-cv 0.1";
+    const CliRun whole = runTledger(common + " --json");
+    ASSERT_NE(whole.exitCode, 2) << whole.err;
+    EXPECT_EQ(whole.json().at("seed"), "18446744073709551615") << "beyond 2^53 the seed is text";
+    const std::string a = shellQuoted((dir.path() / "a.json").string()), b = shellQuoted((dir.path() / "b.json").string());
+    ASSERT_EQ(runTledger(common + " --draw-range 0:99 --out " + a).exitCode, 0);
+    ASSERT_EQ(runTledger(common + " --draw-range 100:199 --out " + b).exitCode, 0);
+    EXPECT_EQ(runTledger("ensemble-merge " + b + " " + a + " --json").out, whole.out);
 }
 
 TEST(EnsembleCli, SlurmArrayScriptRunLocallyMergesIntoOneRun)
@@ -157,6 +207,9 @@ TEST(EnsembleCli, BadInputExitsWith2AndSaysWhatIsWrong)
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --diet-cv -1", "--diet-cv '-1'"},
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --draw-range 0:9 --keep-draws x.csv", "--keep-draws is for a whole run"},
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --frobnicate", "--frobnicate"},
+        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.biomass=gaussian", "--shape-of 'cockles.biomass=gaussian'"},
+        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of nobody.pb=uniform", "--shape-of 'nobody.pb=uniform'"},
+        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.unassim=uniform", "PARAM one of biomass"},
         {"ensemble /nonexistent/model --draws 100 --seed 1", "/nonexistent/model"},
         {"ensemble " + shellQuoted(kSamples + "lagoon.tledger") + " --draws 100 --seed 1", "choose one with --scenario"},
         {"ensemble-merge", "expected one or more PART"},
