@@ -9,6 +9,7 @@
 #include "core/balance/solver.h"
 #include "core/ensemble/ensemble.h"
 #include "core/ensemble/ensemble_report.h"
+#include "tests/bench/synthetic_model.h"
 #include "tests/support/test_support.h"
 
 namespace tl::ensemble {
@@ -113,13 +114,12 @@ TEST(Ensemble, MergeRefusesOverlapsAndOtherEnsembles)
     EXPECT_TRUE(m == a) << "a refused merge changes nothing";
 }
 
-TEST(Ensemble, DrawsAreJudgedAsSolveBalanceJudgesThem)
+// Independent of the ensemble's fast checks: each draw written into a copy of the
+// scenario and solved the full way; its status and the compartments its error problems
+// name must match the ensemble's counts.
+void expectDrawsJudgedAsSolveBalance(const Model& model, const EnsembleSettings& s, std::uint64_t minBalanced,
+                                     std::uint64_t maxBalanced)
 {
-    // Independent of the ensemble's fast checks: each draw written into a copy of the
-    // scenario and solved the full way; its status and the compartments its error
-    // problems name must match the ensemble's counts.
-    const Model model = lagoon();
-    const EnsembleSettings s = settings(400, 1);
     const EnsembleRun run = runEnsemble(model, s);
     ASSERT_TRUE(run.ran());
     const BalancePlan plan = BalancePlan::build(model);
@@ -140,9 +140,32 @@ TEST(Ensemble, DrawsAreJudgedAsSolveBalanceJudgesThem)
         for (std::size_t i : broken) ++breaks[i];
     }
     EXPECT_EQ(run.statistics.balanced, balanced);
-    EXPECT_GT(balanced, 20u) << "some draws balance";
-    EXPECT_LT(balanced, 380u) << "some draws break the balance";
+    EXPECT_GE(balanced, minBalanced) << "some draws balance";
+    EXPECT_LE(balanced, maxBalanced) << "some draws break the balance";
     for (std::size_t i = 0; i < model.size(); ++i) EXPECT_EQ(run.statistics.breaks[i].any, breaks[i]) << model.compartment(i).name;
+}
+
+TEST(Ensemble, DrawsAreJudgedAsSolveBalanceJudgesThem)
+{
+    expectDrawsJudgedAsSolveBalance(lagoon(), settings(400, 1), 20, 380);
+    // The invented reservoir: unbalanced at its point values (two EE just above 1).
+    Model reservoir = fixtureModel(std::filesystem::path(TL_SAMPLES_DIR) / "reservoir");
+    reservoir.rules.cvByGrade = {0.05, 0.10, 0.15, 0.20};
+    {
+        SCOPED_TRACE("reservoir");
+        expectDrawsJudgedAsSolveBalance(reservoir, settings(400, 2), 1, 399);
+    }
+    // Synthetic webs whose unknowns couple equations: unknown B (dense LU), unknown Q/B
+    // and P/Q standing in (least squares, solved P/B and Q/B checked for sign).
+    for (const bench::UnknownMix mix : {bench::UnknownMix::EEBiomass, bench::UnknownMix::EEQbPq}) {
+        Model web = bench::syntheticModel(40, mix, 3).model;
+        web.rules.cvByGrade = {0.1, 0.1, 0.1, 0.1};
+        SCOPED_TRACE(std::string(bench::mixKey(mix)));
+        // ee-qb-pq has more equations than unknowns (a fully given prey pins a Q/B): once
+        // its inputs are drawn, that prey's equation no longer closes, so no draw
+        // balances (equation-residual), as solveBalance says too.
+        expectDrawsJudgedAsSolveBalance(web, settings(300, 2), mix == bench::UnknownMix::EEQbPq ? 0 : 1, 299);
+    }
 }
 
 TEST(Ensemble, KeptDrawsAreTheBalancedDrawsInOrderWithTheirSolvedValues)
