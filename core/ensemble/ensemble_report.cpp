@@ -149,7 +149,11 @@ std::string ensembleTable(const EnsembleStatistics& s)
         const PercentileSummary p = s.outputs[k].summary();
         t.addRow({s.outputNames[k], cell(p.p2_5), cell(p.p25), cell(p.p50), cell(p.p75), cell(p.p97_5), cell(p.mean)});
     }
-    out += "Over the balanced draws:\n" + t.render();
+    if (s.balanced > 0)
+        out += "Over the balanced draws:\n" + t.render();
+    else
+        out += "No draw balanced, so the outputs have no distribution to show. The compartments below break\n"
+               "the balance most often: reconcile the scenario first, or check their confidence grades.\n";
     const std::vector<std::size_t> breakers = breakerOrder(s);
     if (!breakers.empty()) {
         TextTable b;

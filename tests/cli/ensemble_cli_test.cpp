@@ -76,6 +76,23 @@ TEST(EnsembleCli, TableAndKeptDrawsAndTheRunStoredInTheProject)
     EXPECT_EQ(ProjectFile::open(project, OpenMode::ReadOnly).file->listRuns().value->size(), 1u) << "--no-store";
 }
 
+TEST(EnsembleCli, NoBalancedDrawExitsWith1AndNamesTheBreakers)
+{
+    // The invented reservoir's baseline leaves two EE just above 1 on purpose.
+    const CliRun run = runTledger("ensemble " + shellQuoted(kSamples + "reservoir.tledger") +
+                                  " --scenario baseline --draws 300 --seed 1 --no-store");
+    EXPECT_EQ(run.exitCode, 1) << run.err;
+    EXPECT_NE(run.out.find("No draw balanced"), std::string::npos) << run.out;
+    EXPECT_NE(run.out.find("Compartments that most often break the balance"), std::string::npos);
+    const CliRun json = runTledger("ensemble " + shellQuoted(kSamples + "reservoir.tledger") +
+                                   " --scenario baseline --draws 300 --seed 1 --no-store --json");
+    EXPECT_EQ(json.exitCode, 1);
+    const nlohmann::json j = json.json();
+    EXPECT_EQ(j.at("balanced_share"), 0.0);
+    EXPECT_TRUE(j.at("outputs").begin()->at("p50").is_null());
+    EXPECT_FALSE(j.at("balance_breakers").empty());
+}
+
 TEST(EnsembleCli, ShapeOfOneParameterIsDrawnFromThatShape)
 {
     // Uniform on [m - sqrt(3) c m, m + sqrt(3) c m]: every kept draw of cockles' biomass
