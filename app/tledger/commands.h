@@ -18,5 +18,7 @@ int cmdExport(const Args& args);
 int cmdReconcile(const Args& args);
 int cmdSensitivity(const Args& args);
 int cmdCompare(const Args& args);
+int cmdEnsemble(const Args& args);
+int cmdEnsembleMerge(const Args& args);
 
 }  // namespace tl::cli

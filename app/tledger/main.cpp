@@ -35,6 +35,19 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
   compare   PROJECT --scenarios A,B[,C...] [--json]
                                                inputs that differ and every output side by side,
                                                with differences against the first scenario named
+  ensemble  MODEL [--scenario NAME] --draws N --seed S [--threads T] [--draw-range FIRST:LAST]
+            [--analyses balance,tl,levels,indicators] [--shape lognormal|truncated-normal|uniform|triangular]
+            [--diet-cv CV] [--shape-of COMPARTMENT.PARAM=SHAPE ...] [--keep-draws FILE.csv]
+            [--out FILE] [--no-store] [--json]
+                                               Monte Carlo draws of the inputs from their data
+                                               confidence: percentiles of every output over the
+                                               balanced draws, the balanced share, the compartments
+                                               that break the balance. A project stores the run
+                                               beside its scenario. --draw-range runs a slice
+                                               (partial JSON, draws numbered from 0, both ends
+                                               included) for ensemble-merge.
+  ensemble-merge PART... [--partial] [--out FILE] [--json]
+                                               slices into exactly the result of one run
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html|pdf --out PATH
             PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH
@@ -60,6 +73,7 @@ int main(int argc, char** argv)
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
         {"sensitivity", tl::cli::cmdSensitivity},
         {"compare", tl::cli::cmdCompare},
+        {"ensemble", tl::cli::cmdEnsemble}, {"ensemble-merge", tl::cli::cmdEnsembleMerge},
     };
     if (argc < 2) {
         std::cerr << kUsage;

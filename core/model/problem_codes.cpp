@@ -55,6 +55,10 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kReconcileUnsolvable, E, "Reconcile needs a scenario the balance can solve, with positive B, P/B and Q/B."},
     {code::kReconcileOption, E, "A reconcile pin or bound names a compartment or parameter that cannot move."},
     {code::kReconcileConflict, E, "No change within the pins and bounds satisfies this constraint together with the others."},
+    // Ensemble (core/ensemble).
+    {code::kEnsembleUnsolvable, E, "An ensemble needs a scenario whose balance equations can be set up (at most one unknown per compartment)."},
+    {code::kEnsembleSettings, E, "An ensemble setting is out of range (draws, draw range, threads or a CV)."},
+    {code::kEnsemblePartial, E, "A partial ensemble result cannot be read or does not belong with the others being merged."},
     // Flow network.
     {code::kNetworkShortfallImport, W,
      "An unbalanced flow would be negative; the shortfall enters the flow network as an import."},

@@ -144,6 +144,10 @@ inline constexpr const char* kStoreIoError = "store-io-error";
 inline constexpr const char* kReconcileUnsolvable = "reconcile-unsolvable";
 inline constexpr const char* kReconcileOption = "reconcile-option";
 inline constexpr const char* kReconcileConflict = "reconcile-conflict";
+// Ensemble (core/ensemble).
+inline constexpr const char* kEnsembleUnsolvable = "ensemble-unsolvable";
+inline constexpr const char* kEnsembleSettings = "ensemble-settings";
+inline constexpr const char* kEnsemblePartial = "ensemble-partial";
 }  // namespace code
 
 struct ProblemCodeInfo {
