@@ -16,5 +16,6 @@ int cmdNetwork(const Args& args);
 int cmdImport(const Args& args);
 int cmdExport(const Args& args);
 int cmdReconcile(const Args& args);
+int cmdFieldwork(const Args& args);
 
 }  // namespace tl::cli

@@ -28,6 +28,15 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                a least-violating change exists.
             [--impact-matrix]                  with --json: the impact matrix above 200 compartments too
                                                (it grows as n x n: 45 MB of JSON at 1 000)
+  fieldwork biomass --hauls F --taxa F --compartment C [--strata F] [--catchability X1]
+            mortality --lengths F --taxon T --linf CM --k K [--method catch-curve|mean-length]
+                      [--points 4-9] [--cutoff CM]
+            mortality --method pauly1980|then-tmax|then-growth [--linf CM --k K --temperature C | --tmax Y]
+            consumption --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|detritivore]
+            diet --stomachs F --taxa F --compartment C [--summary mean|pooled]
+            each [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]
+                                               a parameter from survey data with its CV and
+                                               interval; --into writes it with a source note
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
@@ -48,6 +57,7 @@ int main(int argc, char** argv)
     const std::map<std::string, Command> commands = {
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
+        {"fieldwork", tl::cli::cmdFieldwork},
     };
     if (argc < 2) {
         std::cerr << kUsage;
