@@ -24,6 +24,7 @@
 
 #include "app/tledger/commands.h"
 #include "app/tledger/options.h"
+#include "core/fieldwork/apply_estimate.h"
 #include "core/fieldwork/empirical_equations.h"
 #include "core/fieldwork/fieldwork_report.h"
 #include "core/fieldwork/unit_conversion.h"
@@ -163,40 +164,21 @@ int editScenario(const Target& t, const std::function<bool(Scenario&, std::size_
     return 0;
 }
 
-// Lets an estimate depend on the scenario it is written into (P/B = M + F needs F).
-using Adjust = std::function<bool(const Scenario&, std::size_t, Estimate&)>;
-
-// Writes a scalar estimate into `param`, converting B into the project's unit first.
-int writeScalar(const Target& t, Param param, Estimate e, const ConversionFactors& factors, std::string& written,
-                const Adjust& adjust = {})
+// Writes a scalar estimate into `param` (core/fieldwork/apply_estimate.h: B converted to
+// the project's unit, M written as P/B = M + F).
+int writeScalar(const Target& t, Param param, const Estimate& e, const ConversionFactors& factors, std::string& written)
 {
     return editScenario(t, [&](Scenario& s, std::size_t i) {
-        if (adjust && !adjust(s, i, e)) return false;
-        if (param == Param::Biomass) {
-            Problems unitProblems;
-            const auto unit = parseBiomassUnit(s.model.units, unitProblems);
-            if (!unit) {
-                printProblems(unitProblems);
-                return false;
-            }
-            const BiomassUnit from = tonnesWetWeightPerKm2();
-            auto convert = [&](double v) { return convertBiomass(v, from, *unit, factors); };
-            e.value = convert(e.value);
-            if (e.ciLow) e.ciLow = convert(*e.ciLow);
-            if (e.ciHigh) e.ciHigh = convert(*e.ciHigh);
-            e.unit = s.model.units.biomass();
-            if (const std::string note = conversionNote(from.currency, unit->currency, factors); !note.empty())
-                e.assumptions.push_back("converted from wet weight with " + note);
-        }
-        const std::string before = s.model.compartment(i).value(param) ? displayNumber(*s.model.compartment(i).value(param))
-                                                                          : std::string("unknown");
-        const Problems p = writeEstimate(s.model, i, param, e, utcNowIso8601());
+        const auto& old = s.model.compartment(i).value(param);
+        const std::string before = old ? displayNumber(*old) : std::string("unknown");
+        Estimate out;
+        const Problems p = applyEstimate(s.model, i, param, e, utcNowIso8601(), factors, &out);
         if (hasErrors(p)) {
             printProblems(p);
             return false;
         }
         written = std::string(paramSymbol(param)) + " of " + t.compartment + " in scenario '" + t.scenario + "' of " +
-                  t.project.string() + ": " + displayNumber(e.value) + " " + e.unit + " (was " + before + ")";
+                  t.project.string() + ": " + displayNumber(out.value) + " " + out.unit + " (was " + before + ")";
         return true;
     });
 }
@@ -342,25 +324,7 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
 
     std::string written;
     if (const auto t = targetOf(o)) {
-        Adjust mPlusF;
-        if (e.quantity == "M")
-            // P/B = Z = M + F at steady state (Allen 1971), F = catch / B of the scenario.
-            mPlusF = [](const Scenario& s, std::size_t i, Estimate& est) {
-                const Compartment& c = s.model.compartment(i);
-                if (!c.value(Param::Biomass) || !(*c.value(Param::Biomass) > 0.0)) {
-                    std::cerr << "tledger fieldwork: P/B = M + F needs the biomass of " << c.name
-                              << " to work out F = catch / B; give B first (tledger fieldwork biomass)\n";
-                    return false;
-                }
-                const double m = est.value, f = s.model.totalCatch(i) / *c.value(Param::Biomass);
-                est.quantity = "P/B";
-                est.value = m + f;
-                est.inputs.push_back("M " + displayNumber(m) + "/year");
-                est.inputs.push_back("F = catch / B = " + displayNumber(f) + "/year (from the scenario)");
-                est.assumptions.push_back("P/B = Z = M + F at steady state (Allen 1971)");
-                return true;
-            };
-        const int rc = writeScalar(*t, Param::PB, e, factors, written, mPlusF);
+        const int rc = writeScalar(*t, Param::PB, e, factors, written);
         if (rc) return rc;
     }
     report(e, o.has("--json"), extras, table, written);
@@ -423,10 +387,6 @@ int diet(const ParsedOptions& o)
     if (const auto t = targetOf(o)) {
         const int rc = editScenario(*t, [&](Scenario& s, std::size_t i) {
             Model& m = s.model;
-            if (m.compartment(i).kind != CompartmentKind::Consumer) {
-                std::cerr << "tledger fieldwork diet: " << m.compartment(i).name << " is not a consumer\n";
-                return false;
-            }
             std::vector<std::string> names;
             for (const Compartment& c : m.compartments()) names.push_back(c.name);
             const Problems unknown = checkMappingCompartments(*taxa.value, names);
@@ -434,15 +394,11 @@ int diet(const ParsedOptions& o)
                 printProblems(unknown);
                 return false;
             }
-            const std::vector<GridEntry> old(m.dietRow(i).begin(), m.dietRow(i).end());
-            for (const GridEntry& g : old) m.setDiet(i, g.col, 0.0);
-            m.setDietImport(i, 0.0);
-            for (const PreyShare& p : d.shares) {
-                if (p.prey == "import") m.setDietImport(i, p.share);
-                else m.setDiet(i, *m.indexOf(p.prey), p.share);
+            const Problems applied = applyDiet(m, s.description, i, d, utcNowIso8601());
+            if (hasErrors(applied)) {
+                printProblems(applied);
+                return false;
             }
-            const std::string note = dietNote(d, utcNowIso8601());
-            s.description += (s.description.empty() ? "" : "; ") + note;
             written = "diet of " + t->compartment + " in scenario '" + t->scenario + "' of " + t->project.string() +
                       " (" + std::to_string(d.shares.size()) + " prey; note in the scenario description)";
             return true;

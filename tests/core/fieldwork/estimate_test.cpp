@@ -3,6 +3,7 @@
 // parameter does not belong.
 #include <gtest/gtest.h>
 
+#include "core/fieldwork/apply_estimate.h"
 #include "core/fieldwork/estimate.h"
 #include "core/model/problem_codes.h"
 
@@ -72,6 +73,71 @@ TEST(WriteEstimate, RefusesWrongTargets)
     e.valid = false;
     EXPECT_EQ(writeEstimate(m, 1, Param::PB, e, "d").at(0).code, code::kFieldworkTarget);
     EXPECT_EQ(m, before);  // nothing changed
+}
+
+}  // namespace
+}  // namespace tl::fieldwork
+
+namespace tl::fieldwork {
+namespace {
+
+TEST(ApplyEstimate, ConvertsBiomassAndWritesMAsPBPlusF)
+{
+    Model m = twoBoxes();
+    m.units.currency = "g C";
+    m.units.area = "m²";
+    m.addFleet("nets");
+    m.fleet(0).landings[1] = 0.5;  // catch of Perch, g C/m²/year
+    Estimate b = newEstimate("B", "t wet weight/km²");
+    b.value = 0.45;
+    b.cv = 0.2;
+    b.ciLow = 0.3;
+    b.ciHigh = 0.6;
+    b.valid = true;
+    Estimate written;
+    ASSERT_TRUE(applyEstimate(m, 1, Param::Biomass, b, "d", {}, &written).empty());
+    // 0.45 t wet weight/km² = 0.45 g wet weight/m² = 0.045 g C/m² (0.1 g C per g wet weight).
+    EXPECT_NEAR(*m.compartment(1).value(Param::Biomass), 0.045, 1e-15);
+    EXPECT_NEAR(*written.ciHigh, 0.06, 1e-15);
+    EXPECT_EQ(written.unit, "g C/m²");
+    EXPECT_NE(m.compartment(1).confidenceOf(Param::Biomass).source.find("0.1 g C per g wet weight"), std::string::npos);
+
+    // M 0.4 -> P/B = 0.4 + F, F = 0.5 / 0.045.
+    Estimate mort = newEstimate("M", "/year");
+    mort.value = 0.4;
+    mort.valid = true;
+    ASSERT_TRUE(applyEstimate(m, 1, Param::PB, mort, "d").empty());
+    EXPECT_NEAR(*m.compartment(1).value(Param::PB), 0.4 + 0.5 / 0.045, 1e-12);
+    EXPECT_NE(m.compartment(1).confidenceOf(Param::PB).source.find("Allen 1971"), std::string::npos);
+
+    // Without B there is no F: refused, nothing changed.
+    m.compartment(1).value(Param::Biomass).reset();
+    const Model before = m;
+    EXPECT_EQ(applyEstimate(m, 1, Param::PB, mort, "d").at(0).code, code::kFieldworkTarget);
+    EXPECT_EQ(m, before);
+}
+
+TEST(ApplyEstimate, DietRowReplacedAndNoted)
+{
+    Model m = twoBoxes();
+    m.setDiet(1, 2, 1.0);  // Perch ate only detritus
+    StomachDiet d;
+    d.predator = "Perch";
+    d.valid = true;
+    d.method = "test";
+    d.shares = {{"Algae", 0.7, 0.7, 0.6, 0.1, 0.5, 0.9}, {"import", 0.3, 0.3, 0.4, 0.2, 0.1, 0.5}};
+    std::string description = "baseline";
+    ASSERT_TRUE(applyDiet(m, description, 1, d, "2026-12-02").empty());
+    EXPECT_EQ(m.diet(1, 2), 0.0);
+    EXPECT_EQ(m.diet(1, 0), 0.7);
+    EXPECT_EQ(m.dietImport(1), 0.3);
+    EXPECT_NE(description.find("baseline; fieldwork 2026-12-02: diet of Perch"), std::string::npos) << description;
+    // Not a consumer; unknown prey.
+    EXPECT_FALSE(applyDiet(m, description, 0, d, "d").empty());
+    d.shares[0].prey = "Roach";
+    const Model before = m;
+    EXPECT_FALSE(applyDiet(m, description, 1, d, "d").empty());
+    EXPECT_EQ(m, before);
 }
 
 }  // namespace
