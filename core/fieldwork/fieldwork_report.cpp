@@ -105,6 +105,7 @@ void writeDietJson(JsonWriter& w, const StomachDiet& d)
     w.field("empty_stomachs", d.emptyStomachs);
     w.field("left_out_share", d.leftOutShare);
     w.field("grade", gradeKey(d.grade));
+    w.field("ci_level", d.ciLevel);
     w.key("shares").beginArray();
     for (const PreyShare& s : d.shares) {
         w.beginObject();
@@ -190,7 +191,7 @@ std::string dietText(const StomachDiet& d)
     t.addColumn("prey", TextTable::Align::Left);
     t.addColumn(d.summary == DietSummary::Pooled ? "share (pooled)" : "share (mean of proportions)");
     t.addColumn("CV");
-    t.addColumn("95 % CI", TextTable::Align::Left);
+    t.addColumn(displayNumber(d.ciLevel * 100) + " % CI", TextTable::Align::Left);
     t.addColumn("mean of proportions");
     t.addColumn("pooled");
     for (const PreyShare& s : d.shares)

@@ -7,7 +7,7 @@
 //   Z, catch curve: points[{from_cm, to_cm, count, age, dt, ln_c_dt, usable, selected}],
 //              slope, intercept, slope_se, r2
 //   Z, mean length: cut_off_cm, mean_length_cm, sd_cm, fish
-//   diet:      predator, summary, samples, stomachs, empty_stomachs, left_out_share,
+//   diet:      predator, summary, method, ci_level, samples, stomachs, empty_stomachs, left_out_share,
 //              grade, shares[{prey, share, mean_of_proportions, pooled, cv, ci_low, ci_high}]
 // Values missing (no CV for an empirical equation) are null.
 #pragma once

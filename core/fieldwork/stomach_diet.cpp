@@ -65,6 +65,7 @@ StomachDiet dietFromStomachs(const std::vector<StomachRecord>& records, const Ta
     StomachDiet out;
     out.predator = predator;
     out.summary = options.summary;
+    out.ciLevel = options.ciLevel;
     std::vector<std::string> prey;  // compartment names in order of first appearance
     std::map<std::string, std::size_t> preyIndex;
     std::map<std::string, std::size_t> sampleIndex;

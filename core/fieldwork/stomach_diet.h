@@ -53,6 +53,7 @@ struct StomachDiet {
     double leftOutShare = 0.0;  // of the total amount, prey mapped to no compartment
     Confidence::Grade grade = Confidence::Grade::D;
     std::string method;         // for the source note
+    double ciLevel = 0.95;      // of the shares' intervals
     bool valid = false;
     Problems problems, warnings;
 };
