@@ -17,6 +17,7 @@
 //                -> the diet row of C (its note goes to the scenario description)
 // Warnings (an input outside an equation's fitted range) are part of the text and JSON output.
 // Exit: 0 estimated (and written), 2 bad input (the file, line and column, or the option).
+#include <cmath>
 #include <filesystem>
 #include <functional>
 #include <iostream>

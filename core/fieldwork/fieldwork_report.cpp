@@ -20,6 +20,18 @@ void stringArray(JsonWriter& w, std::string_view key, const std::vector<std::str
     w.endArray();
 }
 
+void warningsArray(JsonWriter& w, const Problems& warnings)
+{
+    w.key("warnings").beginArray();
+    for (const Problem& p : warnings) {
+        w.beginObject();
+        w.field("code", p.code);
+        w.field("message", p.message);
+        w.endObject();
+    }
+    w.endArray();
+}
+
 }  // namespace
 
 void writeEstimateJson(JsonWriter& w, const Estimate& e)
@@ -34,14 +46,7 @@ void writeEstimateJson(JsonWriter& w, const Estimate& e)
     w.field("method", e.method);
     stringArray(w, "inputs", e.inputs);
     stringArray(w, "assumptions", e.assumptions);
-    w.key("warnings").beginArray();
-    for (const Problem& p : e.warnings) {
-        w.beginObject();
-        w.field("code", p.code);
-        w.field("message", p.message);
-        w.endObject();
-    }
-    w.endArray();
+    warningsArray(w, e.warnings);
     w.field("notice", kDecisionSupportNotice);
 }
 
@@ -119,14 +124,7 @@ void writeDietJson(JsonWriter& w, const StomachDiet& d)
         w.endObject();
     }
     w.endArray();
-    w.key("warnings").beginArray();
-    for (const Problem& p : d.warnings) {
-        w.beginObject();
-        w.field("code", p.code);
-        w.field("message", p.message);
-        w.endObject();
-    }
-    w.endArray();
+    warningsArray(w, d.warnings);
     w.field("notice", kDecisionSupportNotice);
 }
 

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "core/fieldwork/student_t.h"
 #include "core/model/problem_codes.h"
