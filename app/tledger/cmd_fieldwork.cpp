@@ -174,10 +174,8 @@ int writeScalar(const Target& t, Param param, const Estimate& e, const Conversio
         const std::string before = old ? displayNumber(*old) : std::string("unknown");
         Estimate out;
         const Problems p = applyEstimate(s.model, i, param, e, utcNowIso8601(), factors, &out);
-        if (hasErrors(p)) {
-            printProblems(p);
-            return false;
-        }
+        printProblems(p);  // errors, or a warning that the compartment has nothing left unknown
+        if (hasErrors(p)) return false;
         written = std::string(paramSymbol(param)) + " of " + t.compartment + " in scenario '" + t.scenario + "' of " +
                   t.project.string() + ": " + displayNumber(out.value) + " " + out.unit + " (was " + before + ")";
         return true;

@@ -71,6 +71,18 @@ Problems writeEstimate(Model& model, std::size_t compartment, Param param, const
     std::string note = sourceNote(e, date);
     if (const auto& before = c.value(param)) note += "; before: " + formatNumber(*before);
     if (!conf.source.empty()) note += "; earlier source: " + conf.source;
+    if (!c.value(param) && c.value(Param::EE) && (param == Param::Biomass || c.value(Param::Biomass))) {
+        Problem p;
+        p.code = code::kFieldworkNothingUnknown;
+        p.severity = Severity::Warning;
+        p.compartment = c.name;
+        p.parameter = std::string(paramKey(param));
+        p.message = std::string(paramSymbol(param)) + " of " + c.name +
+                    " was left for the balance to solve, and its EE is given: with both given nothing is left unknown and the "
+                    "balance only checks the equation";
+        p.hint = "Clear the EE of " + c.name + " to let the balance solve it instead.";
+        problems.push_back(std::move(p));
+    }
     c.value(param) = e.value;
     conf.source = std::move(note);
     conf.cv = e.cv;

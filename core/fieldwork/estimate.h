@@ -41,7 +41,9 @@ std::string sourceNote(const Estimate& e, const std::string& date);
 // (a detritus pool's P/B, a producer's Q/B). On success sets the value, the explicit CV
 // (when the estimate has one; otherwise the CV is cleared and grade C set, this
 // project's convention for an empirical equation without a sampling CV) and the
-// source note, keeping the earlier value and source in the note.
+// source note, keeping the earlier value and source in the note. A value the balance
+// solved before (empty) while EE is given leaves the compartment with nothing unknown:
+// written all the same, with a warning (fieldwork-nothing-unknown) saying to clear EE.
 Problems writeEstimate(Model& model, std::size_t compartment, Param param, const Estimate& e, const std::string& date);
 
 // A number as the notes print it (4 significant digits).

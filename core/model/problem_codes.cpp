@@ -65,6 +65,8 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kFieldworkInvalidInput, E, "An input of a fieldwork estimate is missing or outside what the equation allows."},
     {code::kFieldworkOutsideRange, W, "An input lies outside the range of the data the empirical equation was fitted to."},
     {code::kFieldworkTarget, E, "The estimate cannot be written into that compartment or parameter."},
+    {code::kFieldworkNothingUnknown, W,
+     "An estimate filled a value the balance used to solve while EE stays given: the compartment has nothing left unknown."},
     // Flow network.
     {code::kNetworkShortfallImport, W,
      "An unbalanced flow would be negative; the shortfall enters the flow network as an import."},

@@ -154,6 +154,7 @@ inline constexpr const char* kFieldworkTooFewData = "fieldwork-too-few-data";
 inline constexpr const char* kFieldworkInvalidInput = "fieldwork-invalid-input";
 inline constexpr const char* kFieldworkOutsideRange = "fieldwork-outside-range";  // warning
 inline constexpr const char* kFieldworkTarget = "fieldwork-target";
+inline constexpr const char* kFieldworkNothingUnknown = "fieldwork-nothing-unknown";  // warning
 }  // namespace code
 
 struct ProblemCodeInfo {

@@ -510,6 +510,7 @@ bool FieldworkDialog::write()
     if (!index || (!estimate_ && !diet_)) return false;
     const std::string date = tl::utcNowIso8601();
     const QString name = compartment_->currentText();
+    QString warning;
     if (diet_) {
         tl::Project after = doc_->project();
         tl::Scenario& s = after.scenarios[std::size_t(doc_->currentIndex())];
@@ -522,9 +523,10 @@ bool FieldworkDialog::write()
         if (tl::hasErrors(p)) return showFailure(p, tr("Not written:")), false;
         doc_->editModel(after, tr("Set %1 of %2 from fieldwork (%3)")
                                    .arg(qs(std::string(tl::paramSymbol(param_))), name, qs(estimate_->method)));
+        for (const tl::Problem& w : p) warning += " " + qs(w.message) + ". " + qs(w.hint);
     }
-    status_->setText(tr("Written into scenario '%1'. Edit > Undo takes it back. %2")
-                         .arg(qs(doc_->scenario().name), decisionSupportNotice()));
+    status_->setText(tr("Written into scenario '%1'. Edit > Undo takes it back.%2 %3")
+                         .arg(qs(doc_->scenario().name), warning, decisionSupportNotice()));
     write_->setEnabled(false);
     return true;
 }

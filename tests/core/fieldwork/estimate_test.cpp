@@ -60,6 +60,23 @@ TEST(WriteEstimate, ValueCvAndSourceNote)
     EXPECT_FALSE(m.compartment(1).confidenceOf(Param::QB).cv);
 }
 
+TEST(WriteEstimate, WarnsWhenNothingIsLeftUnknown)
+{
+    Model m = twoBoxes();
+    m.compartment(1).value(Param::Biomass).reset();  // B solved from a given EE
+    m.compartment(1).value(Param::EE) = 0.9;
+    Estimate e;
+    e.value = 2.5;
+    e.valid = true;
+    const Problems p = writeEstimate(m, 1, Param::Biomass, e, "d");
+    ASSERT_EQ(p.size(), 1u);
+    EXPECT_EQ(p[0].code, code::kFieldworkNothingUnknown);
+    EXPECT_EQ(p[0].severity, Severity::Warning);
+    EXPECT_EQ(m.compartment(1).value(Param::Biomass), 2.5);  // written all the same
+    // Writing it again (B now given): no warning.
+    EXPECT_TRUE(writeEstimate(m, 1, Param::Biomass, e, "d").empty());
+}
+
 TEST(WriteEstimate, RefusesWrongTargets)
 {
     Model m = twoBoxes();
