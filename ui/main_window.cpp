@@ -39,6 +39,7 @@
 #include "ui/widgets/confidence_panel.h"
 #include "ui/widgets/editing_pages.h"
 #include "ui/widgets/help_window.h"
+#include "ui/widgets/fieldwork_dialog.h"
 #include "ui/widgets/project_settings_dialog.h"
 #include "ui/widgets/scenario_shelf.h"
 #include "ui/workbench_actions.h"
@@ -423,6 +424,12 @@ void MainWindow::buildActions()
         dialog.exec();
     });
     settingsAct_->setToolTip(tr("Units, check rules and the fleets' discard pools"));
+    project->addAction(tr("&Fieldwork…"), this, [this] {
+        FieldworkDialog dialog(doc_, this);
+        dialog.resize(std::min(1200, int(width() * 0.9)), std::min(760, int(height() * 0.9)));
+        dialog.exec();
+    })->setToolTip(tr("A parameter from survey data (hauls, lengths, stomachs) or a published equation, "
+                      "previewed with its interval, written with its CV and source"));
 
     QMenu* scenario = menuBar()->addMenu(tr("&Scenario"));
     scenario->addAction(tr("&New scenario…"), shelf_, &ScenarioShelf::askNew);

@@ -20,5 +20,6 @@ int cmdSensitivity(const Args& args);
 int cmdCompare(const Args& args);
 int cmdEnsemble(const Args& args);
 int cmdEnsembleMerge(const Args& args);
+int cmdFieldwork(const Args& args);
 
 }  // namespace tl::cli

@@ -48,6 +48,15 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
                                                included) for ensemble-merge.
   ensemble-merge PART... [--partial] [--out FILE] [--json]
                                                slices into exactly the result of one run
+  fieldwork biomass --hauls F --taxa F --compartment C [--strata F] [--catchability X1]
+            mortality --lengths F --taxon T --linf CM --k K [--method catch-curve|mean-length]
+                      [--points 4-9] [--cutoff CM]
+            mortality --method pauly1980|then-tmax|then-growth [--linf CM --k K --temperature C | --tmax Y]
+            consumption --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|detritivore]
+            diet --stomachs F --taxa F --compartment C [--summary mean|pooled]
+            each [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]
+                                               a parameter from survey data with its CV and
+                                               interval; --into writes it with a source note
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
   export    MODEL --scenario NAME --format csv|scor|json|html|pdf --out PATH
             PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH
@@ -74,6 +83,7 @@ int main(int argc, char** argv)
         {"sensitivity", tl::cli::cmdSensitivity},
         {"compare", tl::cli::cmdCompare},
         {"ensemble", tl::cli::cmdEnsemble}, {"ensemble-merge", tl::cli::cmdEnsembleMerge},
+        {"fieldwork", tl::cli::cmdFieldwork},
     };
     if (argc < 2) {
         std::cerr << kUsage;
