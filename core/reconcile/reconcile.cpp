@@ -48,8 +48,10 @@ public:
     };
 
     Phase(const ReconcileProblem& problem, bool elastic, std::vector<int> freeVariables,
-          const std::vector<char>& includedRows, const Eigen::VectorXd& base)
-        : pr_(problem), free_(std::move(freeVariables)), nf_(free_.size()), full_(base)
+          const std::vector<char>& includedRows, const Eigen::VectorXd& base, const ReconcileControl& control,
+          ReconcileProgress progress)
+        : pr_(problem), free_(std::move(freeVariables)), nf_(free_.size()), full_(base), control_(control),
+          progress_(progress)
     {
         columnOf_.assign(pr_.variableCount(), -1);
         scale_.resize(nf_);
@@ -73,6 +75,10 @@ public:
         slackCount_ = static_cast<std::size_t>(slacks);
         jac_.resize(pr_.constraints().size() * nf_);
         gradFull_.resize(pr_.variableCount());
+        progress_.elastic = elastic;
+        progress_.freeVariables = nf_;
+        evaluationsBefore_ = progress_.evaluations;
+        if (control_.progress) control_.progress(progress_);
     }
 
     std::size_t dimension() const { return nf_ + slackCount_; }
@@ -91,7 +97,13 @@ public:
 
     double objective(const double* x, double* grad)
     {
+        // NLopt's C++ wrapper turns this exception into its forced stop (nlopt.hpp).
+        if (control_.cancel && control_.cancel->load(std::memory_order_relaxed)) throw nlopt::forced_stop();
         ++evaluations_;
+        if (control_.progress && evaluations_ % kProgressEvery == 0) {
+            progress_.evaluations = evaluationsBefore_ + evaluations_;
+            control_.progress(progress_);
+        }
         double f = pr_.objective(expand(x), grad ? gradFull_.data() : nullptr);
         if (grad)
             for (std::size_t k = 0; k < nf_; ++k) grad[k] = scale_[k] * gradFull_[static_cast<std::size_t>(free_[k])];
@@ -137,6 +149,9 @@ private:
     std::vector<int> columnOf_;
     std::vector<double> scale_;
     Eigen::VectorXd full_;
+    const ReconcileControl& control_;
+    ReconcileProgress progress_;
+    int evaluationsBefore_ = 0;
     std::size_t slackCount_ = 0;
     std::vector<Row> inequalityRows_, equalityRows_;
     std::vector<double> cachedX_;
@@ -202,6 +217,8 @@ std::string runPhase(const ReconcileProblem& pr, Phase& phase, Eigen::VectorXd& 
         text = nlopt_result_to_string(static_cast<nlopt_result>(r));
     } catch (const nlopt::roundoff_limited&) {
         text = "ROUNDOFF_LIMITED";  // xs holds the last point reached
+    } catch (const nlopt::forced_stop&) {
+        text = "FORCED_STOP";  // cancelled (ReconcileControl::cancel)
     } catch (const std::runtime_error& e) {
         text = std::string("FAILURE: ") + e.what();
     } catch (const std::invalid_argument& e) {
@@ -300,15 +317,27 @@ std::string_view reconcileStatusKey(ReconcileStatus s)
     case ReconcileStatus::Balanced: return "balanced";
     case ReconcileStatus::LeastViolating: return "least_violating";
     case ReconcileStatus::Invalid: return "invalid";
+    case ReconcileStatus::Cancelled: return "cancelled";
     }
     return "";
 }
 
-ReconcileResult reconcile(const Model& model, const ReconcileOptions& options)
+ReconcileResult reconcile(const Model& model, const ReconcileOptions& options, const ReconcileControl& control)
 {
     const auto t0 = std::chrono::steady_clock::now();
     ReconcileResult result;
     result.adjusted = model;
+    auto cancelled = [&control] { return control.cancel && control.cancel->load(); };
+    auto cancelledResult = [&] {
+        ReconcileResult stopped;
+        stopped.status = ReconcileStatus::Cancelled;
+        stopped.adjusted = model;
+        stopped.problems = result.problems;
+        stopped.evaluations = result.evaluations;
+        stopped.solverResult = "FORCED_STOP";
+        stopped.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+        return stopped;
+    };
     const ReconcileProblem pr = ReconcileProblem::build(model, options);
     result.problems = pr.problems();
     if (!pr.ok()) return result;
@@ -375,9 +404,11 @@ ReconcileResult reconcile(const Model& model, const ReconcileOptions& options)
                 included[c] = 0;
                 for (int k : pattern[c]) included[c] |= isFree[static_cast<std::size_t>(k)];
             }
-            phases.push_back(std::make_unique<Phase>(pr, false, std::move(free), included, x));
+            phases.push_back(std::make_unique<Phase>(pr, false, std::move(free), included, x, control,
+                                                     ReconcileProgress{round + 1, false, result.evaluations, 0}));
             last = phases.back().get();
             result.solverResult = runPhase(pr, *last, x);
+            if (cancelled()) return cancelledResult();
             result.evaluations += last->evaluations();
             ++result.workingSetRounds;
             pr.evaluate(x, values, nullptr);
@@ -401,8 +432,10 @@ ReconcileResult reconcile(const Model& model, const ReconcileOptions& options)
                 included[c] = pattern[c].empty() && activeOrViolated(c, 0.0);
                 for (int k : pattern[c]) included[c] |= isFree[static_cast<std::size_t>(k)];
             }
-            Phase elastic(pr, true, std::move(free), included, x);
+            Phase elastic(pr, true, std::move(free), included, x, control,
+                          ReconcileProgress{result.workingSetRounds, true, result.evaluations, 0});
             result.solverResult = runPhase(pr, elastic, x);
+            if (cancelled()) return cancelledResult();
             result.evaluations += elastic.evaluations();
             result.elastic = true;
             pr.evaluate(x, values, nullptr);

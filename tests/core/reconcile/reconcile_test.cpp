@@ -1,6 +1,7 @@
 // Reconcile (core/reconcile): the smallest confidence-weighted change that balances a
 // scenario (DESIGN.md 3.6). Models are invented (reconcile_test_models.h) or the
 // project's invented samples (sample_projects/).
+#include <atomic>
 #include <cmath>
 #include <random>
 
@@ -9,6 +10,7 @@
 #include "core/balance/solver.h"
 #include "core/io/csv_model.h"
 #include "core/reconcile/reconcile.h"
+#include "core/reconcile/reconciled_scenario.h"
 #include "tests/core/reconcile/reconcile_test_models.h"
 #include "tests/support/test_support.h"
 
@@ -300,6 +302,87 @@ TEST(Reconcile, SampleLagoonReconcilesAfterADeliberateImbalance)
     });
     ASSERT_NE(it, r.changes.end());
     EXPECT_LT(it->after, it->before);
+}
+
+}  // namespace
+}  // namespace tl
+
+namespace tl {
+namespace {
+
+// ReconcileControl (the workbench's worker thread): a cancel set while SLSQP runs stops
+// it at the next evaluation and gives back the model unchanged; progress reports do not
+// change the answer.
+TEST(ReconcileControl, CancelDuringTheSolveStopsItAndChangesNothing)
+{
+    const Model m = testing::randomFoodWeb(7, 12);
+    std::atomic<bool> cancel{false};
+    int reports = 0;
+    ReconcileControl control;
+    control.cancel = &cancel;
+    control.progress = [&](const ReconcileProgress& p) {
+        ++reports;
+        EXPECT_GE(p.round, 1);
+        cancel = true;  // at the first report: the start of the first SLSQP phase
+    };
+    const ReconcileResult r = reconcile(m, {}, control);
+    ASSERT_GE(reports, 1) << "the model must need a change for this test";
+    EXPECT_EQ(r.status, ReconcileStatus::Cancelled);
+    EXPECT_EQ(reconcileStatusKey(r.status), "cancelled");
+    EXPECT_TRUE(r.adjusted == m);
+    EXPECT_TRUE(r.changes.empty());
+    EXPECT_EQ(r.evaluations, 0);  // stopped before SLSQP's first evaluation
+}
+
+TEST(ReconcileControl, ProgressReportsLeaveTheAnswerAsItIs)
+{
+    const Model m = testing::overEatingModel();
+    const ReconcileResult plain = reconcile(m);
+    std::vector<ReconcileProgress> seen;
+    ReconcileControl control;
+    control.progress = [&](const ReconcileProgress& p) { seen.push_back(p); };
+    const ReconcileResult watched = reconcile(m, {}, control);
+    ASSERT_EQ(watched.status, ReconcileStatus::Balanced);
+    EXPECT_EQ(watched.objective, plain.objective);
+    EXPECT_EQ(watched.evaluations, plain.evaluations);
+    ASSERT_FALSE(seen.empty());
+    EXPECT_EQ(seen.front().round, 1);
+    EXPECT_GT(seen.front().freeVariables, 0u);
+    for (std::size_t k = 1; k < seen.size(); ++k) EXPECT_GE(seen[k].evaluations, seen[k - 1].evaluations);
+    EXPECT_LE(seen.back().evaluations, watched.evaluations);
+}
+
+TEST(ReconciledScenario, IsANewScenarioWithParentDateAndNotes)
+{
+    Project project;
+    Scenario base;
+    base.name = "baseline";
+    base.model = testing::overEatingModel();
+    base.layout["pike"] = LayoutPosition{10.0, 20.0};
+    project.scenarios.push_back(base);
+    EXPECT_EQ(freeReconciledName(project, "baseline"), "baseline reconciled");
+    Scenario taken;
+    taken.name = "Baseline  Reconciled";  // the same name to a person (core/model/names.h)
+    project.scenarios.push_back(taken);
+    EXPECT_EQ(freeReconciledName(project, "baseline"), "baseline reconciled 2");
+
+    const ReconcileResult r = reconcile(base.model);
+    ASSERT_EQ(r.status, ReconcileStatus::Balanced);
+    const Scenario made = reconciledScenario(base, r, "fixed", "2026-12-02T10:00:00Z");
+    EXPECT_EQ(made.name, "fixed");
+    EXPECT_EQ(made.parent, "baseline");
+    EXPECT_EQ(made.created, "2026-12-02T10:00:00Z");
+    EXPECT_EQ(made.layout, base.layout);
+    EXPECT_EQ(made.description.rfind("reconciled from 'baseline'", 0), 0u) << made.description;
+    EXPECT_FALSE(made.model == base.model);
+    // Every changed B, P/B or Q/B carries its note (method, date, value before).
+    for (const ReconcileChange& ch : r.changes) {
+        if (ch.param == AdjustParam::Diet || ch.param == AdjustParam::Catch) continue;
+        const Param p = ch.param == AdjustParam::Biomass ? Param::Biomass : ch.param == AdjustParam::PB ? Param::PB : Param::QB;
+        if (!base.model.compartment(ch.compartment).value(p)) continue;
+        EXPECT_NE(made.model.compartment(ch.compartment).confidenceOf(p).source.find("reconciled 2026-12-02T10:00:00Z"),
+                  std::string::npos);
+    }
 }
 
 }  // namespace
