@@ -11,7 +11,9 @@
 //      objective gradient is 0 there), so the answer is a KKT point of the whole
 //      problem while SLSQP (dense, cost ~ cube of the variable count) sees only the
 //      inputs near the imbalance. SLSQP works on scaled variables y = (x - x0) / (CV s),
-//      in which the objective is sum y^2.
+//      in which the objective is sum y^2. A working set too large for dense SLSQP
+//      (ReconcileOptions::slsqpFreeVariableLimit) is solved by NLopt's augmented
+//      Lagrangian with L-BFGS first, SLSQP polishing only if a constraint still fails.
 //   3. When that ends with a constraint still violated (the model is infeasible within
 //      its pins and bounds, or SLSQP stalled), the elastic form: every model constraint
 //      gets a slack t_k >= 0 (g_k - t_k <= 0; for an equality, |h_k| <= t_k) and the
