@@ -194,28 +194,32 @@ std::string optimisePhase(nlopt::algorithm algorithm, Phase& phase, const std::v
                           const std::vector<double>& upper, std::vector<double>& xs)
 {
     const std::size_t n = phase.dimension();
-    nlopt::opt opt(algorithm, static_cast<unsigned>(n));
-    if (algorithm == nlopt::AUGLAG) {
-        // The inner solves see f + the augmented-Lagrangian terms, bounds only.
-        nlopt::opt inner(nlopt::LD_LBFGS, static_cast<unsigned>(n));
-        inner.set_ftol_rel(1e-14);
-        inner.set_xtol_rel(1e-12);
-        inner.set_maxeval(5000);
-        opt.set_local_optimizer(inner);
-    }
-    opt.set_lower_bounds(lower);
-    opt.set_upper_bounds(upper);
-    opt.set_min_objective(objectiveCallback, &phase);
-    if (!phase.inequalityRows().empty())
-        opt.add_inequality_mconstraint(inequalityCallback, &phase,
-                                       std::vector<double>(phase.inequalityRows().size(), kInequalityTolerance));
-    if (!phase.equalityRows().empty())
-        opt.add_equality_mconstraint(equalityCallback, &phase, std::vector<double>(phase.equalityRows().size(), kEqualityTolerance));
-    opt.set_ftol_rel(1e-12);
-    opt.set_xtol_rel(1e-12);
-    opt.set_maxeval(20000);
-    double f = 0.0;
+    // Everything inside the try: NLopt also refuses a problem while it is being set up
+    // (more equality rows than variables: "too many equality constraints"), and the
+    // caller then goes on to the elastic phase rather than failing.
     try {
+        nlopt::opt opt(algorithm, static_cast<unsigned>(n));
+        if (algorithm == nlopt::AUGLAG) {
+            // The inner solves see f + the augmented-Lagrangian terms, bounds only.
+            nlopt::opt inner(nlopt::LD_LBFGS, static_cast<unsigned>(n));
+            inner.set_ftol_rel(1e-14);
+            inner.set_xtol_rel(1e-12);
+            inner.set_maxeval(5000);
+            opt.set_local_optimizer(inner);
+        }
+        opt.set_lower_bounds(lower);
+        opt.set_upper_bounds(upper);
+        opt.set_min_objective(objectiveCallback, &phase);
+        if (!phase.inequalityRows().empty())
+            opt.add_inequality_mconstraint(inequalityCallback, &phase,
+                                           std::vector<double>(phase.inequalityRows().size(), kInequalityTolerance));
+        if (!phase.equalityRows().empty())
+            opt.add_equality_mconstraint(equalityCallback, &phase,
+                                         std::vector<double>(phase.equalityRows().size(), kEqualityTolerance));
+        opt.set_ftol_rel(1e-12);
+        opt.set_xtol_rel(1e-12);
+        opt.set_maxeval(20000);
+        double f = 0.0;
         const nlopt::result r = opt.optimize(xs, f);
         return nlopt_result_to_string(static_cast<nlopt_result>(r));
     } catch (const nlopt::roundoff_limited&) {
@@ -263,6 +267,7 @@ std::string runPhase(const ReconcileProblem& pr, Phase& phase, Eigen::VectorXd& 
                 t = std::max(t, row.sign * values[static_cast<Eigen::Index>(row.constraint)] + 1e-6);
             }
     }
+    if (n == 0) return "nothing can move";  // no input of this phase is free to change
     std::string text;
     if (!elastic && free.size() > slsqpLimit) {
         text = "AUGLAG " + optimisePhase(nlopt::AUGLAG, phase, lower, upper, xs);

@@ -16,6 +16,7 @@
 #include <QTableWidget>
 #include <QVBoxLayout>
 #include <cmath>
+#include <tuple>
 
 #include "core/balance/solver.h"
 #include "core/model/text.h"
@@ -156,6 +157,31 @@ QWidget* ReconcileDialog::buildSettingsPage()
         move_[std::size_t(k.p)] = box;
         moveRow->addWidget(box);
     }
+    // Diet shares and catch have no confidence of their own in the project (a diet entry
+    // keeps only its share), so one CV each stands in for them (ReconcileOptions).
+    const tl::ReconcileOptions defaults;
+    auto cvEdit = [page](double value, const QString& tip) {
+        auto* e = new QLineEdit(number(value), page);
+        e->setToolTip(tip);
+        e->setMaximumWidth(70);
+        return e;
+    };
+    dietCv_ = cvEdit(defaults.dietCv, tr("CV of every diet share: the project keeps no confidence per diet entry"));
+    catchCv_ = cvEdit(defaults.catchCv, tr("CV of every catch figure, when catch may move"));
+    auto* dietCvLabel = new QLabel(tr("Diet share CV:"), page);
+    dietCvLabel->setBuddy(dietCv_);
+    auto* catchCvLabel = new QLabel(tr("Catch CV:"), page);
+    catchCvLabel->setBuddy(catchCv_);
+    auto* cvBox = new QWidget(page);  // kept together when the row wraps
+    auto* cvRow = new QHBoxLayout(cvBox);
+    cvRow->setContentsMargins(12, 0, 0, 0);
+    cvRow->setSpacing(4);
+    cvRow->addWidget(dietCvLabel);
+    cvRow->addWidget(dietCv_);
+    cvRow->addSpacing(12);
+    cvRow->addWidget(catchCvLabel);
+    cvRow->addWidget(catchCv_);
+    moveRow->addWidget(cvBox);
     moves->setLayout(moveRow);
 
     auto* help = new QLabel(tr("Per compartment: EE bounds and P/Q range (defaults from Project settings; empty EE min: "
@@ -272,6 +298,15 @@ std::optional<tl::ReconcileOptions> ReconcileDialog::options(QString* why) const
         if (why) *why = tr("Tick at least one kind of input that may move.");
         return std::nullopt;
     }
+    for (const auto& [edit, target, label] : {std::tuple{dietCv_, &o.dietCv, tr("Diet share CV")},
+                                               std::tuple{catchCv_, &o.catchCv, tr("Catch CV")}}) {
+        const auto v = parseNumber(edit->text());
+        if (!v || !(*v > 0.0) || *v > 10.0) {
+            if (why) *why = tr("%1: '%2' is not a number above 0 and at most 10.").arg(label, edit->text());
+            return std::nullopt;
+        }
+        *target = *v;
+    }
     const tl::BalanceRules& rules = model_.rules;
     auto header = [this](int col) { return table_->horizontalHeaderItem(col)->text(); };
     for (int r = 0; r < table_->rowCount(); ++r) {
@@ -353,6 +388,8 @@ void ReconcileDialog::setRunning(bool on)
     busy_->setVisible(on);
     table_->setEnabled(!on);
     for (QCheckBox* box : move_) box->setEnabled(!on);
+    dietCv_->setEnabled(!on);
+    catchCv_->setEnabled(!on);
     if (on) cancel_->setFocus();
     else progress_->clear();
 }
@@ -571,7 +608,9 @@ void ReconcileDialog::fillReport()
         QString text = qs(c.constraint);
         if (!c.relax.empty()) {
             QStringList relax;
-            for (const std::string& s : c.relax) relax << qs(s);
+            // The core's words name the CLI option; here the same choice is a tick box.
+            for (const std::string& s : c.relax)
+                relax << qs(s).replace(QStringLiteral(" (--move)"), tr(" (tick it under Inputs that may move)"));
             text += QStringLiteral("\n    ") + tr("to relax: %1").arg(relax.join(QStringLiteral("; ")));
         }
         auto* item = new QListWidgetItem(severityIcon(tl::Severity::Error), text, conflicts_);
@@ -579,14 +618,20 @@ void ReconcileDialog::fillReport()
     }
     conflictBox_->setVisible(!r.conflicts.empty());
 
-    const bool keep = r.status == tl::ReconcileStatus::Balanced || r.status == tl::ReconcileStatus::LeastViolating;
+    // A least-violating answer that changes nothing would only be a copy of the scenario.
+    const bool keep = (r.status == tl::ReconcileStatus::Balanced || r.status == tl::ReconcileStatus::LeastViolating) &&
+                      !r.changes.empty();
     name_->setEnabled(keep);
     create_->setEnabled(keep);
     name_->setText(keep ? qs(tl::freeReconciledName(doc_->project(), doc_->project().scenarios[std::size_t(from_)].name))
                         : QString());
     create_->setText(r.status == tl::ReconcileStatus::LeastViolating ? tr("&Create scenario (not balanced)")
                                                                      : tr("&Create scenario"));
-    createNote_->setText(keep ? QString() : tr("Nothing to keep: the scenario is unchanged."));
+    createNote_->setText(keep ? QString()
+                              : r.status == tl::ReconcileStatus::LeastViolating
+                                  ? tr("Nothing to keep: no input could move toward balance. Relax what the conflicts "
+                                       "name and run again.")
+                                  : tr("Nothing to keep: the scenario is unchanged."));
     createNote_->setVisible(!keep);
 }
 

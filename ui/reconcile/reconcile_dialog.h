@@ -2,7 +2,9 @@
 // the current scenario's inputs that balances it (core/reconcile, DESIGN 3.6), in two
 // pages.
 //
-//   Settings  which kinds of input may move; per living compartment its EE maximum and
+//   Settings  which kinds of input may move and the CV that stands in for diet shares
+//             and catch (the project keeps no confidence for them); per living
+//             compartment its EE maximum and
 //             minimum, its P/Q range (consumers) and pins (click a cell to hold B, P/B,
 //             Q/B, the diet or the catch where it is). Run starts the solve on a worker
 //             thread (ReconcileRunner): the window stays live, a busy bar and counts
@@ -70,6 +72,7 @@ public:
     QTableWidget* settingsTable() const { return table_; }
     QCheckBox* moveCheck(tl::AdjustParam p) const { return move_[std::size_t(p)]; }
     QLineEdit* nameEdit() const { return name_; }
+    QLineEdit* dietCvEdit() const { return dietCv_; }
     QPushButton* createButton() const { return create_; }
     QTableWidget* changesTable() const { return changes_; }
     EeChangeChart* chart() const { return chart_; }
@@ -103,6 +106,8 @@ private:
 
     QStackedWidget* pages_;
     QCheckBox* move_[tl::kAdjustParamCount] = {};
+    QLineEdit* dietCv_;
+    QLineEdit* catchCv_;
     QTableWidget* table_;
     QLabel* message_;
     QPushButton* run_;

@@ -448,3 +448,29 @@ TEST(ReconcileSolverPaths, FarFromBalanceBothPathsBalanceTheWeb)
 
 }  // namespace
 }  // namespace tl
+
+namespace tl {
+namespace {
+
+// Found by the dialog's test: with only catch allowed to move, no input reaches the
+// over-eaten chironomid larvae of the sample reservoir, and the first phase had more
+// equality rows (given EE) than free variables; NLopt's refusal escaped as an
+// exception and ended the program. It is a least-violating answer naming the conflict.
+TEST(Reconcile, NothingThatCanReachTheImbalanceNamesTheConflictInsteadOfFailing)
+{
+    const Model m = testing::fixtureModel(std::filesystem::path(TL_SAMPLES_DIR) / "reservoir");
+    ReconcileOptions o;
+    o.moveBiomass = o.movePB = o.moveQB = o.moveDiet = false;
+    o.moveCatch = true;
+    const ReconcileResult r = reconcile(m, o);
+    ASSERT_EQ(r.status, ReconcileStatus::LeastViolating) << r.solverResult;
+    ASSERT_FALSE(r.conflicts.empty());
+    const auto it = std::find_if(r.conflicts.begin(), r.conflicts.end(), [](const ReconcileConflict& c) {
+        return c.constraint == "EE of Chironomid larvae <= 1";
+    });
+    ASSERT_NE(it, r.conflicts.end());
+    EXPECT_NE(std::find(it->relax.begin(), it->relax.end(), "let b move (--move)"), it->relax.end());
+}
+
+}  // namespace
+}  // namespace tl

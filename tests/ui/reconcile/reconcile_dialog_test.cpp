@@ -200,6 +200,14 @@ private slots:
         dialog.settingsTable()->item(pike, ReconcileDialog::PQMaxColumn)->setText(QStringLiteral("0.5"));
         QVERIFY(!dialog.options(&why));
         QVERIFY2(why.contains(QStringLiteral("at least one kind")), qPrintable(why));
+        dialog.moveCheck(tl::AdjustParam::Diet)->setChecked(true);
+        dialog.dietCvEdit()->setText(QStringLiteral("0"));
+        QVERIFY(!dialog.options(&why));
+        QVERIFY2(why.contains(QStringLiteral("Diet share CV")), qPrintable(why));
+        dialog.dietCvEdit()->setText(QStringLiteral("0.2"));
+        const auto o = dialog.options(&why);
+        QVERIFY2(o, qPrintable(why));
+        QCOMPARE(o->dietCv, 0.2);
     }
 
     void pinsAndBoundsReachTheSolve()
@@ -225,6 +233,34 @@ private slots:
             QVERIFY(!(ch.compartment == c && (ch.param == tl::AdjustParam::Biomass || ch.param == tl::AdjustParam::PB)));
             if (ch.compartment == bird) QVERIFY(ch.param != tl::AdjustParam::PB);  // its own P/Q range holds
         }
+    }
+
+    void aModelThatCannotBalanceShowsTheConflict()
+    {
+        // Only catch may move: nothing reaches the over-eaten chironomid larvae, so the
+        // answer is least-violating and names the EE in conflict with what to relax.
+        ReconcileDialog dialog(doc_.get());
+        for (auto p : {tl::AdjustParam::Biomass, tl::AdjustParam::PB, tl::AdjustParam::QB, tl::AdjustParam::Diet})
+            dialog.moveCheck(p)->setChecked(false);
+        dialog.moveCheck(tl::AdjustParam::Catch)->setChecked(true);
+        dialog.resize(1100, 760);
+        dialog.show();
+        QVERIFY(dialog.run());
+        QTRY_VERIFY_WITH_TIMEOUT(dialog.showingReport(), kSolveTimeoutMs);
+        QCOMPARE(dialog.result()->status, tl::ReconcileStatus::LeastViolating);
+        QVERIFY(dialog.conflictList()->isVisible());
+        QVERIFY(dialog.conflictList()->count() >= 1);
+        const QString first = dialog.conflictList()->item(0)->text();
+        QVERIFY2(first.contains(QStringLiteral("Chironomid larvae")) || dialog.conflictList()->count() > 1, qPrintable(first));
+        QVERIFY2(first.contains(QStringLiteral("to relax")), qPrintable(first));
+        QVERIFY(dialog.summaryLabel()->text().contains(QStringLiteral("cannot balance")));
+        QVERIFY(dialog.createButton()->text().contains(QStringLiteral("not balanced")));
+        QVERIFY(first.contains(QStringLiteral("tick it under Inputs that may move")));
+        // Nothing moved (only catch may, and no catch reaches the larvae): nothing to keep.
+        QVERIFY(dialog.result()->changes.empty());
+        QVERIFY(!dialog.createButton()->isEnabled());
+        if (!qEnvironmentVariableIsEmpty("TL_SNAPSHOT_DIR"))
+            dialog.grab().save(qEnvironmentVariable("TL_SNAPSHOT_DIR") + QStringLiteral("/reconcile-conflict.png"));
     }
 
     void takenNameIsRefusedAndNothingChanges()
