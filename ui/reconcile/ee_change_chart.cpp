@@ -57,6 +57,7 @@ QString EeChangeChart::subtitle() const { return subtitle_->text(); }
 
 void EeChangeChart::clearResult()
 {
+    result_.reset();
     clearPlottables();
     clearItems();
     rows_.clear();
@@ -64,17 +65,42 @@ void EeChangeChart::clearResult()
     replot();
 }
 
-void EeChangeChart::showResult(const tl::Model& model, const tl::ReconcileResult& result)
+void EeChangeChart::showResult(const tl::Model& model, std::shared_ptr<const tl::ReconcileResult> result)
+{
+    model_ = model;
+    result_ = std::move(result);
+    draw();
+}
+
+// Rows that stay readable in the height the plot has now: one text line and a little
+// air each, after the title, subtitle, axis and legend (about 150 px; measured on the
+// snapshots at 1024 x 700).
+std::size_t EeChangeChart::rowCapacity() const
+{
+    const int line = fontMetrics().height() + 3;
+    return std::size_t(std::clamp((height() - 150) / line, 5, kMaxRows));
+}
+
+void EeChangeChart::resizeEvent(QResizeEvent* event)
+{
+    QCustomPlot::resizeEvent(event);
+    if (result_ && rowCapacity() != drawnCapacity_) draw();
+}
+
+void EeChangeChart::draw()
 {
     clearPlottables();
     clearItems();
+    if (!result_) return;
+    const tl::Model& model = model_;
+    const tl::ReconcileResult& result = *result_;
     const double eeMax = model.rules.eeMax;
     std::size_t living = 0;
     for (std::size_t i = 0; i < model.size(); ++i) living += model.compartment(i).isLiving();
-    rows_ = eeChartRows(model, result, eeMax, kMaxRows);
+    drawnCapacity_ = rowCapacity();
+    rows_ = eeChartRows(model, result, eeMax, drawnCapacity_);
     subtitle_->setText(rows_.size() < living
-                           ? tr("%1 of %2 living compartments: those above the EE maximum before, then the largest "
-                                "changes")
+                           ? tr("%1 of %2 living compartments shown\n(over EE max first, then largest changes)")
                                  .arg(rows_.size())
                                  .arg(living)
                            : tr("every living compartment, highest EE before at the top"));

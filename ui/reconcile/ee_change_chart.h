@@ -1,12 +1,14 @@
 // EeChangeChart: the before/after EE chart of a reconcile report, as horizontal bar
 // pairs (one row per compartment, names readable at any length) with the project's EE
-// maximum as a dashed line. A large model would give an unreadable forest of bars, so
-// the chart shows at most kMaxRows compartments: every one above its EE maximum before
-// the change, then those whose EE moved most, and its subtitle says which were left out.
+// maximum as a dashed line. A large model (or a small window) would give an unreadable
+// forest of bars, so the chart shows as many compartments as its height gives a
+// readable row (at most kMaxRows): every one above its EE maximum before the change,
+// then those whose EE moved most; its subtitle says how many were left out.
 // A view: the EE values are the core's (ReconcileResult::eeBefore / eeAfter).
 #pragma once
 
 #include <QString>
+#include <memory>
 #include <qcustomplot.h>
 
 #include "core/reconcile/reconcile.h"
@@ -20,8 +22,9 @@ public:
 
     explicit EeChangeChart(QWidget* parent = nullptr);
 
-    // Draws the EE of `model`'s living compartments before and after `result`.
-    void showResult(const tl::Model& model, const tl::ReconcileResult& result);
+    // Draws the EE of `model`'s living compartments before and after `result` (kept, so
+    // that a resize can show more or fewer rows).
+    void showResult(const tl::Model& model, std::shared_ptr<const tl::ReconcileResult> result);
     void clearResult();
 
     // The compartments drawn, top row first (tests).
@@ -30,8 +33,17 @@ public:
 
     QSize minimumSizeHint() const override { return {320, 220}; }
 
+protected:
+    void resizeEvent(QResizeEvent* event) override;
+
 private:
+    std::size_t rowCapacity() const;
+    void draw();
+
+    tl::Model model_;
+    std::shared_ptr<const tl::ReconcileResult> result_;
     std::vector<std::size_t> rows_;
+    std::size_t drawnCapacity_ = 0;
     QCPTextElement* subtitle_;
 };
 

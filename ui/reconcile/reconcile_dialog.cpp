@@ -597,7 +597,7 @@ void ReconcileDialog::fillReport()
         const double share = 100.0 * ch.objectiveShare;
         changes_->setItem(k, 6, right(share >= 1.0 ? QString::number(share, 'f', 1) : QString::number(share, 'g', 2)));
     }
-    chart_->showResult(m, r);
+    chart_->showResult(m, result_);
 
     binding_->clear();
     for (const std::string& b : r.binding) binding_->addItem(qs(b));
