@@ -813,10 +813,10 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
         written << file;
         return true;
     };
-    if (!grabDialog(QStringLiteral("reconcile-settings"))) return written;
+    if (!grabDialog(QStringLiteral("dialog-reconcile-settings"))) return written;
     if (dialog.run()) {
         dialog.runner()->waitForIdle();
-        if (dialog.showingReport() && !grabDialog(QStringLiteral("reconcile-report"))) return written;
+        if (dialog.showingReport() && !grabDialog(QStringLiteral("dialog-reconcile-report"))) return written;
     }
     dialog.reject();
     showPage(0);
