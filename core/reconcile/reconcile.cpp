@@ -148,8 +148,12 @@ private:
 
     void refresh(const double* x, bool needJacobian)
     {
-        const bool same = cachedX_.size() == nf_ && std::equal(cachedX_.begin(), cachedX_.end(), x);
+        // `evaluated_`: with no free variable every x looks the same as the empty cache,
+        // so the first call must still evaluate (found when AUGLAG, which asks for
+        // values without gradients first, read values_ before anything filled it).
+        const bool same = evaluated_ && std::equal(cachedX_.begin(), cachedX_.end(), x);
         if (same && (haveJacobian_ || !needJacobian)) return;
+        evaluated_ = true;
         cachedX_.assign(x, x + nf_);
         pr_.evaluate(expand(x), values_, needJacobian ? jac_.data() : nullptr, &columnOf_, nf_);
         haveJacobian_ = needJacobian;
@@ -170,6 +174,7 @@ private:
     Eigen::VectorXd values_;
     std::vector<double> jac_, gradFull_;
     bool haveJacobian_ = false;
+    bool evaluated_ = false;
     int evaluations_ = 0;
 };
 
