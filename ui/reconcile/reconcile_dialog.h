@@ -80,6 +80,7 @@ public:
     QListWidget* conflictList() const { return conflicts_; }
     QLabel* summaryLabel() const { return summary_; }
     QLabel* messageLabel() const { return message_; }
+    QLabel* progressLabel() const { return progress_; }
     bool showingReport() const;
     void showSettings();
 

@@ -146,7 +146,10 @@ private slots:
         ReconcileDialog dialog(doc_.get());
         QVERIFY(dialog.run());
         QVERIFY(dialog.running());
+        QVERIFY2(dialog.progressLabel()->text().startsWith(QStringLiteral("Solving")),
+                 qPrintable(dialog.progressLabel()->text()));
         dialog.cancelRun();
+        QCOMPARE(dialog.progressLabel()->text(), QStringLiteral("Stopping…"));
         QTRY_VERIFY_WITH_TIMEOUT(!dialog.running(), kSolveTimeoutMs);
         QVERIFY(!dialog.showingReport());
         QVERIFY(!dialog.result());
