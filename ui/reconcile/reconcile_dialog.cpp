@@ -8,7 +8,6 @@
 #include <QLabel>
 #include <QLineEdit>
 #include <QListWidget>
-#include <QLocale>
 #include <QProgressBar>
 #include <QPushButton>
 #include <QSplitter>
@@ -27,6 +26,7 @@
 #include "ui/reconcile/reconcile_runner.h"
 #include "ui/style/palette.h"
 #include "ui/style/wrapping_row.h"
+#include "ui/widgets/number_text.h"
 #include "ui/widgets/scenario_shelf.h"
 
 namespace tl::ui {
@@ -34,16 +34,6 @@ namespace {
 
 QString qs(const std::string& s) { return QString::fromStdString(s); }
 QString number(double v) { return QString::number(v, 'g', 4); }
-
-// Numbers as the tables take them: C locale ("0.05"), also the user's locale.
-std::optional<double> parseNumber(const QString& text)
-{
-    bool ok = false;
-    double v = text.trimmed().toDouble(&ok);
-    if (!ok) v = QLocale().toDouble(text.trimmed(), &ok);
-    if (!ok || !std::isfinite(v)) return std::nullopt;
-    return v;
-}
 
 QTableWidgetItem* readOnlyItem(const QString& text)
 {
@@ -300,7 +290,7 @@ std::optional<tl::ReconcileOptions> ReconcileDialog::options(QString* why) const
     }
     for (const auto& [edit, target, label] : {std::tuple{dietCv_, &o.dietCv, tr("Diet share CV")},
                                                std::tuple{catchCv_, &o.catchCv, tr("Catch CV")}}) {
-        const auto v = parseNumber(edit->text());
+        const auto v = parseTypedNumber(edit->text());
         if (!v || !(*v > 0.0) || *v > 10.0) {
             if (why) *why = tr("%1: '%2' is not a number above 0 and at most 10.").arg(label, edit->text());
             return std::nullopt;
@@ -316,7 +306,7 @@ std::optional<tl::ReconcileOptions> ReconcileDialog::options(QString* why) const
         auto cell = [&](int col, bool& bad) -> std::optional<double> {
             const QTableWidgetItem* item = table_->item(r, col);
             if (!item || !(item->flags() & Qt::ItemIsEditable) || item->text().trimmed().isEmpty()) return std::nullopt;
-            const auto v = parseNumber(item->text());
+            const auto v = parseTypedNumber(item->text());
             if (!v || !(*v > 0.0)) {
                 bad = true;
                 if (why) *why = tr("%1 of %2: '%3' is not a positive number.").arg(header(col), name, item->text());
