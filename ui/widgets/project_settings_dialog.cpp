@@ -8,7 +8,6 @@
 #include <QLineEdit>
 #include <QScrollArea>
 #include <QVBoxLayout>
-#include <cmath>
 
 #include "ui/document/project_document.h"
 #include "ui/widgets/number_text.h"
