@@ -34,6 +34,8 @@
 #include "core/model/problem_fixes.h"
 #include "ui/document/project_document.h"
 #include "ui/document/recovery_file.h"
+#include "ui/reconcile/reconcile_dialog.h"
+#include "ui/reconcile/reconcile_runner.h"
 #include "ui/style/palette.h"
 #include "ui/widgets/checks_panel.h"
 #include "ui/widgets/confidence_panel.h"
@@ -436,6 +438,15 @@ void MainWindow::buildActions()
     scenario->addAction(tr("&Duplicate scenario…"), shelf_, &ScenarioShelf::askDuplicate);
     scenario->addAction(tr("&Rename scenario…"), shelf_, &ScenarioShelf::askRename);
     scenario->addAction(tr("De&lete scenario…"), shelf_, &ScenarioShelf::askDelete);
+    scenario->addSeparator();
+    reconcileAct_ = scenario->addAction(tr("Re&concile…"), this, [this] {
+        ReconcileDialog dialog(doc_, this);
+        connect(&dialog, &ReconcileDialog::scenarioCreated, this, [this](const QString& name) {
+            message(tr("Scenario %1 created from the reconcile; Edit > Undo removes it").arg(name));
+        });
+        dialog.exec();
+    });
+    reconcileAct_->setToolTip(tr("Find the smallest confidence-weighted change that balances this scenario, as a new scenario"));
 
     viewMenu_ = menuBar()->addMenu(tr("&View"));
     for (int i = 0; i < pageCount(); ++i) {
@@ -839,6 +850,25 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
         }
         written << file;
     }
+    // The Reconcile dialog on the current scenario: its settings, then its report.
+    ReconcileDialog dialog(doc_, this);
+    dialog.show();
+    auto grabDialog = [&](const QString& key) {
+        for (int k = 0; k < 5; ++k) QApplication::processEvents();
+        const QString file = QStringLiteral("%1/%2-%3.png").arg(dir).arg(written.size() + 1, 2, 10, QLatin1Char('0')).arg(key);
+        if (!dialog.grab().toImage().save(file)) {
+            if (error) *error = tr("Cannot write %1.").arg(file);
+            return false;
+        }
+        written << file;
+        return true;
+    };
+    if (!grabDialog(QStringLiteral("dialog-reconcile-settings"))) return written;
+    if (dialog.run()) {
+        dialog.runner()->waitForIdle();
+        if (dialog.showingReport() && !grabDialog(QStringLiteral("dialog-reconcile-report"))) return written;
+    }
+    dialog.reject();
     showPage(0);
     return written;
 }

@@ -75,6 +75,7 @@ public:
     QAction* reportAction() const { return reportAct_; }
     QAction* settingsAction() const { return settingsAct_; }
     QAction* userGuideAction() const { return guideAct_; }
+    QAction* reconcileAction() const { return reconcileAct_; }  // Scenario > Reconcile…
     bool writeReport(const QString& path, QString* error);
 
     // Files. Each returns false (after telling the user, unless quiet) on failure.
@@ -159,6 +160,7 @@ private:
     QAction* reportAct_ = nullptr;
     QAction* settingsAct_ = nullptr;
     QAction* guideAct_ = nullptr;
+    QAction* reconcileAct_ = nullptr;
 };
 
 }  // namespace tl::ui
