@@ -13,10 +13,15 @@
 //                (written as P/B = M + F, F = catch / B of the scenario)
 //   consumption  --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|
 //                detritivore]                                          -> Q/B
+//   uncertainty of the empirical equations (M, Q/B): --linf-se|--linf-cv, --k-se|--k-cv,
+//                --temperature-se, --tmax-se|--tmax-cv, --winf-se|--winf-cv,
+//                --aspect-ratio-se, --residual-sd (SD of ln result) -> a CV and interval
+//                (delta method, core/fieldwork/empirical_equations.h) instead of grade C
 //   diet         --stomachs F --taxa F --compartment C [--summary mean|pooled]
 //                -> the diet row of C (its note goes to the scenario description)
 // Warnings (an input outside an equation's fitted range) are part of the text and JSON output.
 // Exit: 0 estimated (and written), 2 bad input (the file, line and column, or the option).
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <functional>
@@ -47,6 +52,9 @@ constexpr const char* kUsage =
     "       tledger fieldwork mortality --method then-tmax --tmax YEARS | --method then-growth --linf CM --k K\n"
     "       tledger fieldwork consumption --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|detritivore]\n"
     "       tledger fieldwork diet --stomachs F --taxa F --compartment C [--summary mean|pooled]\n"
+    "  M and Q/B equations: [--linf-se CM|--linf-cv X] [--k-se K|--k-cv X] [--temperature-se C]\n"
+    "                       [--tmax-se YEARS|--tmax-cv X] [--winf-se G|--winf-cv X] [--aspect-ratio-se A]\n"
+    "                       [--residual-sd SD-OF-LN]\n"
     "  each: [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]\n";
 
 void printProblems(const Problems& problems)
@@ -81,6 +89,65 @@ bool require(const ParsedOptions& o, std::initializer_list<const char*> names, c
             ok = false;
         }
     return ok;
+}
+
+// The standard errors an empirical equation may be given. --NAME-se is in the input's
+// own unit, --NAME-cv a fraction of its value (L∞, K, tmax and W∞ only); both for one
+// input, a negative number, or one given to a method that does not use it is refused.
+constexpr const char* kUncertaintyOptions[] = {"--linf-se", "--linf-cv", "--k-se", "--k-cv", "--temperature-se",
+                                                "--tmax-se", "--tmax-cv", "--winf-se", "--winf-cv",
+                                                "--aspect-ratio-se", "--residual-sd"};
+
+std::optional<EquationUncertainty> uncertaintyOf(const ParsedOptions& o, const std::string& method,
+                                                 std::initializer_list<const char*> used, double level,
+                                                 const char* note = "")
+{
+    bool ok = true;
+    for (const char* name : kUncertaintyOptions) {
+        const bool isUsed = std::any_of(used.begin(), used.end(), [&](const char* u) {
+            return std::string(name).rfind(u, 0) == 0 || std::string(name) == "--residual-sd";
+        });
+        if (o.value(name) && !isUsed) {
+            std::cerr << "tledger fieldwork: " << name << " is not used by " << method
+                      << note << '\n';
+            ok = false;
+        }
+    }
+    if (!ok) return std::nullopt;
+    auto nonNegative = [&](const std::string& name) -> double {
+        const auto text = o.value(name);
+        if (!text) return 0.0;
+        const auto v = parseNumber(trim(*text));
+        if (!v || !(*v >= 0.0)) {
+            std::cerr << "tledger fieldwork: " << name << " '" << *text
+                      << "': expected zero or a positive number with '.' as decimal mark\n";
+            ok = false;
+            return 0.0;
+        }
+        return *v;
+    };
+    // SE of an input from --X-se, or from --X-cv times its value.
+    auto seOf = [&](const std::string& stem, std::optional<double> value) -> double {
+        const bool hasSe = o.value(stem + "-se").has_value(), hasCv = o.value(stem + "-cv").has_value();
+        if (hasSe && hasCv) {
+            std::cerr << "tledger fieldwork: give " << stem << "-se or " << stem << "-cv, not both\n";
+            ok = false;
+            return 0.0;
+        }
+        return hasCv ? nonNegative(stem + "-cv") * value.value_or(0.0) : nonNegative(stem + "-se");
+    };
+    bool numbersOk = true;
+    EquationUncertainty u;
+    u.ciLevel = level;
+    u.linfSe = seOf("--linf", numberOption(o, "--linf", numbersOk));
+    u.kSe = seOf("--k", numberOption(o, "--k", numbersOk));
+    u.tmaxSe = seOf("--tmax", numberOption(o, "--tmax", numbersOk));
+    u.winfSe = seOf("--winf", numberOption(o, "--winf", numbersOk));
+    u.temperatureSe = nonNegative("--temperature-se");
+    u.aspectRatioSe = nonNegative("--aspect-ratio-se");
+    u.residualSdLn = nonNegative("--residual-sd");
+    if (!ok || !numbersOk) return std::nullopt;
+    return u;
 }
 
 // "4-9" or "4,5,6" (1-based point numbers as the table prints them) -> 0-based indices.
@@ -263,6 +330,9 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
     MeanLengthResult meanLength;
     if (method == "catch-curve" || method == "mean-length") {
         if (!require(o, {"--lengths", "--taxon", "--linf", "--k"}, "mortality")) return 2;
+        if (!uncertaintyOf(o, "mortality --method " + method, {}, level,
+                           " (it takes L∞ and K as known)"))
+            return 2;
         const auto lengths = readLengths(*o.value("--lengths"));
         if (!lengths.value) return failed(lengths.problems);
         const std::string taxon(trim(*o.value("--taxon")));
@@ -304,16 +374,20 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
     } else if (method == "pauly1980") {
         if (!require(o, {"--linf", "--k", "--temperature"}, "mortality --method pauly1980")) return 2;
         const auto t = numberOption(o, "--temperature", ok, false);
-        if (!ok) return 2;
-        e = paulyNaturalMortality(*linf, *k, *t);
+        const auto u = uncertaintyOf(o, "mortality --method pauly1980", {"--linf", "--k", "--temperature"}, level);
+        if (!ok || !u) return 2;
+        e = paulyNaturalMortality(*linf, *k, *t, *u);
     } else if (method == "then-tmax") {
         if (!require(o, {"--tmax"}, "mortality --method then-tmax")) return 2;
         const auto tmax = numberOption(o, "--tmax", ok);
-        if (!ok) return 2;
-        e = thenMortalityFromMaxAge(*tmax);
+        const auto u = uncertaintyOf(o, "mortality --method then-tmax", {"--tmax"}, level);
+        if (!ok || !u) return 2;
+        e = thenMortalityFromMaxAge(*tmax, *u);
     } else if (method == "then-growth") {
         if (!require(o, {"--linf", "--k"}, "mortality --method then-growth")) return 2;
-        e = thenMortalityFromGrowth(*linf, *k);
+        const auto u = uncertaintyOf(o, "mortality --method then-growth", {"--linf", "--k"}, level);
+        if (!u) return 2;
+        e = thenMortalityFromGrowth(*linf, *k, *u);
     } else {
         std::cerr << "tledger fieldwork mortality: --method '" << method
                   << "': expected catch-curve, mean-length, pauly1980, then-tmax or then-growth\n";
@@ -338,7 +412,9 @@ int consumption(const ParsedOptions& o, const ConversionFactors& factors)
     const auto winf = numberOption(o, "--winf", ok);
     const auto t = numberOption(o, "--temperature", ok, false);
     const auto a = numberOption(o, "--aspect-ratio", ok);
-    if (!ok) return 2;
+    const double level = numberOption(o, "--level", ok).value_or(0.95);
+    const auto u = uncertaintyOf(o, "consumption", {"--winf", "--temperature", "--aspect-ratio"}, level);
+    if (!ok || !u) return 2;
     const std::string food = o.value("--food").value_or("carnivore");
     FeedingType feeding = FeedingType::Carnivore;
     if (food == "herbivore") feeding = FeedingType::Herbivore;
@@ -348,7 +424,7 @@ int consumption(const ParsedOptions& o, const ConversionFactors& factors)
                   << "': expected carnivore, herbivore or detritivore\n";
         return 2;
     }
-    const Estimate e = palomaresPaulyConsumption(*winf, *t, *a, feeding);
+    const Estimate e = palomaresPaulyConsumption(*winf, *t, *a, feeding, *u);
     if (!e.valid) return failed(e.problems);
     std::string written;
     if (const auto target = targetOf(o)) {
@@ -434,7 +510,9 @@ int cmdFieldwork(const Args& args)
                                 {"--hauls", "--taxa", "--strata", "--compartment", "--catchability", "--level",
                                  "--lengths", "--taxon", "--linf", "--k", "--method", "--points", "--cutoff",
                                  "--temperature", "--tmax", "--winf", "--aspect-ratio", "--food", "--stomachs",
-                                 "--summary", "--into", "--scenario", "--carbon-per-wet", "--kj-per-wet"},
+                                 "--summary", "--into", "--scenario", "--carbon-per-wet", "--kj-per-wet", "--linf-se",
+                                 "--linf-cv", "--k-se", "--k-cv", "--temperature-se", "--tmax-se", "--tmax-cv",
+                                 "--winf-se", "--winf-cv", "--aspect-ratio-se", "--residual-sd"},
                                 {"--json"}, "fieldwork", std::cerr);
     if (!o) return 2;
     if (!o->positional.empty()) {
@@ -456,6 +534,7 @@ int cmdFieldwork(const Args& args)
         return 2;
     }
     if (!ok) return 2;
+    if ((args[0] == "biomass" || args[0] == "diet") && !uncertaintyOf(*o, args[0], {}, 0.95)) return 2;
     if (args[0] == "biomass") return biomass(*o, factors);
     if (args[0] == "mortality") return mortality(*o, factors);
     if (args[0] == "consumption") return consumption(*o, factors);

@@ -106,7 +106,7 @@ bool propagate(Estimate& e, const std::vector<Term>& terms, const EquationUncert
     e.ciLow = e.value * std::exp(-z * sigma);
     e.ciHigh = e.value * std::exp(z * sigma);
     e.assumptions.push_back("CV and interval by the delta method on ln " + e.quantity + " (SD " + shortNumber(sigma) +
-                            "), power-law inputs lognormal, inputs independent");
+                            "), power-law inputs lognormal, others normal, inputs independent");
     if (u.residualSdLn > 0.0)
         e.inputs.push_back(labelled("residual SD of ln " + e.quantity, u.residualSdLn, ""));
     else

@@ -72,15 +72,29 @@ TEST_F(FieldworkCli, TheInventedSurveyFillsTheReservoirEndToEnd)
     EXPECT_DOUBLE_EQ(*perch.value(Param::PB), zj["value"].get<double>());
     EXPECT_DOUBLE_EQ(-zj["slope"].get<double>(), zj["value"].get<double>());
     EXPECT_NE(perch.confidenceOf(Param::PB).source.find("Allen 1971"), std::string::npos);
-    // Q/B from the consumption equation: no sampling CV, so grade C.
-    EXPECT_FALSE(perch.confidenceOf(Param::QB).cv);
-    EXPECT_EQ(perch.confidenceOf(Param::QB).grade, Confidence::Grade::C);
-    EXPECT_NE(perch.confidenceOf(Param::QB).source.find("Palomares & Pauly 1998"), std::string::npos);
+    // Q/B from the consumption equation: perch with its inputs' SEs gets the CV the command
+    // prints; zander, without, has no CV and grade C.
+    const CliRun qb = runTledger("fieldwork consumption --winf 900 --winf-cv 0.3 --temperature 11 --temperature-se 1 "
+                                 "--aspect-ratio 1.5 --aspect-ratio-se 0.2 --json");
+    ASSERT_EQ(qb.exitCode, 0) << qb.err;
+    EXPECT_DOUBLE_EQ(*perch.confidenceOf(Param::QB).cv, qb.json()["cv"].get<double>());
+    EXPECT_NE(perch.confidenceOf(Param::QB).source.find("SE of W∞ 270 g"), std::string::npos);
+    const Compartment& zanderAdults = m.compartment(*m.indexOf("Zander adults"));
+    EXPECT_FALSE(zanderAdults.confidenceOf(Param::QB).cv);
+    EXPECT_EQ(zanderAdults.confidenceOf(Param::QB).grade, Confidence::Grade::C);
+    EXPECT_NE(zanderAdults.confidenceOf(Param::QB).source.find("Palomares & Pauly 1998"), std::string::npos);
 
-    // Pike: P/B = M + F, M = 4.899 x 15^-0.916 (Then et al. 2015), F = catch / B of the scenario.
+    // Pike: P/B = M + F, M = 4.899 x 15^-0.916 (Then et al. 2015), F = catch / B of the
+    // scenario. tmax 15 ± 2: SD of ln M = 0.916 sqrt(ln(1 + (2/15)^2)), CV of M the
+    // lognormal's; F taken as known, so the CV of P/B is CV(M) x M / (M + F).
     const std::size_t pike = *m.indexOf("Pike");
     const double f = m.totalCatch(pike) / *m.compartment(pike).value(Param::Biomass);
-    EXPECT_NEAR(*m.compartment(pike).value(Param::PB), 4.899 * std::pow(15.0, -0.916) + f, 1e-12);
+    const double mPike = 4.899 * std::pow(15.0, -0.916);
+    EXPECT_NEAR(*m.compartment(pike).value(Param::PB), mPike + f, 1e-12);
+    const double sdLn = 0.916 * std::sqrt(std::log1p(std::pow(2.0 / 15.0, 2)));
+    ASSERT_TRUE(m.compartment(pike).confidenceOf(Param::PB).cv);
+    EXPECT_NEAR(*m.compartment(pike).confidenceOf(Param::PB).cv, std::sqrt(std::expm1(sdLn * sdLn)) * mPike / (mPike + f),
+                1e-12);
 
     // Diets: rows sum to 1 and follow the printed shares; the note is in the description.
     const CliRun d = runTledger("fieldwork diet --stomachs " + surveyFile("stomachs.csv") + " --taxa " +
@@ -161,6 +175,22 @@ TEST_F(FieldworkCli, BadInputNamesTheCellOrOptionAndWritesNothing)
     EXPECT_EQ(r.exitCode, 2);
     r = runTledger("fieldwork consumption --winf 900 --temperature 11 --aspect-ratio 1.5 --food omnivore");
     EXPECT_EQ(r.exitCode, 2);
+
+    // Uncertainty options: negative, both forms for one input, one the method does not use.
+    const std::string pike = " --into " + q(project_) + " --scenario baseline --compartment Pike";
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --tmax-se -2" + pike);
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--tmax-se '-2': expected zero or a positive number"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --tmax-se 2 --tmax-cv 0.1" + pike);
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("give --tmax-se or --tmax-cv, not both"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --k-se 0.1" + pike);
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--k-se is not used by mortality --method then-tmax"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --lengths " + surveyFile("lengths.csv") +
+                   " --taxon 'perch adult' --linf 40 --k 0.25 --linf-se 2");
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("takes L∞ and K as known"), std::string::npos) << r.err;
 
     EXPECT_EQ(slurp(project_), before) << "a refused command changed the project";
 }
