@@ -1,5 +1,6 @@
 #include "core/fieldwork/empirical_equations.h"
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -88,7 +89,11 @@ bool propagate(Estimate& e, const std::vector<Term>& terms, const EquationUncert
     if (!(u.ciLevel > 0.0 && u.ciLevel < 1.0)) refuse("confidence level", u.ciLevel);
     if (!ok) return false;
 
-    if (!u.any()) {
+    // Only the inputs this equation uses count: an SE of an input it does not take adds nothing.
+    const bool uncertain = u.residualSdLn > 0.0 || std::any_of(terms.begin(), terms.end(), [](const Term& t) {
+                               return t.se > 0.0;
+                           });
+    if (!uncertain) {
         e.assumptions.push_back(
             "empirical equation without input SEs or residual error: no CV (grade C, this project's convention)");
         return true;

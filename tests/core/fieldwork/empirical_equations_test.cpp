@@ -106,6 +106,10 @@ TEST(EmpiricalEquations, NoUncertaintyGivenMeansNoCv)
     EXPECT_FALSE(e.ciLow);
     ASSERT_FALSE(e.assumptions.empty());
     EXPECT_NE(e.assumptions[0].find("no CV"), std::string::npos);
+    // An SE of an input the equation does not take is no uncertainty of its result.
+    EquationUncertainty u;
+    u.linfSe = 5.0;
+    EXPECT_FALSE(thenMortalityFromMaxAge(10.0, u).cv);
 }
 
 TEST(EmpiricalEquations, DeltaMethodCvHandCalculation)
