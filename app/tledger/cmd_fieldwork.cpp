@@ -3,6 +3,9 @@
 // (DESIGN 3.8, 5.2): turns survey data into a model parameter with its uncertainty
 // (core/fieldwork) and, with --into, writes it into one scenario of a .tledger project
 // (one transaction): the value, its CV and a source note with method, inputs and date.
+// --into may also name a CSV model folder (DESIGN 5.1; no --scenario): B, P/B and Q/B are
+// written back with their CV and note in confidence.csv; a diet is refused there (the
+// folder has no description for its note).
 //
 //   biomass      --hauls F --taxa F --compartment C [--strata F] [--catchability X1]
 //                -> B (swept area); converted to the project's biomass unit when written
@@ -35,6 +38,8 @@
 #include "core/fieldwork/fieldwork_report.h"
 #include "core/fieldwork/unit_conversion.h"
 #include "core/io/balance_report.h"
+#include "core/io/csv_model.h"
+#include "core/model/problem_codes.h"
 #include "core/io/text_table.h"
 #include "core/model/text.h"
 #include "core/store/project_file.h"
@@ -55,7 +60,8 @@ constexpr const char* kUsage =
     "  M and Q/B equations: [--linf-se CM|--linf-cv X] [--k-se K|--k-cv X] [--temperature-se C]\n"
     "                       [--tmax-se YEARS|--tmax-cv X] [--winf-se G|--winf-cv X] [--aspect-ratio-se A]\n"
     "                       [--residual-sd SD-OF-LN]\n"
-    "  each: [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]\n";
+    "  each: [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]\n"
+    "        (--into a CSV model folder: no --scenario; not for diet)\n";
 
 void printProblems(const Problems& problems)
 {
@@ -188,15 +194,74 @@ std::optional<Target> targetOf(const ParsedOptions& o)
 
 // Opens the project, loads the scenario, lets `edit` change its model (returning false
 // and printing why when it cannot), and saves the scenario in one transaction.
+// A CSV model folder (DESIGN 5.1) as the target: read, edited, and its compartments.csv
+// and confidence.csv written back (the value's CV and source note go to confidence.csv;
+// writeCsvModel's round trip loses nothing). It holds one model and no
+// scenario description, so --scenario does not apply and an edit that needs the
+// description (a diet's note) is refused before anything is written.
+int editCsvFolder(const Target& t, const std::function<bool(Scenario&, std::size_t)>& edit)
+{
+    const std::string folder = t.project.string();
+    if (!t.scenario.empty()) {
+        std::cerr << "tledger fieldwork: --scenario does not apply to the CSV model folder " << folder
+                  << " (it holds one model); leave it out\n";
+        return 2;
+    }
+    if (t.compartment.empty()) {
+        std::cerr << "tledger fieldwork: --into needs --compartment C\n";
+        return 2;
+    }
+    CsvReadResult read = readCsvModel(t.project);
+    printProblems(read.problems);
+    if (!read.model) {
+        std::cerr << "tledger fieldwork: " << folder << " is not a readable CSV model folder; nothing was written\n";
+        return 2;
+    }
+    Scenario scenario;
+    scenario.model = std::move(*read.model);
+    const auto index = scenario.model.indexOf(t.compartment);
+    if (!index) {
+        std::cerr << "tledger fieldwork: " << folder << " has no compartment named '" << t.compartment << "'\n";
+        return 2;
+    }
+    if (!edit(scenario, *index)) {
+        std::cerr << "tledger fieldwork: nothing was written; " << folder << " is unchanged\n";
+        return 2;
+    }
+    if (!scenario.description.empty()) {
+        std::cerr << "tledger fieldwork: a CSV model folder has no scenario description to keep the diet's note "
+                     "(method, stomachs, CVs); nothing was written to "
+                  << folder << " (write into a .tledger project, or import the folder with tledger import)\n";
+        return 2;
+    }
+    // Only compartments.csv and confidence.csv change: both are written whole into a
+    // scratch folder inside the target (same file system), then renamed over the old ones,
+    // the note first, so the other files keep their layout and a new value never stands
+    // without its note.
+    const std::filesystem::path scratch = t.project / ".tledger-fieldwork-write";
+    std::error_code ec;
+    std::filesystem::remove_all(scratch, ec);
+    Problems saved = writeCsvModel(scenario.model, scratch);
+    for (const char* name : {"confidence.csv", "compartments.csv"}) {
+        if (hasErrors(saved)) break;
+        std::filesystem::rename(scratch / name, t.project / name, ec);
+        if (ec) {
+            Problem p;
+            p.code = code::kCsvWrite;
+            p.message = "cannot replace " + (t.project / name).string() + ": " + ec.message();
+            p.location = FileLocation{(t.project / name).string(), 0, 0};
+            saved.push_back(std::move(p));
+        }
+    }
+    std::filesystem::remove_all(scratch, ec);
+    printProblems(saved);
+    return hasErrors(saved) ? 2 : 0;
+}
+
 int editScenario(const Target& t, const std::function<bool(Scenario&, std::size_t)>& edit)
 {
     std::error_code ec;
-    if (std::filesystem::is_directory(t.project, ec)) {
-        std::cerr << "tledger fieldwork: --into " << t.project.string()
-                  << " is a folder; fieldwork writes into a .tledger project (tledger import makes one from a CSV "
-                     "model folder)\n";
-        return 2;
-    }
+    if (std::filesystem::is_directory(t.project, ec)) return editCsvFolder(t, edit);
     if (t.scenario.empty() || t.compartment.empty()) {
         std::cerr << "tledger fieldwork: --into needs --scenario NAME and --compartment C\n";
         return 2;
@@ -243,8 +308,10 @@ int writeScalar(const Target& t, Param param, const Estimate& e, const Conversio
         const Problems p = applyEstimate(s.model, i, param, e, utcNowIso8601(), factors, &out);
         printProblems(p);  // errors, or a warning that the compartment has nothing left unknown
         if (hasErrors(p)) return false;
-        written = std::string(paramSymbol(param)) + " of " + t.compartment + " in scenario '" + t.scenario + "' of " +
-                  t.project.string() + ": " + displayNumber(out.value) + " " + out.unit + " (was " + before + ")";
+        const std::string where = t.scenario.empty() ? "the CSV model folder " + t.project.string()
+                                                     : "scenario '" + t.scenario + "' of " + t.project.string();
+        written = std::string(paramSymbol(param)) + " of " + t.compartment + " in " + where + ": " +
+                  displayNumber(out.value) + " " + out.unit + " (was " + before + ")";
         return true;
     });
 }

@@ -8,6 +8,7 @@
 #include <filesystem>
 #include <string>
 
+#include "core/io/csv_model.h"
 #include "core/store/project_file.h"
 #include "tests/support/test_support.h"
 
@@ -193,6 +194,55 @@ TEST_F(FieldworkCli, BadInputNamesTheCellOrOptionAndWritesNothing)
     EXPECT_NE(r.err.find("takes L∞ and K as known"), std::string::npos) << r.err;
 
     EXPECT_EQ(slurp(project_), before) << "a refused command changed the project";
+}
+
+// --into a CSV model folder: the value with its CV and note lands in compartments.csv and
+// confidence.csv, every other file stays byte for byte; a diet (no description for its
+// note), --scenario, or a refused value write nothing.
+TEST_F(FieldworkCli, WritesIntoACsvModelFolder)
+{
+    const fs::path folder = dir_ / "reservoir";
+    fs::copy(fs::path(TL_SAMPLES_DIR) / "reservoir", folder);
+    const CsvReadResult before = readCsvModel(folder);
+    ASSERT_TRUE(before.model);
+    const std::string diet = slurp(folder / "diet.csv"), harvest = slurp(folder / "harvest.csv"),
+                      compartments = slurp(folder / "compartments.csv");
+    const std::string into = " --into " + q(folder) + " --compartment Pike";
+
+    // Refused: a diet, --scenario, an unknown compartment. Nothing changes.
+    CliRun r = runTledger("fieldwork diet --stomachs " + surveyFile("stomachs.csv") + " --taxa " +
+                          surveyFile("taxa.csv") + " --compartment 'Perch adults' --into " + q(folder));
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("no scenario description"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15" + into + " --scenario baseline");
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--scenario does not apply"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --into " + q(folder) + " --compartment Walleye");
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("no compartment named 'Walleye'"), std::string::npos) << r.err;
+    EXPECT_EQ(slurp(folder / "compartments.csv"), compartments);
+    EXPECT_FALSE(fs::exists(folder / "confidence.csv"));
+
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --tmax-se 2 --json" + into);
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const CsvReadResult after = readCsvModel(folder);
+    ASSERT_TRUE(after.model);
+    const std::size_t pike = *after.model->indexOf("Pike");
+    const Compartment& c = after.model->compartment(pike);
+    const double f = after.model->totalCatch(pike) / *c.value(Param::Biomass);
+    EXPECT_NEAR(*c.value(Param::PB), 4.899 * std::pow(15.0, -0.916) + f, 1e-12);
+    ASSERT_TRUE(c.confidenceOf(Param::PB).cv);
+    for (const char* part : {"Then et al. 2015", "SE of tmax 2 years", "delta method", "before: 0.55"})
+        EXPECT_NE(c.confidenceOf(Param::PB).source.find(part), std::string::npos) << part;
+    EXPECT_NE(r.json()["written"].get<std::string>().find("CSV model folder"), std::string::npos);
+    // Only Pike's P/B and its confidence changed; the other files are as they were.
+    Model expected = *before.model;
+    expected.compartment(pike).value(Param::PB) = c.value(Param::PB);
+    expected.compartment(pike).confidenceOf(Param::PB) = c.confidenceOf(Param::PB);
+    EXPECT_EQ(*after.model, expected);
+    EXPECT_EQ(slurp(folder / "diet.csv"), diet);
+    EXPECT_EQ(slurp(folder / "harvest.csv"), harvest);
+    EXPECT_FALSE(fs::exists(folder / ".tledger-fieldwork-write"));
 }
 
 TEST_F(FieldworkCli, ChosenPointsAndWarningsReachTheOutput)
