@@ -24,7 +24,9 @@ bool checkInputs(Estimate& e, std::initializer_list<Input> inputs, const char* d
 {
     bool ok = true;
     for (const Input& in : inputs) {
-        e.inputs.push_back(labelled(in.name, in.value, in.unit));
+        // The input with the range of the equation's data, so that the note shows it too.
+        e.inputs.push_back(labelled(in.name, in.value, in.unit) + " (data about " + shortNumber(in.low) + " to " +
+                           shortNumber(in.high) + (*in.unit ? std::string(" ") + in.unit : std::string()) + ")");
         Problem p;
         p.parameter = in.name;
         if (!std::isfinite(in.value) || (in.positive && !(in.value > 0.0))) {

@@ -29,7 +29,10 @@ TEST(EmpiricalEquations, Pauly1980HandCalculation)
     EXPECT_NEAR(e.value, 0.9710, 1e-4);
     EXPECT_TRUE(e.warnings.empty());
     EXPECT_FALSE(e.cv);
-    EXPECT_EQ(e.inputs.size(), 3u);
+    ASSERT_EQ(e.inputs.size(), 3u);
+    // Each input shows its unit and the (approximate) range of the equation's data.
+    EXPECT_EQ(e.inputs[0], "L∞ 30 cm (data about 2 to 250 cm)");
+    EXPECT_EQ(e.inputs[2], "T 20 °C (data about 5 to 30 °C)");
 }
 
 TEST(EmpiricalEquations, Pauly1980ReproducesKenchington2014)
