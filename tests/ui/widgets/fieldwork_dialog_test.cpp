@@ -199,6 +199,17 @@ private slots:
         QVERIFY(std::abs(*m.compartment(pike).value(tl::Param::PB) -
                          (4.899 * std::pow(15.0, -0.916) + m.totalCatch(pike) / 0.9)) < 1e-12);
         QVERIFY(!m.compartment(pike).confidenceOf(tl::Param::PB).cv);  // no SE given: no CV
+        dialog.setField("equation", "pauly1980");
+        dialog.setField("m_linf", "90");
+        dialog.setField("m_k", "0.2");
+        dialog.setField("m_temperature", "11");
+        dialog.setField("m_k_se", "0.04");
+        QVERIFY(dialog.preview());
+        QVERIFY2(dialog.previewText().contains("SE of K 0.04"), qPrintable(dialog.previewText()));
+        dialog.show();
+        dialog.resize(921, 630);  // what the main window gives it at 1024 x 700 (90 %)
+        QApplication::processEvents();
+        keepSnapshot(dialog, "fieldwork-mortality-uncertainty-small");
     }
 
     void equationUncertaintyGivesACvBeforeWriting()
