@@ -3,6 +3,9 @@
 // (DESIGN 3.8, 5.2): turns survey data into a model parameter with its uncertainty
 // (core/fieldwork) and, with --into, writes it into one scenario of a .tledger project
 // (one transaction): the value, its CV and a source note with method, inputs and date.
+// --into may also name a CSV model folder (DESIGN 5.1; no --scenario): B, P/B and Q/B are
+// written back with their CV and note in confidence.csv; a diet is refused there (the
+// folder has no description for its note).
 //
 //   biomass      --hauls F --taxa F --compartment C [--strata F] [--catchability X1]
 //                -> B (swept area); converted to the project's biomass unit when written
@@ -13,10 +16,15 @@
 //                (written as P/B = M + F, F = catch / B of the scenario)
 //   consumption  --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|
 //                detritivore]                                          -> Q/B
+//   uncertainty of the empirical equations (M, Q/B): --linf-se|--linf-cv, --k-se|--k-cv,
+//                --temperature-se, --tmax-se|--tmax-cv, --winf-se|--winf-cv,
+//                --aspect-ratio-se, --residual-sd (SD of ln result) -> a CV and interval
+//                (delta method, core/fieldwork/empirical_equations.h) instead of grade C
 //   diet         --stomachs F --taxa F --compartment C [--summary mean|pooled]
 //                -> the diet row of C (its note goes to the scenario description)
 // Warnings (an input outside an equation's fitted range) are part of the text and JSON output.
 // Exit: 0 estimated (and written), 2 bad input (the file, line and column, or the option).
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <functional>
@@ -30,6 +38,8 @@
 #include "core/fieldwork/fieldwork_report.h"
 #include "core/fieldwork/unit_conversion.h"
 #include "core/io/balance_report.h"
+#include "core/io/csv_model.h"
+#include "core/model/problem_codes.h"
 #include "core/io/text_table.h"
 #include "core/model/text.h"
 #include "core/store/project_file.h"
@@ -47,7 +57,11 @@ constexpr const char* kUsage =
     "       tledger fieldwork mortality --method then-tmax --tmax YEARS | --method then-growth --linf CM --k K\n"
     "       tledger fieldwork consumption --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|detritivore]\n"
     "       tledger fieldwork diet --stomachs F --taxa F --compartment C [--summary mean|pooled]\n"
-    "  each: [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]\n";
+    "  M and Q/B equations: [--linf-se CM|--linf-cv X] [--k-se K|--k-cv X] [--temperature-se C]\n"
+    "                       [--tmax-se YEARS|--tmax-cv X] [--winf-se G|--winf-cv X] [--aspect-ratio-se A]\n"
+    "                       [--residual-sd SD-OF-LN]\n"
+    "  each: [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]\n"
+    "        (--into a CSV model folder: no --scenario; not for diet)\n";
 
 void printProblems(const Problems& problems)
 {
@@ -81,6 +95,65 @@ bool require(const ParsedOptions& o, std::initializer_list<const char*> names, c
             ok = false;
         }
     return ok;
+}
+
+// The standard errors an empirical equation may be given. --NAME-se is in the input's
+// own unit, --NAME-cv a fraction of its value (L∞, K, tmax and W∞ only); both for one
+// input, a negative number, or one given to a method that does not use it is refused.
+constexpr const char* kUncertaintyOptions[] = {"--linf-se", "--linf-cv", "--k-se", "--k-cv", "--temperature-se",
+                                                "--tmax-se", "--tmax-cv", "--winf-se", "--winf-cv",
+                                                "--aspect-ratio-se", "--residual-sd"};
+
+std::optional<EquationUncertainty> uncertaintyOf(const ParsedOptions& o, const std::string& method,
+                                                 std::initializer_list<const char*> used, double level,
+                                                 const char* note = "")
+{
+    bool ok = true;
+    for (const char* name : kUncertaintyOptions) {
+        const bool isUsed = std::any_of(used.begin(), used.end(), [&](const char* u) {
+            return std::string(name).rfind(u, 0) == 0 || std::string(name) == "--residual-sd";
+        });
+        if (o.value(name) && !isUsed) {
+            std::cerr << "tledger fieldwork: " << name << " is not used by " << method
+                      << note << '\n';
+            ok = false;
+        }
+    }
+    if (!ok) return std::nullopt;
+    auto nonNegative = [&](const std::string& name) -> double {
+        const auto text = o.value(name);
+        if (!text) return 0.0;
+        const auto v = parseNumber(trim(*text));
+        if (!v || !(*v >= 0.0)) {
+            std::cerr << "tledger fieldwork: " << name << " '" << *text
+                      << "': expected zero or a positive number with '.' as decimal mark\n";
+            ok = false;
+            return 0.0;
+        }
+        return *v;
+    };
+    // SE of an input from --X-se, or from --X-cv times its value.
+    auto seOf = [&](const std::string& stem, std::optional<double> value) -> double {
+        const bool hasSe = o.value(stem + "-se").has_value(), hasCv = o.value(stem + "-cv").has_value();
+        if (hasSe && hasCv) {
+            std::cerr << "tledger fieldwork: give " << stem << "-se or " << stem << "-cv, not both\n";
+            ok = false;
+            return 0.0;
+        }
+        return hasCv ? nonNegative(stem + "-cv") * value.value_or(0.0) : nonNegative(stem + "-se");
+    };
+    bool numbersOk = true;
+    EquationUncertainty u;
+    u.ciLevel = level;
+    u.linfSe = seOf("--linf", numberOption(o, "--linf", numbersOk));
+    u.kSe = seOf("--k", numberOption(o, "--k", numbersOk));
+    u.tmaxSe = seOf("--tmax", numberOption(o, "--tmax", numbersOk));
+    u.winfSe = seOf("--winf", numberOption(o, "--winf", numbersOk));
+    u.temperatureSe = nonNegative("--temperature-se");
+    u.aspectRatioSe = nonNegative("--aspect-ratio-se");
+    u.residualSdLn = nonNegative("--residual-sd");
+    if (!ok || !numbersOk) return std::nullopt;
+    return u;
 }
 
 // "4-9" or "4,5,6" (1-based point numbers as the table prints them) -> 0-based indices.
@@ -121,15 +194,74 @@ std::optional<Target> targetOf(const ParsedOptions& o)
 
 // Opens the project, loads the scenario, lets `edit` change its model (returning false
 // and printing why when it cannot), and saves the scenario in one transaction.
+// A CSV model folder (DESIGN 5.1) as the target: read, edited, and its compartments.csv
+// and confidence.csv written back (the value's CV and source note go to confidence.csv;
+// writeCsvModel's round trip loses nothing). It holds one model and no
+// scenario description, so --scenario does not apply and an edit that needs the
+// description (a diet's note) is refused before anything is written.
+int editCsvFolder(const Target& t, const std::function<bool(Scenario&, std::size_t)>& edit)
+{
+    const std::string folder = t.project.string();
+    if (!t.scenario.empty()) {
+        std::cerr << "tledger fieldwork: --scenario does not apply to the CSV model folder " << folder
+                  << " (it holds one model); leave it out\n";
+        return 2;
+    }
+    if (t.compartment.empty()) {
+        std::cerr << "tledger fieldwork: --into needs --compartment C\n";
+        return 2;
+    }
+    CsvReadResult read = readCsvModel(t.project);
+    printProblems(read.problems);
+    if (!read.model) {
+        std::cerr << "tledger fieldwork: " << folder << " is not a readable CSV model folder; nothing was written\n";
+        return 2;
+    }
+    Scenario scenario;
+    scenario.model = std::move(*read.model);
+    const auto index = scenario.model.indexOf(t.compartment);
+    if (!index) {
+        std::cerr << "tledger fieldwork: " << folder << " has no compartment named '" << t.compartment << "'\n";
+        return 2;
+    }
+    if (!edit(scenario, *index)) {
+        std::cerr << "tledger fieldwork: nothing was written; " << folder << " is unchanged\n";
+        return 2;
+    }
+    if (!scenario.description.empty()) {
+        std::cerr << "tledger fieldwork: a CSV model folder has no scenario description to keep the diet's note "
+                     "(method, stomachs, CVs); nothing was written to "
+                  << folder << " (write into a .tledger project, or import the folder with tledger import)\n";
+        return 2;
+    }
+    // Only compartments.csv and confidence.csv change: both are written whole into a
+    // scratch folder inside the target (same file system), then renamed over the old ones,
+    // the note first, so the other files keep their layout and a new value never stands
+    // without its note.
+    const std::filesystem::path scratch = t.project / ".tledger-fieldwork-write";
+    std::error_code ec;
+    std::filesystem::remove_all(scratch, ec);
+    Problems saved = writeCsvModel(scenario.model, scratch);
+    for (const char* name : {"confidence.csv", "compartments.csv"}) {
+        if (hasErrors(saved)) break;
+        std::filesystem::rename(scratch / name, t.project / name, ec);
+        if (ec) {
+            Problem p;
+            p.code = code::kCsvWrite;
+            p.message = "cannot replace " + (t.project / name).string() + ": " + ec.message();
+            p.location = FileLocation{(t.project / name).string(), 0, 0};
+            saved.push_back(std::move(p));
+        }
+    }
+    std::filesystem::remove_all(scratch, ec);
+    printProblems(saved);
+    return hasErrors(saved) ? 2 : 0;
+}
+
 int editScenario(const Target& t, const std::function<bool(Scenario&, std::size_t)>& edit)
 {
     std::error_code ec;
-    if (std::filesystem::is_directory(t.project, ec)) {
-        std::cerr << "tledger fieldwork: --into " << t.project.string()
-                  << " is a folder; fieldwork writes into a .tledger project (tledger import makes one from a CSV "
-                     "model folder)\n";
-        return 2;
-    }
+    if (std::filesystem::is_directory(t.project, ec)) return editCsvFolder(t, edit);
     if (t.scenario.empty() || t.compartment.empty()) {
         std::cerr << "tledger fieldwork: --into needs --scenario NAME and --compartment C\n";
         return 2;
@@ -176,8 +308,10 @@ int writeScalar(const Target& t, Param param, const Estimate& e, const Conversio
         const Problems p = applyEstimate(s.model, i, param, e, utcNowIso8601(), factors, &out);
         printProblems(p);  // errors, or a warning that the compartment has nothing left unknown
         if (hasErrors(p)) return false;
-        written = std::string(paramSymbol(param)) + " of " + t.compartment + " in scenario '" + t.scenario + "' of " +
-                  t.project.string() + ": " + displayNumber(out.value) + " " + out.unit + " (was " + before + ")";
+        const std::string where = t.scenario.empty() ? "the CSV model folder " + t.project.string()
+                                                     : "scenario '" + t.scenario + "' of " + t.project.string();
+        written = std::string(paramSymbol(param)) + " of " + t.compartment + " in " + where + ": " +
+                  displayNumber(out.value) + " " + out.unit + " (was " + before + ")";
         return true;
     });
 }
@@ -263,6 +397,9 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
     MeanLengthResult meanLength;
     if (method == "catch-curve" || method == "mean-length") {
         if (!require(o, {"--lengths", "--taxon", "--linf", "--k"}, "mortality")) return 2;
+        if (!uncertaintyOf(o, "mortality --method " + method, {}, level,
+                           " (it takes L∞ and K as known)"))
+            return 2;
         const auto lengths = readLengths(*o.value("--lengths"));
         if (!lengths.value) return failed(lengths.problems);
         const std::string taxon(trim(*o.value("--taxon")));
@@ -304,16 +441,20 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
     } else if (method == "pauly1980") {
         if (!require(o, {"--linf", "--k", "--temperature"}, "mortality --method pauly1980")) return 2;
         const auto t = numberOption(o, "--temperature", ok, false);
-        if (!ok) return 2;
-        e = paulyNaturalMortality(*linf, *k, *t);
+        const auto u = uncertaintyOf(o, "mortality --method pauly1980", {"--linf", "--k", "--temperature"}, level);
+        if (!ok || !u) return 2;
+        e = paulyNaturalMortality(*linf, *k, *t, *u);
     } else if (method == "then-tmax") {
         if (!require(o, {"--tmax"}, "mortality --method then-tmax")) return 2;
         const auto tmax = numberOption(o, "--tmax", ok);
-        if (!ok) return 2;
-        e = thenMortalityFromMaxAge(*tmax);
+        const auto u = uncertaintyOf(o, "mortality --method then-tmax", {"--tmax"}, level);
+        if (!ok || !u) return 2;
+        e = thenMortalityFromMaxAge(*tmax, *u);
     } else if (method == "then-growth") {
         if (!require(o, {"--linf", "--k"}, "mortality --method then-growth")) return 2;
-        e = thenMortalityFromGrowth(*linf, *k);
+        const auto u = uncertaintyOf(o, "mortality --method then-growth", {"--linf", "--k"}, level);
+        if (!u) return 2;
+        e = thenMortalityFromGrowth(*linf, *k, *u);
     } else {
         std::cerr << "tledger fieldwork mortality: --method '" << method
                   << "': expected catch-curve, mean-length, pauly1980, then-tmax or then-growth\n";
@@ -338,7 +479,9 @@ int consumption(const ParsedOptions& o, const ConversionFactors& factors)
     const auto winf = numberOption(o, "--winf", ok);
     const auto t = numberOption(o, "--temperature", ok, false);
     const auto a = numberOption(o, "--aspect-ratio", ok);
-    if (!ok) return 2;
+    const double level = numberOption(o, "--level", ok).value_or(0.95);
+    const auto u = uncertaintyOf(o, "consumption", {"--winf", "--temperature", "--aspect-ratio"}, level);
+    if (!ok || !u) return 2;
     const std::string food = o.value("--food").value_or("carnivore");
     FeedingType feeding = FeedingType::Carnivore;
     if (food == "herbivore") feeding = FeedingType::Herbivore;
@@ -348,7 +491,7 @@ int consumption(const ParsedOptions& o, const ConversionFactors& factors)
                   << "': expected carnivore, herbivore or detritivore\n";
         return 2;
     }
-    const Estimate e = palomaresPaulyConsumption(*winf, *t, *a, feeding);
+    const Estimate e = palomaresPaulyConsumption(*winf, *t, *a, feeding, *u);
     if (!e.valid) return failed(e.problems);
     std::string written;
     if (const auto target = targetOf(o)) {
@@ -434,7 +577,9 @@ int cmdFieldwork(const Args& args)
                                 {"--hauls", "--taxa", "--strata", "--compartment", "--catchability", "--level",
                                  "--lengths", "--taxon", "--linf", "--k", "--method", "--points", "--cutoff",
                                  "--temperature", "--tmax", "--winf", "--aspect-ratio", "--food", "--stomachs",
-                                 "--summary", "--into", "--scenario", "--carbon-per-wet", "--kj-per-wet"},
+                                 "--summary", "--into", "--scenario", "--carbon-per-wet", "--kj-per-wet", "--linf-se",
+                                 "--linf-cv", "--k-se", "--k-cv", "--temperature-se", "--tmax-se", "--tmax-cv",
+                                 "--winf-se", "--winf-cv", "--aspect-ratio-se", "--residual-sd"},
                                 {"--json"}, "fieldwork", std::cerr);
     if (!o) return 2;
     if (!o->positional.empty()) {
@@ -456,6 +601,7 @@ int cmdFieldwork(const Args& args)
         return 2;
     }
     if (!ok) return 2;
+    if ((args[0] == "biomass" || args[0] == "diet") && !uncertaintyOf(*o, args[0], {}, 0.95)) return 2;
     if (args[0] == "biomass") return biomass(*o, factors);
     if (args[0] == "mortality") return mortality(*o, factors);
     if (args[0] == "consumption") return consumption(*o, factors);

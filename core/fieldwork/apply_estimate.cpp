@@ -45,6 +45,14 @@ Problems prepareForParameter(const Model& model, std::size_t compartment, Param 
         e.inputs.push_back(labelled("M", m, "/year"));
         e.inputs.push_back(labelled("F = catch / B =", f, "/year (from the scenario)"));
         e.assumptions.push_back("P/B = Z = M + F at steady state (Allen 1971)");
+        // M's spread carries over unchanged (F taken as known): the SD stays, the CV
+        // shrinks by M / (M + F), the interval shifts by F.
+        if (e.cv) {
+            e.cv = *e.cv * m / (m + f);
+            e.assumptions.push_back("F taken as known: the CV is that of M, rescaled to M + F");
+        }
+        if (e.ciLow) e.ciLow = *e.ciLow + f;
+        if (e.ciHigh) e.ciHigh = *e.ciHigh + f;
     }
     return problems;
 }

@@ -136,7 +136,7 @@ std::string estimateText(const Estimate& e)
     if (e.ciLow && e.ciHigh)
         spread += (spread.empty() ? "" : "; ") + displayNumber(e.ciLevel * 100) + " % CI " + displayNumber(*e.ciLow) +
                   " to " + displayNumber(*e.ciHigh);
-    if (spread.empty()) spread = "no sampling CV";
+    if (spread.empty()) spread = "no CV";
     out += " (" + spread + ")\n";
     out += "  method: " + e.method + "\n";
     for (const std::string& s : e.inputs) out += "  input: " + s + "\n";

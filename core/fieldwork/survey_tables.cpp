@@ -13,6 +13,18 @@
 namespace tl::fieldwork {
 namespace {
 
+// "YYYY-MM-DD" (digits already checked) names a real day: month 1-12, day within the
+// month, 29 February only in a Gregorian leap year.
+bool isCalendarDate(const std::string& d)
+{
+    const int year = std::stoi(d.substr(0, 4)), month = std::stoi(d.substr(5, 2)), day = std::stoi(d.substr(8, 2));
+    if (month < 1 || month > 12 || day < 1) return false;
+    static constexpr int kDays[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+    const bool leap = (year % 4 == 0 && year % 100 != 0) || year % 400 == 0;
+    return day <= kDays[month - 1] + (month == 2 && leap ? 1 : 0);
+}
+
+
 using csv::shown;
 
 CellRef refOf(const std::string& file, const CsvField& f) { return {file, f.line, f.column}; }
@@ -152,7 +164,12 @@ SurveyRead<HaulSurvey> haulsFrom(CsvParseResult parsed)
             const std::string& d = *date;
             const bool iso = d.size() == 10 && d[4] == '-' && d[7] == '-' &&
                              std::all_of(d.begin(), d.end(), [](char c) { return c == '-' || (c >= '0' && c <= '9'); });
-            if (!iso) {
+            if (iso && !isCalendarDate(d)) {
+                problems.push_back(csv::errorAt(code::kSurveyValue, file, *s.cell(*r, Date),
+                                                "column 'date': " + shown(d) +
+                                                    " is not a day of the calendar (month 01-12, day within the month)"));
+                bad = true;
+            } else if (!iso) {
                 problems.push_back(csv::errorAt(code::kSurveyValue, file, *s.cell(*r, Date),
                                                 "column 'date': expected a date as YYYY-MM-DD, found " + shown(d)));
                 bad = true;

@@ -31,12 +31,15 @@ done
     --into "$PROJECT" --scenario "$S" --compartment "Perch adults"
 "$TLEDGER" fieldwork mortality --method mean-length --lengths "$HERE/lengths.csv" --taxon "zander adult" \
     --linf 80 --k 0.18 --into "$PROJECT" --scenario "$S" --compartment "Zander adults"
-# Pike: no length sample; P/B = M + F with M from the oldest pike aged (15 years).
-"$TLEDGER" fieldwork mortality --method then-tmax --tmax 15 --into "$PROJECT" --scenario "$S" --compartment "Pike"
+# Pike: no length sample; P/B = M + F with M from the oldest pike aged (15 years, give or
+# take 2: its CV is propagated into P/B).
+"$TLEDGER" fieldwork mortality --method then-tmax --tmax 15 --tmax-se 2 --into "$PROJECT" --scenario "$S" \
+    --compartment "Pike"
 
-# Q/B from the consumption equation (mean annual water temperature 11 °C).
-"$TLEDGER" fieldwork consumption --winf 900 --temperature 11 --aspect-ratio 1.5 \
-    --into "$PROJECT" --scenario "$S" --compartment "Perch adults"
+# Q/B from the consumption equation (mean annual water temperature 11 °C). Perch: W∞,
+# T and A with their uncertainty (a CV results); zander: none given (grade C).
+"$TLEDGER" fieldwork consumption --winf 900 --winf-cv 0.3 --temperature 11 --temperature-se 1 \
+    --aspect-ratio 1.5 --aspect-ratio-se 0.2 --into "$PROJECT" --scenario "$S" --compartment "Perch adults"
 "$TLEDGER" fieldwork consumption --winf 6000 --temperature 11 --aspect-ratio 1.6 \
     --into "$PROJECT" --scenario "$S" --compartment "Zander adults"
 

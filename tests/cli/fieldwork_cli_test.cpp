@@ -8,6 +8,7 @@
 #include <filesystem>
 #include <string>
 
+#include "core/io/csv_model.h"
 #include "core/store/project_file.h"
 #include "tests/support/test_support.h"
 
@@ -72,15 +73,29 @@ TEST_F(FieldworkCli, TheInventedSurveyFillsTheReservoirEndToEnd)
     EXPECT_DOUBLE_EQ(*perch.value(Param::PB), zj["value"].get<double>());
     EXPECT_DOUBLE_EQ(-zj["slope"].get<double>(), zj["value"].get<double>());
     EXPECT_NE(perch.confidenceOf(Param::PB).source.find("Allen 1971"), std::string::npos);
-    // Q/B from the consumption equation: no sampling CV, so grade C.
-    EXPECT_FALSE(perch.confidenceOf(Param::QB).cv);
-    EXPECT_EQ(perch.confidenceOf(Param::QB).grade, Confidence::Grade::C);
-    EXPECT_NE(perch.confidenceOf(Param::QB).source.find("Palomares & Pauly 1998"), std::string::npos);
+    // Q/B from the consumption equation: perch with its inputs' SEs gets the CV the command
+    // prints; zander, without, has no CV and grade C.
+    const CliRun qb = runTledger("fieldwork consumption --winf 900 --winf-cv 0.3 --temperature 11 --temperature-se 1 "
+                                 "--aspect-ratio 1.5 --aspect-ratio-se 0.2 --json");
+    ASSERT_EQ(qb.exitCode, 0) << qb.err;
+    EXPECT_DOUBLE_EQ(*perch.confidenceOf(Param::QB).cv, qb.json()["cv"].get<double>());
+    EXPECT_NE(perch.confidenceOf(Param::QB).source.find("SE of W∞ 270 g"), std::string::npos);
+    const Compartment& zanderAdults = m.compartment(*m.indexOf("Zander adults"));
+    EXPECT_FALSE(zanderAdults.confidenceOf(Param::QB).cv);
+    EXPECT_EQ(zanderAdults.confidenceOf(Param::QB).grade, Confidence::Grade::C);
+    EXPECT_NE(zanderAdults.confidenceOf(Param::QB).source.find("Palomares & Pauly 1998"), std::string::npos);
 
-    // Pike: P/B = M + F, M = 4.899 x 15^-0.916 (Then et al. 2015), F = catch / B of the scenario.
+    // Pike: P/B = M + F, M = 4.899 x 15^-0.916 (Then et al. 2015), F = catch / B of the
+    // scenario. tmax 15 ± 2: SD of ln M = 0.916 sqrt(ln(1 + (2/15)^2)), CV of M the
+    // lognormal's; F taken as known, so the CV of P/B is CV(M) x M / (M + F).
     const std::size_t pike = *m.indexOf("Pike");
     const double f = m.totalCatch(pike) / *m.compartment(pike).value(Param::Biomass);
-    EXPECT_NEAR(*m.compartment(pike).value(Param::PB), 4.899 * std::pow(15.0, -0.916) + f, 1e-12);
+    const double mPike = 4.899 * std::pow(15.0, -0.916);
+    EXPECT_NEAR(*m.compartment(pike).value(Param::PB), mPike + f, 1e-12);
+    const double sdLn = 0.916 * std::sqrt(std::log1p(std::pow(2.0 / 15.0, 2)));
+    ASSERT_TRUE(m.compartment(pike).confidenceOf(Param::PB).cv);
+    EXPECT_NEAR(*m.compartment(pike).confidenceOf(Param::PB).cv, std::sqrt(std::expm1(sdLn * sdLn)) * mPike / (mPike + f),
+                1e-12);
 
     // Diets: rows sum to 1 and follow the printed shares; the note is in the description.
     const CliRun d = runTledger("fieldwork diet --stomachs " + surveyFile("stomachs.csv") + " --taxa " +
@@ -162,7 +177,72 @@ TEST_F(FieldworkCli, BadInputNamesTheCellOrOptionAndWritesNothing)
     r = runTledger("fieldwork consumption --winf 900 --temperature 11 --aspect-ratio 1.5 --food omnivore");
     EXPECT_EQ(r.exitCode, 2);
 
+    // Uncertainty options: negative, both forms for one input, one the method does not use.
+    const std::string pike = " --into " + q(project_) + " --scenario baseline --compartment Pike";
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --tmax-se -2" + pike);
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--tmax-se '-2': expected zero or a positive number"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --tmax-se 2 --tmax-cv 0.1" + pike);
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("give --tmax-se or --tmax-cv, not both"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --k-se 0.1" + pike);
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--k-se is not used by mortality --method then-tmax"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --lengths " + surveyFile("lengths.csv") +
+                   " --taxon 'perch adult' --linf 40 --k 0.25 --linf-se 2");
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("takes L∞ and K as known"), std::string::npos) << r.err;
+
     EXPECT_EQ(slurp(project_), before) << "a refused command changed the project";
+}
+
+// --into a CSV model folder: the value with its CV and note lands in compartments.csv and
+// confidence.csv, every other file stays byte for byte; a diet (no description for its
+// note), --scenario, or a refused value write nothing.
+TEST_F(FieldworkCli, WritesIntoACsvModelFolder)
+{
+    const fs::path folder = dir_ / "reservoir";
+    fs::copy(fs::path(TL_SAMPLES_DIR) / "reservoir", folder);
+    const CsvReadResult before = readCsvModel(folder);
+    ASSERT_TRUE(before.model);
+    const std::string diet = slurp(folder / "diet.csv"), harvest = slurp(folder / "harvest.csv"),
+                      compartments = slurp(folder / "compartments.csv");
+    const std::string into = " --into " + q(folder) + " --compartment Pike";
+
+    // Refused: a diet, --scenario, an unknown compartment. Nothing changes.
+    CliRun r = runTledger("fieldwork diet --stomachs " + surveyFile("stomachs.csv") + " --taxa " +
+                          surveyFile("taxa.csv") + " --compartment 'Perch adults' --into " + q(folder));
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("no scenario description"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15" + into + " --scenario baseline");
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--scenario does not apply"), std::string::npos) << r.err;
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --into " + q(folder) + " --compartment Walleye");
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("no compartment named 'Walleye'"), std::string::npos) << r.err;
+    EXPECT_EQ(slurp(folder / "compartments.csv"), compartments);
+    EXPECT_FALSE(fs::exists(folder / "confidence.csv"));
+
+    r = runTledger("fieldwork mortality --method then-tmax --tmax 15 --tmax-se 2 --json" + into);
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const CsvReadResult after = readCsvModel(folder);
+    ASSERT_TRUE(after.model);
+    const std::size_t pike = *after.model->indexOf("Pike");
+    const Compartment& c = after.model->compartment(pike);
+    const double f = after.model->totalCatch(pike) / *c.value(Param::Biomass);
+    EXPECT_NEAR(*c.value(Param::PB), 4.899 * std::pow(15.0, -0.916) + f, 1e-12);
+    ASSERT_TRUE(c.confidenceOf(Param::PB).cv);
+    for (const char* part : {"Then et al. 2015", "SE of tmax 2 years", "delta method", "before: 0.55"})
+        EXPECT_NE(c.confidenceOf(Param::PB).source.find(part), std::string::npos) << part;
+    EXPECT_NE(r.json()["written"].get<std::string>().find("CSV model folder"), std::string::npos);
+    // Only Pike's P/B and its confidence changed; the other files are as they were.
+    Model expected = *before.model;
+    expected.compartment(pike).value(Param::PB) = c.value(Param::PB);
+    expected.compartment(pike).confidenceOf(Param::PB) = c.confidenceOf(Param::PB);
+    EXPECT_EQ(*after.model, expected);
+    EXPECT_EQ(slurp(folder / "diet.csv"), diet);
+    EXPECT_EQ(slurp(folder / "harvest.csv"), harvest);
+    EXPECT_FALSE(fs::exists(folder / ".tledger-fieldwork-write"));
 }
 
 TEST_F(FieldworkCli, ChosenPointsAndWarningsReachTheOutput)

@@ -10,6 +10,12 @@ swept_area: catch per area of each haul grouped by stratum with the strata areas
   stratified mean, its SE, Satterthwaite's df and the t interval (Cochran 1977).
 t_quantile: scipy.stats.t.ppf(p, df) for fractional df, and scipy.stats.t.cdf at the
   C++ quantile.
+equation_mc: a Monte Carlo of an empirical equation (Pauly 1980, Then et al. 2015,
+  Palomares & Pauly 1998) with numpy's seeded generator: power-law inputs drawn lognormal
+  with median = the value and CV = SE / value, the aspect ratio and the temperature of the
+  consumption equation normal with SD = SE, a residual error normal on ln(result); the
+  sample CV and the central percentile interval of the results. Written from the
+  equations, not from the C++ code, to check its delta-method CV and interval.
 """
 import json
 import sys
@@ -50,6 +56,35 @@ def swept_area(case):
     return {"mean": mean, "se": se, "df": float(dof), "ci_low": max(0.0, mean - t * se), "ci_high": mean + t * se}
 
 
+def lognormal(rng, median, se, n):
+    if se == 0:
+        return np.full(n, median)
+    return median * np.exp(rng.normal(0.0, np.sqrt(np.log1p((se / median) ** 2)), n))
+
+
+def equation_mc(case):
+    rng = np.random.default_rng(case["seed"])
+    n = case["draws"]
+    x, se = case["inputs"], case["se"]
+    if case["equation"] == "pauly1980":
+        linf, k, t = (lognormal(rng, x[i], se[i], n) for i in ("linf", "k", "t"))
+        y = 10 ** (-0.0066 - 0.279 * np.log10(linf) + 0.6543 * np.log10(k) + 0.4634 * np.log10(t))
+    elif case["equation"] == "then_tmax":
+        y = 4.899 * lognormal(rng, x["tmax"], se["tmax"], n) ** -0.916
+    elif case["equation"] == "then_growth":
+        y = 4.118 * lognormal(rng, x["k"], se["k"], n) ** 0.73 * lognormal(rng, x["linf"], se["linf"], n) ** -0.33
+    else:  # palomares_pauly, carnivore
+        w = lognormal(rng, x["winf"], se["winf"], n)
+        t = x["t"] + se["t"] * rng.standard_normal(n)
+        a = x["a"] + se["a"] * rng.standard_normal(n)
+        y = 10 ** (7.964 - 0.204 * np.log10(w) - 1.965 * 1000.0 / (t + 273.15) + 0.083 * a)
+    y = y * np.exp(case["residual"] * rng.standard_normal(n))
+    tail = (1.0 - case["level"]) / 2.0 * 100.0
+    low, high = np.percentile(y, [tail, 100.0 - tail])
+    return {"cv": float(y.std(ddof=1) / y.mean()), "ci_low": float(low), "ci_high": float(high),
+            "median": float(np.median(y))}
+
+
 def main():
     cases = json.load(open(sys.argv[1]))
     out = []
@@ -58,6 +93,8 @@ def main():
             out.append(catch_curve(c))
         elif c["kind"] == "swept_area":
             out.append(swept_area(c))
+        elif c["kind"] == "equation_mc":
+            out.append(equation_mc(c))
         else:
             out.append({"t": float(stats.t.ppf(c["p"], c["df"])), "cdf_at": float(stats.t.cdf(c["at"], c["df"]))})
     json.dump(out, sys.stdout)

@@ -94,15 +94,24 @@ FieldworkDialog::FieldworkDialog(ProjectDocument* doc, QWidget* parent) : QDialo
     addNumberRow(p, "m_linf", tr("L∞ (cm)"), tr("growth and Pauly 1980"));
     addNumberRow(p, "m_k", tr("K (per year)"), tr("growth and Pauly 1980"));
     addNumberRow(p, "m_temperature", tr("Temperature (°C)"), tr("Pauly 1980: mean annual"));
+    addUncertaintyRows(p, {{"m_tmax_se", tr("± SE of maximum age")},
+                           {"m_linf_se", tr("± SE of L∞")},
+                           {"m_k_se", tr("± SE of K")},
+                           {"m_temperature_se", tr("± SE of temperature")},
+                           {"m_residual", tr("Residual SD of ln M")}});
     // 4. Consumption.
     p = newPage(tr("Palomares & Pauly 1998: Q/B from asymptotic weight, temperature, the caudal fin's aspect "
-                   "ratio and the food. No sampling CV (grade C)."));
+                   "ratio and the food."));
     addNumberRow(p, "winf", tr("W∞ (g wet weight)"), tr("asymptotic weight"));
     addNumberRow(p, "q_temperature", tr("Temperature (°C)"), tr("mean annual water temperature"));
     addNumberRow(p, "aspect", tr("Aspect ratio A"), tr("caudal fin height² / surface"));
     food_ = new QComboBox;
     food_->addItems({tr("Carnivore"), tr("Herbivore"), tr("Detritivore")});
     static_cast<QFormLayout*>(p->layout())->addRow(tr("Food"), food_);
+    addUncertaintyRows(p, {{"winf_se", tr("± SE of W∞")},
+                           {"q_temperature_se", tr("± SE of temperature")},
+                           {"aspect_se", tr("± SE of A")},
+                           {"q_residual", tr("Residual SD of ln Q/B")}});
     // 5. Diet.
     p = newPage(tr("The compartment's diet row from prey weights or volumes; prey mapped to no compartment are "
                    "left out. CV per prey by bootstrap; grade from the number of stomachs."));
@@ -229,6 +238,38 @@ QLineEdit* FieldworkDialog::addNumberRow(QWidget* page, const QString& name, con
     static_cast<QFormLayout*>(page->layout())->addRow(label, edit);
     fields_.emplace_back(name, edit);
     return edit;
+}
+
+// Optional standard errors of an equation's inputs, in each input's unit, under a note
+// saying what they give (core/fieldwork/empirical_equations.h has the method).
+void FieldworkDialog::addUncertaintyRows(QWidget* page, std::initializer_list<std::pair<QString, QString>> rows)
+{
+    auto* note = new QLabel(tr("Uncertainty (optional): standard errors in each input's unit give a CV and "
+                               "interval by the delta method; none given: no CV (grade C)."));
+    note->setWordWrap(true);
+    static_cast<QFormLayout*>(page->layout())->addRow(note);
+    for (const auto& [name, label] : rows)
+        addNumberRow(page, name, label, name.endsWith("residual") ? tr("optional, e.g. 0.3") : tr("optional"));
+}
+
+// The standard errors typed on the current page (empty: 0); `why` names an unreadable one.
+EquationUncertainty FieldworkDialog::uncertainty(bool consumption, QString* why) const
+{
+    EquationUncertainty u;
+    auto se = [&](const char* name) { return number(name, false, why).value_or(0.0); };
+    if (consumption) {
+        u.winfSe = se("winf_se");
+        u.temperatureSe = se("q_temperature_se");
+        u.aspectRatioSe = se("aspect_se");
+        u.residualSdLn = se("q_residual");
+    } else {
+        u.tmaxSe = se("m_tmax_se");
+        u.linfSe = se("m_linf_se");
+        u.kSe = se("m_k_se");
+        u.temperatureSe = se("m_temperature_se");
+        u.residualSdLn = se("m_residual");
+    }
+    return u;
 }
 
 void FieldworkDialog::setKind(Kind kind) { kind_->setCurrentIndex(static_cast<int>(kind)); }
@@ -446,20 +487,22 @@ bool FieldworkDialog::preview()
         const auto tmax = number("tmax", eq == 0, &why);
         const auto linf = number("m_linf", eq != 0, &why), k = number("m_k", eq != 0, &why);
         const auto t = number("m_temperature", eq == 2, &why);
+        const EquationUncertainty u = uncertainty(false, &why);
         if (!why.isEmpty()) return showFailure({}, why), false;
-        e = eq == 0 ? thenMortalityFromMaxAge(*tmax) : eq == 1 ? thenMortalityFromGrowth(*linf, *k)
-                                                               : paulyNaturalMortality(*linf, *k, *t);
+        e = eq == 0 ? thenMortalityFromMaxAge(*tmax, u) : eq == 1 ? thenMortalityFromGrowth(*linf, *k, u)
+                                                                  : paulyNaturalMortality(*linf, *k, *t, u);
         if (!e->valid) return showFailure(e->problems, {}), false;
         break;
     }
     case Kind::Consumption: {
         const auto winf = number("winf", true, &why), t = number("q_temperature", true, &why),
                    a = number("aspect", true, &why);
+        const EquationUncertainty u = uncertainty(true, &why);
         if (!why.isEmpty()) return showFailure({}, why), false;
         const FeedingType food = food_->currentIndex() == 1   ? FeedingType::Herbivore
                                  : food_->currentIndex() == 2 ? FeedingType::Detritivore
                                                               : FeedingType::Carnivore;
-        e = palomaresPaulyConsumption(*winf, *t, *a, food);
+        e = palomaresPaulyConsumption(*winf, *t, *a, food, u);
         if (!e->valid) return showFailure(e->problems, {}), false;
         break;
     }

@@ -8,9 +8,11 @@
 #pragma once
 
 #include <QDialog>
+#include <initializer_list>
 #include <optional>
 #include <vector>
 
+#include "core/fieldwork/empirical_equations.h"
 #include "core/fieldwork/estimate.h"
 #include "core/fieldwork/length_mortality.h"
 #include "core/fieldwork/stomach_diet.h"
@@ -54,6 +56,8 @@ private:
     QLineEdit* addFileRow(QWidget* page, const QString& name, const QString& label, const QString& filter);
     QLineEdit* addNumberRow(QWidget* page, const QString& name, const QString& label, const QString& placeholder);
     QWidget* newPage(const QString& intro);
+    void addUncertaintyRows(QWidget* page, std::initializer_list<std::pair<QString, QString>> rows);
+    tl::fieldwork::EquationUncertainty uncertainty(bool consumption, QString* why) const;
     void kindChanged();
     void fillTaxa();
     void showCatchCurve(const tl::fieldwork::CatchCurveResult& r);

@@ -127,6 +127,20 @@ TEST(ApplyEstimate, ConvertsBiomassAndWritesMAsPBPlusF)
     EXPECT_NEAR(*m.compartment(1).value(Param::PB), 0.4 + 0.5 / 0.045, 1e-12);
     EXPECT_NE(m.compartment(1).confidenceOf(Param::PB).source.find("Allen 1971"), std::string::npos);
 
+    // M with a CV 0.25 and interval 0.3-0.55: F is taken as known, so the SD of P/B is
+    // that of M (0.1): CV 0.1 / (0.4 + F); the interval moves by F.
+    Estimate uncertain = mort;
+    uncertain.cv = 0.25;
+    uncertain.ciLow = 0.3;
+    uncertain.ciHigh = 0.55;
+    const double f = 0.5 / 0.045;
+    Estimate pb;
+    ASSERT_TRUE(applyEstimate(m, 1, Param::PB, uncertain, "d", {}, &pb).empty());
+    EXPECT_NEAR(*pb.cv, 0.1 / (0.4 + f), 1e-12);
+    EXPECT_NEAR(*m.compartment(1).confidenceOf(Param::PB).cv, 0.1 / (0.4 + f), 1e-12);
+    EXPECT_NEAR(*pb.ciLow, 0.3 + f, 1e-12);
+    EXPECT_NEAR(*pb.ciHigh, 0.55 + f, 1e-12);
+
     // Without B there is no F: refused, nothing changed.
     m.compartment(1).value(Param::Biomass).reset();
     const Model before = m;

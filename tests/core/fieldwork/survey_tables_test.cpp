@@ -47,6 +47,16 @@ TEST(SurveyTables, ReadsHaulsWithZeroCatchHaulsAndTowLengths)
                                   "t.csv");
     ASSERT_TRUE(towed.value);
     EXPECT_DOUBLE_EQ(towed.value->hauls[0].sweptAreaKm2, 0.025);
+
+    // 29 February of a leap year is a day (2024, and 2000 as a multiple of 400).
+    for (const char* day : {"2024-02-29", "2000-02-29", "2026-12-31"})
+        EXPECT_TRUE(parseHauls(std::string("station,haul,date,swept_area_km2,taxon,catch_kg\nS1,1,") + day +
+                                   ",0.02,roach,1\n",
+                               "d.csv")
+                        .value)
+            << day;
+    EXPECT_FALSE(parseHauls("station,haul,date,swept_area_km2,taxon,catch_kg\nS1,1,1900-02-29,0.02,roach,1\n", "d.csv")
+                     .value);
 }
 
 TEST(SurveyTables, EachMalformedHaulFileNamesTheCell)
@@ -67,6 +77,9 @@ TEST(SurveyTables, EachMalformedHaulFileNamesTheCell)
         {"swept area zero", h + "S1,1,2026-06-01,north,0,roach,1,\n", code::kSurveyValue, 2, 5},
         {"swept area missing", h + "S1,1,2026-06-01,north,,roach,1,\n", code::kCsvMissingValue, 2, 5},
         {"date in a local format", h + "S1,1,01/06/2026,north,0.02,roach,1,\n", code::kSurveyValue, 2, 3},
+        {"month 13", h + "S1,1,2026-13-01,north,0.02,roach,1,\n", code::kSurveyValue, 2, 3},
+        {"30 February", h + "S1,1,2026-02-30,north,0.02,roach,1,\n", code::kSurveyValue, 2, 3},
+        {"29 February of a common year", h + "S1,1,2026-02-29,north,0.02,roach,1,\n", code::kSurveyValue, 2, 3},
         {"empty station", h + ",1,2026-06-01,north,0.02,roach,1,\n", code::kCsvMissingValue, 2, 1},
         {"haul with two swept areas", h + ok + "S1,1,2026-06-01,north,0.03,bream,1,\n", code::kSurveyInconsistent, 3, 5},
         {"haul in two strata", h + ok + "S1,1,2026-06-01,south,0.02,bream,1,\n", code::kSurveyInconsistent, 3, 4},

@@ -198,6 +198,54 @@ private slots:
         const std::size_t pike = *m.indexOf("Pike");
         QVERIFY(std::abs(*m.compartment(pike).value(tl::Param::PB) -
                          (4.899 * std::pow(15.0, -0.916) + m.totalCatch(pike) / 0.9)) < 1e-12);
+        QVERIFY(!m.compartment(pike).confidenceOf(tl::Param::PB).cv);  // no SE given: no CV
+        dialog.setField("equation", "pauly1980");
+        dialog.setField("m_linf", "90");
+        dialog.setField("m_k", "0.2");
+        dialog.setField("m_temperature", "11");
+        dialog.setField("m_k_se", "0.04");
+        QVERIFY(dialog.preview());
+        QVERIFY2(dialog.previewText().contains("SE of K 0.04"), qPrintable(dialog.previewText()));
+        dialog.show();
+        dialog.resize(921, 630);  // what the main window gives it at 1024 x 700 (90 %)
+        QApplication::processEvents();
+        keepSnapshot(dialog, "fieldwork-mortality-uncertainty-small");
+    }
+
+    void equationUncertaintyGivesACvBeforeWriting()
+    {
+        openReservoir();
+        FieldworkDialog dialog(&doc_);
+        dialog.setKind(Kind::Consumption);
+        dialog.setCompartment("Perch adults");
+        dialog.setField("winf", "900");
+        dialog.setField("q_temperature", "11");
+        dialog.setField("aspect", "1.5");
+        dialog.setField("winf_se", "270");
+        dialog.setField("q_temperature_se", "1");
+        dialog.setField("aspect_se", "-0.2");
+        QVERIFY(!dialog.preview());  // a negative SE is refused, named
+        QVERIFY2(dialog.previewText().contains("SE of A must be zero or a positive number"),
+                 qPrintable(dialog.previewText()));
+        dialog.setField("aspect_se", "0.2");
+        QVERIFY(dialog.preview());
+        QVERIFY2(dialog.previewText().contains("CV ") && dialog.previewText().contains("95 % CI"),
+                 qPrintable(dialog.previewText()));
+        QVERIFY(dialog.previewText().contains("delta method"));
+        QVERIFY(dialog.write());
+        const tl::Confidence& c = doc_.model().compartment(*doc_.model().indexOf("Perch adults")).confidenceOf(tl::Param::QB);
+        QVERIFY(c.cv);
+        // By hand from the delta method (core/fieldwork/empirical_equations.h): W∞ CV 0.3, T ± 1 °C, A ± 0.2.
+        const double dT = std::log(10.0) * 1965.0 / std::pow(284.15, 2), dA = std::log(10.0) * 0.083;
+        const double v = std::pow(0.204, 2) * std::log1p(0.09) + dT * dT + dA * dA * 0.04;
+        QVERIFY(std::abs(*c.cv - std::sqrt(std::expm1(v))) < 1e-12);
+        dialog.show();
+        dialog.resize(1200, 760);
+        QApplication::processEvents();
+        keepSnapshot(dialog, "fieldwork-consumption-uncertainty");
+        dialog.resize(921, 630);  // what the main window gives it at 1024 x 700 (90 %)
+        QApplication::processEvents();
+        keepSnapshot(dialog, "fieldwork-consumption-uncertainty-small");
     }
 };
 
