@@ -261,7 +261,8 @@ bool EnsembleStatistics::merge(const EnsembleStatistics& o, std::string* why)
     };
     if (cancelled || o.cancelled) return refuse("a cancelled run is not a slice and cannot be merged");
     if (o.fingerprint != fingerprint || o.seed != seed || o.totalDraws != totalDraws || !(o.analyses == analyses) ||
-        o.outputNames != outputNames || o.compartments != compartments || o.shape != shape)
+        o.outputNames != outputNames || o.compartments != compartments || o.shape != shape ||
+        o.flowTermsHeld != flowTermsHeld)
         return refuse("it comes from another ensemble (scenario, seed, draws, analyses or distributions differ)");
     for (const DrawRange& a : ranges)
         for (const DrawRange& b : o.ranges)
@@ -348,6 +349,7 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
     stats.breaks.assign(model.size(), {});
     stats.outputNames = layout.names();
     stats.inputNames = inputs.names();
+    stats.flowTermsHeld = settings.holdFlowTerms;
     for (double p : pointOutputs) stats.outputs.emplace_back(OutputStatistics::scaleExponentOf(p));
 
     const unsigned threads = std::max(1u, std::min<unsigned>(settings.threads, static_cast<unsigned>(
@@ -436,6 +438,7 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
         KeptDraws& kept = run.kept;
         kept.inputNames = inputs.names();
         kept.outputNames = layout.names();
+        for (std::size_t r = 0; r < inputs.dietRows().size(); ++r) kept.dietColumns.push_back(inputs.dietColumns(r));
         std::vector<std::pair<std::uint64_t, std::pair<std::size_t, std::size_t>>> order;  // draw, (worker, row)
         for (std::size_t wi = 0; wi < workers.size(); ++wi)
             for (std::size_t r = 0; r < workers[wi].keptDraws.size(); ++r) order.push_back({workers[wi].keptDraws[r], {wi, r}});

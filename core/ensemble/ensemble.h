@@ -59,6 +59,7 @@ struct EnsembleStatistics {
     std::vector<std::string> outputNames;
     std::vector<OutputStatistics> outputs;
     std::vector<std::string> inputNames;  // the drawn inputs (descriptive)
+    bool flowTermsHeld = false;           // EnsembleSettings::holdFlowTerms (ensemble_inputs.h)
     bool cancelled = false;
 
     bool complete() const { return ranges.size() == 1 && ranges[0].first == 0 && ranges[0].last + 1 == totalDraws; }
@@ -73,6 +74,9 @@ struct EnsembleStatistics {
 // global sensitivity (PRCC) and for CSV export.
 struct KeptDraws {
     std::vector<std::string> inputNames, outputNames;
+    // Per diet row drawn, its input columns [first, first + count): a row's shares sum to
+    // its entered total, so a regression on inputs drops one of them (sensitivity PRCC).
+    std::vector<std::pair<std::size_t, std::size_t>> dietColumns;
     std::vector<std::uint64_t> draw;
     Eigen::MatrixXd inputs;   // draws x inputs
     Eigen::MatrixXd outputs;  // draws x outputs

@@ -103,7 +103,7 @@ std::string ensembleJson(const EnsembleStatistics& s)
     w.endArray();
     w.field("shape", s.shape);
     w.field("outputs_over", "balanced draws");
-    w.field("held_at_point_value", kHeldFixed);
+    w.field("held_at_point_value", heldFixed(s));
     w.key("inputs").beginArray();
     for (const std::string& n : s.inputNames) w.value(n);
     w.endArray();
@@ -140,7 +140,7 @@ std::string ensembleTable(const EnsembleStatistics& s)
     if (s.cancelled) out += "CANCELLED: the figures cover only the draws finished.\n";
     out += "Balanced: " + std::to_string(s.balanced) + " draws (" + displayNumber(100.0 * s.balancedShare()) +
            " %); singular: " + std::to_string(s.singular) + "\n";
-    out += "Held at their point values: " + std::string(kHeldFixed) + ".\n\n";
+    out += "Held at their point values: " + std::string(heldFixed(s)) + ".\n\n";
     TextTable t;
     t.addColumn("output", TextTable::Align::Left);
     for (const char* h : {"2.5 %", "25 %", "median", "75 %", "97.5 %", "mean"}) t.addColumn(h);
@@ -187,6 +187,7 @@ std::string partialJson(const EnsembleStatistics& s)
     for (const std::string& a : analysesKeys(s.analyses)) w.value(a);
     w.endArray();
     w.field("shape", s.shape);
+    w.field("flow_terms_held", s.flowTermsHeld);
     w.key("ranges").beginArray();
     for (const DrawRange& r : s.ranges) {
         w.beginArray();
@@ -276,6 +277,7 @@ std::optional<EnsembleStatistics> readPartialJson(std::string_view text, const s
         if (!analyses) return fail("unknown analyses '" + words + "'");
         s.analyses = *analyses;
         s.shape = j.at("shape").get<std::string>();
+        s.flowTermsHeld = j.value("flow_terms_held", true);  // partials written before flow terms were drawn held them
         for (const auto& r : j.at("ranges")) {
             const DrawRange range{r.at(0).get<std::uint64_t>(), r.at(1).get<std::uint64_t>()};
             if (range.first > range.last || range.last >= s.totalDraws) return fail("a draw range lies outside the draws");
@@ -344,6 +346,10 @@ std::string ensembleSettingsJson(const EnsembleSettings& settings, const std::st
     w.field("shape", shapeKey(settings.shape));
     w.key("diet_cv");
     if (settings.dietCv) w.value(*settings.dietCv);
+    else w.value("grade C of the project");
+    w.field("flow_terms_held", settings.holdFlowTerms);
+    w.key("catch_cv");
+    if (settings.catchCv) w.value(*settings.catchCv);
     else w.value("grade C of the project");
     w.endObject();
     return w.str();

@@ -19,7 +19,10 @@ namespace tl::ensemble {
 inline constexpr const char* kPartialFormat = "tledger-ensemble-partial";
 inline constexpr int kPartialVersion = 1;
 // What the ensemble holds at the point value (ensemble_inputs.h), said in every report.
+// kHeldFixed with EnsembleSettings::holdFlowTerms; kHeldFixedDrawingFlows otherwise.
 inline constexpr const char* kHeldFixed = "catch, U, BA, E, detritus import and detritus routing";
+inline constexpr const char* kHeldFixedDrawingFlows = "detritus routing, and U where left to its default (0.2)";
+inline const char* heldFixed(const EnsembleStatistics& s) { return s.flowTermsHeld ? kHeldFixed : kHeldFixedDrawingFlows; }
 
 std::string ensembleJson(const EnsembleStatistics& stats);
 std::string ensembleTable(const EnsembleStatistics& stats);
