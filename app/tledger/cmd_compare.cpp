@@ -1,11 +1,15 @@
 // tledger compare PROJECT --scenarios A,B[,C...] [--json] [--keep-feeding-cycles]
-//                [--ensemble N --seed S [--threads T]]
+//                [--ensemble N --seed S | --ensemble stored] [--threads T]
 // Two or more scenarios of one project side by side (issue 16; DESIGN 5.2): the inputs
 // that differ and every output with its absolute and percent difference against the
 // first scenario named (core/compare). JSON keys: DEVELOPERS.md, "tledger compare".
 // With --ensemble, each scenario's ensemble of N draws (seed S, the same for all: paired
 // draws) says whether each difference exceeds the uncertainty: the share of paired draws
-// in which it keeps its sign (core/compare/ensemble_agreement.h).
+// in which it keeps its sign (core/compare/ensemble_agreement.h). `--ensemble stored` takes
+// the settings of each scenario's latest stored ensemble run (`tledger ensemble` on the
+// project) and draws them again: a draw is a pure function of (scenario, seed, index), so
+// nothing per draw needs storing. The runs must share their settings (paired draws), and
+// a scenario changed since its run is named (its shares are from its current values).
 // Exit 0 when every scenario balances, 1 when one does not (its figures are shown as
 // they stand), 2 for bad usage, a MODEL that does not open or a scenario name the
 // project lacks.
@@ -26,7 +30,7 @@ namespace {
 
 constexpr const char* kUsage =
     "usage: tledger compare PROJECT --scenarios A,B[,C...] [--json] [--keep-feeding-cycles]\n"
-    "                       [--ensemble N --seed S [--threads T]]\n";
+    "                       [--ensemble N --seed S | --ensemble stored] [--threads T]\n";
 
 std::optional<std::uint64_t> wholeNumber(const std::string& text)
 {
@@ -36,7 +40,19 @@ std::optional<std::uint64_t> wholeNumber(const std::string& text)
     return n;
 }
 
-// The ensemble settings of --ensemble, or a message on std::cerr and nothing.
+std::optional<unsigned> threadsOption(const ParsedOptions& opts)
+{
+    const auto t = opts.value("--threads");
+    if (!t) return std::max(1u, std::thread::hardware_concurrency());
+    const auto tv = wholeNumber(*t);
+    if (!tv || *tv == 0 || *tv > 256) {
+        std::cerr << "tledger compare: --threads '" << *t << "': expected a whole number from 1 to 256\n";
+        return std::nullopt;
+    }
+    return static_cast<unsigned>(*tv);
+}
+
+// The ensemble settings of --ensemble N --seed S, or a message on std::cerr and nothing.
 std::optional<ensemble::EnsembleSettings> ensembleSettings(const ParsedOptions& opts)
 {
     const auto draws = opts.value("--ensemble");
@@ -58,15 +74,6 @@ std::optional<ensemble::EnsembleSettings> ensembleSettings(const ParsedOptions& 
     }
     s.draws = *n;
     s.seed = *sv;
-    s.threads = std::max(1u, std::thread::hardware_concurrency());
-    if (const auto t = opts.value("--threads")) {
-        const auto tv = wholeNumber(*t);
-        if (!tv || *tv == 0 || *tv > 256) {
-            std::cerr << "tledger compare: --threads '" << *t << "': expected a whole number from 1 to 256\n";
-            return std::nullopt;
-        }
-        s.threads = static_cast<unsigned>(*tv);
-    }
     return s;
 }
 
@@ -82,10 +89,20 @@ int cmdCompare(const Args& args)
         std::cerr << "tledger compare: expected one PROJECT and --scenarios\n" << kUsage;
         return 2;
     }
+    const bool stored = opts->value("--ensemble") == "stored";
+    if (stored && opts->value("--seed")) {
+        std::cerr << "tledger compare: --ensemble stored takes the seed of the stored runs; leave out --seed\n" << kUsage;
+        return 2;
+    }
     std::optional<ensemble::EnsembleSettings> agreement;
+    std::optional<unsigned> threads;
     if (opts->value("--ensemble") || opts->value("--seed") || opts->value("--threads")) {
-        agreement = ensembleSettings(*opts);
-        if (!agreement) return 2;
+        threads = threadsOption(*opts);
+        if (!threads) return 2;
+        if (!stored) {
+            agreement = ensembleSettings(*opts);
+            if (!agreement) return 2;
+        }
     }
     const std::filesystem::path path = opts->positional[0];
     ModelSource source = readModelSource(path, {std::nullopt, OpenMode::ReadOnly});
@@ -101,6 +118,17 @@ int cmdCompare(const Args& args)
     }
     AnalysisOptions options;
     if (opts->has("--keep-feeding-cycles")) options.feedingCycles = FeedingCycles::Kept;
+    if (stored) {
+        std::string error;
+        std::vector<std::string> warnings;
+        agreement = storedEnsembleSettings(*source.project, picked, error, warnings);
+        for (const std::string& w : warnings) std::cerr << "warning: " << w << '\n';
+        if (!agreement) {
+            std::cerr << "tledger compare: " << path.string() << ": " << error << '\n';
+            return 2;
+        }
+    }
+    if (agreement) agreement->threads = *threads;
     ScenarioComparison comparison = compareScenarios(picked, options);
     if (agreement) {
         const EnsembleAgreementRun run = attachEnsembleRuns(comparison, picked, *agreement);

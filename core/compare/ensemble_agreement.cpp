@@ -4,6 +4,8 @@
 #include <algorithm>
 #include <map>
 
+#include <nlohmann/json.hpp>
+
 #include "core/ensemble/ensemble_report.h"
 
 namespace tl {
@@ -24,7 +26,9 @@ EnsembleAgreementRun attachEnsembleRuns(ScenarioComparison& comparison, const st
     settings.range.reset();
     settings.analyses = {true, true, true};
     std::vector<ensemble::EnsembleRun> runs;
-    EnsembleAgreementInfo info{settings.draws, settings.seed, {}, 0, {}};
+    EnsembleAgreementInfo info;
+    info.draws = settings.draws;
+    info.seed = settings.seed;
     for (const Scenario* s : scenarios) {
         runs.push_back(ensemble::runEnsemble(s->model, settings, cancel));
         const ensemble::EnsembleRun& run = runs.back();
@@ -34,6 +38,7 @@ EnsembleAgreementRun attachEnsembleRuns(ScenarioComparison& comparison, const st
             return result;
         }
         info.balanced.push_back(run.statistics.balanced);
+        info.fingerprints.push_back(run.statistics.fingerprint);
         info.held = ensemble::heldFixed(run.statistics);
     }
     // Draws balanced in every scenario, and each one's row in each run's kept draws.
@@ -64,6 +69,49 @@ EnsembleAgreementRun attachEnsembleRuns(ScenarioComparison& comparison, const st
         return draws;
     });
     return result;
+}
+
+std::optional<ensemble::EnsembleSettings> storedEnsembleSettings(const Project& project,
+                                                                 const std::vector<const Scenario*>& scenarios,
+                                                                 std::string& error, std::vector<std::string>& warnings)
+{
+    std::optional<ensemble::EnsembleSettings> common;
+    std::string first;
+    for (const Scenario* s : scenarios) {
+        const StoredRun* latest = nullptr;
+        for (const StoredRun& run : project.runs)
+            if (run.kind == "ensemble" && run.scenario == s->name && (!latest || run.id > latest->id)) latest = &run;
+        if (!latest) {
+            error = "scenario '" + s->name + "' has no stored ensemble run (run `tledger ensemble PROJECT --scenario '" +
+                    s->name + "' --draws N --seed S` first, or give --ensemble N --seed S)";
+            return std::nullopt;
+        }
+        std::string why;
+        auto settings = ensemble::readEnsembleSettingsJson(latest->settingsJson, &why);
+        if (!settings) {
+            error = "the stored ensemble run " + std::to_string(latest->id) + " of scenario '" + s->name +
+                    "' cannot be read: " + why;
+            return std::nullopt;
+        }
+        const nlohmann::json summary = nlohmann::json::parse(latest->summaryJson, nullptr, false);
+        const std::string stored = summary.is_object() ? summary.value("fingerprint", std::string()) : std::string();
+        if (stored != ensemble::ensembleFingerprint(s->model, *settings))
+            warnings.push_back("scenario '" + s->name + "' changed since its stored ensemble run " +
+                               std::to_string(latest->id) + " (" + latest->created +
+                               "); its draws are made from its current values");
+        if (!common) {
+            common = settings;
+            first = s->name;
+        } else if (settings->draws != common->draws || settings->seed != common->seed || settings->shape != common->shape ||
+                   settings->dietCv != common->dietCv || settings->catchCv != common->catchCv ||
+                   settings->holdFlowTerms != common->holdFlowTerms) {
+            error = "the stored ensemble runs of '" + first + "' and '" + s->name +
+                    "' differ in draws, seed, shape, CVs or held inputs; paired draws need the same settings "
+                    "(run both again with the same --draws and --seed, or give --ensemble N --seed S)";
+            return std::nullopt;
+        }
+    }
+    return common;
 }
 
 }  // namespace tl

@@ -40,4 +40,15 @@ struct EnsembleAgreementRun {
 EnsembleAgreementRun attachEnsembleRuns(ScenarioComparison& comparison, const std::vector<const Scenario*>& scenarios,
                                         ensemble::EnsembleSettings settings, const std::atomic<bool>* cancel = nullptr);
 
+// The settings of the latest stored ensemble run (kind "ensemble") of each scenario, when
+// they agree in draws, seed, shape, CVs and held inputs (paired draws need that). Running
+// them again gives the stored draws: a draw is a pure function of (scenario, seed, index),
+// so nothing per draw is stored. Nothing, with `error` a sentence naming the scenario,
+// when one has no stored run, its settings cannot be read, or they disagree. `warnings`
+// names a scenario changed since its run (fingerprint differs; its draws then come from
+// its current values).
+std::optional<ensemble::EnsembleSettings> storedEnsembleSettings(const Project& project,
+                                                                 const std::vector<const Scenario*>& scenarios,
+                                                                 std::string& error, std::vector<std::string>& warnings);
+
 }  // namespace tl

@@ -83,6 +83,7 @@ struct EnsembleAgreementInfo {
     std::vector<std::uint64_t> balanced;  // per scenario
     std::uint64_t paired = 0;             // draws balanced in every scenario
     std::string held;                     // inputs held at their point values
+    std::vector<std::string> fingerprints;  // per scenario: the ensemble's (what decides its draws)
 };
 
 struct ScenarioComparison {

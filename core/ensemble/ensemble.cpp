@@ -225,6 +225,13 @@ std::string hex(std::uint64_t v)
     return buf;
 }
 
+std::string fingerprintOf(const EnsembleInputs& inputs, const Analyses& analyses)
+{
+    std::uint64_t fp = inputs.fingerprint();
+    fp ^= (analyses.trophicLevels ? 1u : 0u) | (analyses.levels ? 2u : 0u) | (analyses.indicators ? 4u : 0u);
+    return hex(fp);
+}
+
 // One thread's share of the work: its buffers and its statistics.
 struct Worker {
     BalanceInputs in;
@@ -336,10 +343,7 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
     }
 
     EnsembleStatistics& stats = run.statistics;
-    std::uint64_t fp = inputs.fingerprint();
-    fp ^= (settings.analyses.trophicLevels ? 1u : 0u) | (settings.analyses.levels ? 2u : 0u) |
-          (settings.analyses.indicators ? 4u : 0u);
-    stats.fingerprint = hex(fp);
+    stats.fingerprint = fingerprintOf(inputs, settings.analyses);
     stats.seed = settings.seed;
     stats.totalDraws = settings.draws;
     stats.analyses = settings.analyses;
@@ -456,6 +460,13 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
         }
     }
     return run;
+}
+
+std::string ensembleFingerprint(const Model& model, const EnsembleSettings& settings)
+{
+    const BalancePlan plan = BalancePlan::build(model);
+    if (plan.hasStructuralErrors()) return {};
+    return fingerprintOf(EnsembleInputs::build(model, plan, settings), settings.analyses);
 }
 
 }  // namespace tl::ensemble

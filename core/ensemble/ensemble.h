@@ -98,4 +98,9 @@ using EnsembleProgress = std::function<void(std::uint64_t done, std::uint64_t to
 EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings,
                         const std::atomic<bool>* cancel = nullptr, const EnsembleProgress& progress = {});
 
+// The fingerprint runEnsemble would give (EnsembleStatistics::fingerprint) without running
+// a draw: whether a stored run still describes the scenario. Empty when the scenario's
+// balance cannot be planned.
+std::string ensembleFingerprint(const Model& model, const EnsembleSettings& settings);
+
 }  // namespace tl::ensemble

@@ -355,4 +355,35 @@ std::string ensembleSettingsJson(const EnsembleSettings& settings, const std::st
     return w.str();
 }
 
+std::optional<EnsembleSettings> readEnsembleSettingsJson(std::string_view text, std::string* why)
+{
+    auto fail = [&](std::string reason) -> std::optional<EnsembleSettings> {
+        if (why) *why = std::move(reason);
+        return std::nullopt;
+    };
+    const nlohmann::json j = nlohmann::json::parse(text, nullptr, false);
+    if (!j.is_object()) return fail("the stored settings are not a JSON object");
+    try {
+        EnsembleSettings s;
+        s.draws = j.at("draws").get<std::uint64_t>();
+        const std::string seed = j.at("seed").get<std::string>();
+        if (std::from_chars(seed.data(), seed.data() + seed.size(), s.seed).ec != std::errc{}) return fail("bad seed '" + seed + "'");
+        std::string words;
+        for (const auto& a : j.at("analyses")) words += (words.empty() ? "" : ",") + a.get<std::string>();
+        const auto analyses = parseAnalyses(words);
+        if (!analyses) return fail("unknown analyses '" + words + "'");
+        s.analyses = *analyses;
+        const auto shape = parseShape(j.at("shape").get<std::string>());
+        if (!shape) return fail("unknown shape '" + j.at("shape").get<std::string>() + "'");
+        s.shape = *shape;
+        if (j.at("diet_cv").is_number()) s.dietCv = j.at("diet_cv").get<double>();
+        s.holdFlowTerms = j.value("flow_terms_held", true);
+        if (j.contains("catch_cv") && j.at("catch_cv").is_number()) s.catchCv = j.at("catch_cv").get<double>();
+        if (s.draws == 0) return fail("no draws");
+        return s;
+    } catch (const nlohmann::json::exception& e) {
+        return fail(std::string("a key is missing or of the wrong type (") + e.what() + ")");
+    }
+}
+
 }  // namespace tl::ensemble

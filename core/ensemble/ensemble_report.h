@@ -36,5 +36,11 @@ std::optional<EnsembleStatistics> readPartialJson(std::string_view text, const s
 std::string keptDrawsCsv(const KeptDraws& kept);
 
 std::string ensembleSettingsJson(const EnsembleSettings& settings, const std::string& scenario);
+// The settings a stored run was made with (ensembleSettingsJson), for running its draws
+// again: draws, seed, analyses, shape, diet and catch CVs, whether flow terms were held
+// (a run stored before they were drawn held them). Threads are the caller's. Per-parameter
+// shapes and per-row diet CVs are not stored. Nothing, with *why set, when the text is
+// not such settings.
+std::optional<EnsembleSettings> readEnsembleSettingsJson(std::string_view text, std::string* why = nullptr);
 
 }  // namespace tl::ensemble

@@ -128,6 +128,26 @@ TEST(CompareCli, EnsembleGivesSameSignSharesOfPairedDraws)
         }
     }
     EXPECT_GT(numbers, 5);
+    // --ensemble stored: the settings of each scenario's stored `tledger ensemble` run, drawn
+    // again; the same draws, so the same shares.
+    run = runTledger(cmd + " --ensemble stored --json");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("'narrow' has no stored ensemble run"), std::string::npos) << run.err;
+    const std::string quoted = shellQuoted(path.string());
+    ASSERT_EQ(runTledger("ensemble " + quoted + " --scenario narrow --draws 400 --seed 5").exitCode, 0);
+    ASSERT_EQ(runTledger("ensemble " + quoted + " --scenario 'more mullet landed' --draws 400 --seed 6").exitCode, 0);
+    run = runTledger(cmd + " --ensemble stored --json");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("differ in draws, seed"), std::string::npos) << run.err;
+    ASSERT_EQ(runTledger("ensemble " + quoted + " --scenario 'more mullet landed' --draws 400 --seed 5").exitCode, 0);
+    run = runTledger(cmd + " --ensemble stored --threads 1 --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    EXPECT_EQ(run.err.find("changed since"), std::string::npos) << run.err;
+    EXPECT_EQ(run.json().at("outputs"), j.at("outputs"));
+    EXPECT_EQ(run.json().at("ensemble").at("paired_draws"), j.at("ensemble").at("paired_draws"));
+    run = runTledger(cmd + " --ensemble stored --seed 5");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("leave out --seed"), std::string::npos) << run.err;
     // Without --ensemble: null, as before.
     run = runTledger(cmd + " --json");
     j = run.json();

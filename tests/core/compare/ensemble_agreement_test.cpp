@@ -7,6 +7,7 @@
 #include <gtest/gtest.h>
 
 #include "core/compare/comparison_report.h"
+#include "core/ensemble/ensemble_report.h"
 #include "tests/support/small_models.h"
 #include "tests/support/test_support.h"
 
@@ -132,6 +133,63 @@ TEST(EnsembleAgreement, AnIdenticalPairHasNoSignToKeep)
     }
     const nlohmann::json j = nlohmann::json::parse(comparisonJson(c));
     for (const auto& o : j.at("outputs")) EXPECT_TRUE(o.at("differences")[0].at("same_sign_share").is_null());
+}
+
+// A stored run as `tledger ensemble` stores it (settings and summary JSON).
+StoredRun storedRun(const Scenario& s, const ensemble::EnsembleSettings& settings, std::int64_t id)
+{
+    StoredRun run;
+    run.id = id;
+    run.scenario = s.name;
+    run.kind = "ensemble";
+    run.settingsJson = ensemble::ensembleSettingsJson(settings, s.name);
+    run.summaryJson = ensemble::ensembleJson(ensemble::runEnsemble(s.model, settings).statistics);
+    run.created = "2026-12-02T10:00:00Z";
+    return run;
+}
+
+TEST(EnsembleAgreement, StoredRunsGiveTheirSettingsBackAndNameAChangedScenario)
+{
+    Project project;
+    project.scenarios = {pond("baseline", 5.0), pond("grazer up 1 %", 5.05)};
+    const Scenario& a = project.scenarios[0];
+    const Scenario& b = project.scenarios[1];
+    ensemble::EnsembleSettings s = settings();
+    s.draws = 300;
+    s.catchCv = 0.2;
+    s.shape = ensemble::Shape::Triangular;
+    project.runs = {storedRun(a, s, 1), storedRun(b, s, 2)};
+    std::string error;
+    std::vector<std::string> warnings;
+    const auto got = storedEnsembleSettings(project, {&a, &b}, error, warnings);
+    ASSERT_TRUE(got) << error;
+    EXPECT_TRUE(warnings.empty());
+    EXPECT_EQ(got->draws, 300u);
+    EXPECT_EQ(got->seed, 99u);
+    EXPECT_EQ(got->shape, ensemble::Shape::Triangular);
+    EXPECT_EQ(got->catchCv, 0.2);
+    EXPECT_FALSE(got->dietCv);
+    EXPECT_FALSE(got->holdFlowTerms);
+    EXPECT_EQ(ensemble::ensembleFingerprint(a.model, *got), ensemble::runEnsemble(a.model, s).statistics.fingerprint);
+
+    // The latest run of a scenario counts; a later run with another seed breaks the pairing.
+    ensemble::EnsembleSettings other = s;
+    other.seed = 100;
+    project.runs.push_back(storedRun(b, other, 3));
+    EXPECT_FALSE(storedEnsembleSettings(project, {&a, &b}, error, warnings));
+    EXPECT_NE(error.find("differ in draws, seed"), std::string::npos) << error;
+    project.runs.pop_back();
+
+    // A scenario edited after its run is named (its draws come from its current values).
+    project.scenarios[1].model.compartment(0).value(Param::PB) = 90.0;
+    warnings.clear();
+    ASSERT_TRUE(storedEnsembleSettings(project, {&project.scenarios[0], &project.scenarios[1]}, error, warnings));
+    ASSERT_EQ(warnings.size(), 1u);
+    EXPECT_NE(warnings[0].find("'grazer up 1 %' changed since its stored ensemble run 2"), std::string::npos) << warnings[0];
+
+    project.runs.pop_back();
+    EXPECT_FALSE(storedEnsembleSettings(project, {&a, &b}, error, warnings));
+    EXPECT_NE(error.find("has no stored ensemble run"), std::string::npos) << error;
 }
 
 }  // namespace
