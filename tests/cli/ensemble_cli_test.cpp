@@ -256,7 +256,7 @@ TEST(EnsembleCli, BadInputExitsWith2AndSaysWhatIsWrong)
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --frobnicate", "--frobnicate"},
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.biomass=gaussian", "--shape-of 'cockles.biomass=gaussian'"},
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of nobody.pb=uniform", "--shape-of 'nobody.pb=uniform'"},
-        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.unassim=uniform", "PARAM one of biomass"},
+        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.tl=uniform", "PARAM one of biomass"},  // (U, BA, E and import may be drawn)
         {"ensemble /nonexistent/model --draws 100 --seed 1", "/nonexistent/model"},
         {"ensemble " + shellQuoted(kSamples + "lagoon.tledger") + " --draws 100 --seed 1", "choose one with --scenario"},
         {"ensemble-merge", "expected one or more PART"},
