@@ -3,6 +3,7 @@
 //                  [--shape lognormal|truncated-normal|uniform|triangular] [--diet-cv CV]
 //                  [--shape-of COMPARTMENT.PARAM=SHAPE ...]
 //                  [--keep-draws FILE.csv] [--out FILE] [--no-store] [--json]
+//                  [--hold-flow-terms] [--catch-cv CV]
 // tledger ensemble-merge PART... [--partial] [--out FILE] [--json]
 // (DESIGN 3.7, 5.2, 5.3; core/ensemble). A whole run prints the summary (table, or JSON
 // with --json) and, for a .tledger project, stores its settings and summary beside the
@@ -40,6 +41,7 @@ constexpr const char* kUsage =
     "                        [--shape lognormal|truncated-normal|uniform|triangular] [--diet-cv CV]\n"
     "                        [--shape-of COMPARTMENT.PARAM=SHAPE ...]\n"
     "                        [--keep-draws FILE.csv] [--out FILE] [--no-store] [--json]\n"
+    "                        [--hold-flow-terms] [--catch-cv CV]\n"
     "       tledger ensemble-merge PART... [--partial] [--out FILE] [--json]\n";
 
 std::atomic<bool> gInterrupted{false};
@@ -114,8 +116,8 @@ int cmdEnsemble(const Args& rawArgs)
     }
     const auto opts = parseOptions(args,
                                    {"--scenario", "--draws", "--seed", "--threads", "--draw-range", "--analyses",
-                                    "--shape", "--diet-cv", "--keep-draws", "--out"},
-                                   {"--json", "--no-store"}, "ensemble", std::cerr);
+                                    "--shape", "--diet-cv", "--keep-draws", "--out", "--catch-cv"},
+                                   {"--json", "--no-store", "--hold-flow-terms"}, "ensemble", std::cerr);
     if (!opts) return 2;
     if (opts->positional.size() != 1) return usageError("expected one MODEL (a CSV folder or a .tledger project)");
 
@@ -163,6 +165,12 @@ int cmdEnsemble(const Args& rawArgs)
         if (!v || !(*v >= 0.0) || !(*v <= 10.0)) return usageError("--diet-cv '" + *cv + "': expected a CV from 0 to 10 (0.3 = 30 %)");
         settings.dietCv = *v;
     }
+    if (const auto cv = opts->value("--catch-cv")) {
+        const auto v = parseNumber(trim(*cv));
+        if (!v || !(*v >= 0.0) || !(*v <= 10.0)) return usageError("--catch-cv '" + *cv + "': expected a CV from 0 to 10 (0.3 = 30 %)");
+        settings.catchCv = *v;
+    }
+    settings.holdFlowTerms = opts->has("--hold-flow-terms");
     const auto keep = opts->value("--keep-draws");
     settings.keepBalancedDraws = keep.has_value();
     if (keep && settings.range)
@@ -188,11 +196,10 @@ int cmdEnsemble(const Args& rawArgs)
         const auto shape = eq == std::string::npos ? std::nullopt : parseShape(trim(text.substr(eq + 1)));
         const auto index = dot == std::string::npos ? std::nullopt : scenario.model.indexOf(trim(text.substr(0, dot)));
         const auto param = dot == std::string::npos ? std::nullopt : parseParamKey(trim(text.substr(dot + 1, eq - dot - 1)));
-        const bool drawnParam = param && (*param == Param::Biomass || *param == Param::PB || *param == Param::QB ||
-                                          *param == Param::EE || *param == Param::PQ);
+        const bool drawnParam = param.has_value();  // every parameter may be drawn (U, BA, E, import: flow terms)
         if (!shape || !index || !drawnParam)
             return usageError("--shape-of '" + text + "': expected COMPARTMENT.PARAM=SHAPE with a compartment of scenario '" +
-                              scenario.name + "', PARAM one of biomass, pb, qb, ee, pq and SHAPE one of lognormal, "
+                              scenario.name + "', PARAM one of biomass, pb, qb, ee, pq, unassim, biomass_accum, net_emigration, detritus_import and SHAPE one of lognormal, "
                               "truncated-normal, uniform, triangular");
         settings.shapeOf[{*index, *param}] = *shape;
     }

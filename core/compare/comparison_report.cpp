@@ -69,7 +69,22 @@ std::string comparisonJson(const ScenarioComparison& c)
         w.endObject();
     }
     w.endArray();
-    w.field("differing_inputs", c.inputs.size());
+    w.key("ensemble");  // null unless same-sign shares were asked for (ensemble_agreement.h)
+    if (c.ensemble) {
+        const EnsembleAgreementInfo& e = *c.ensemble;
+        w.beginObject();
+        w.field("draws", static_cast<long long>(e.draws));
+        w.field("seed", std::to_string(e.seed));  // as text, as tledger ensemble writes it
+        w.key("balanced_draws").beginArray();
+        for (std::uint64_t b : e.balanced) w.value(static_cast<long long>(b));
+        w.endArray();
+        w.field("paired_draws", static_cast<long long>(e.paired));
+        w.field("held_at_point_value", e.held);
+        w.endObject();
+    } else {
+        w.null();
+    }
+        w.field("differing_inputs", c.inputs.size());
     w.field("differing_outputs", c.differingOutputs());
     w.field("compared_outputs", c.outputs.size());
 
@@ -182,6 +197,7 @@ std::string comparisonTables(const ScenarioComparison& c)
         for (std::size_t s = 1; s < c.scenarios.size(); ++s) {
             t.addColumn("Diff " + c.scenarios[s]);
             t.addColumn("%");
+            if (c.ensemble) t.addColumn("Same sign");
         }
         for (const ComparedOutput& o : c.outputs) {
             if (!o.differs()) continue;
@@ -190,12 +206,23 @@ std::string comparisonTables(const ScenarioComparison& c)
             for (std::size_t s = 1; s < o.differences.size(); ++s) {
                 row.push_back(signedNumber(o.differences[s].absolute));
                 row.push_back(percentText(o.differences[s]));
+                if (c.ensemble) {
+                    const auto& share = o.differences[s].sameSignShare;
+                    row.push_back(share && !std::isnan(*share) ? displayNumber(100.0 * *share) + " %" : "-");
+                }
             }
             t.addRow(std::move(row));
         }
         out += t.render();
     }
-    // Appended piece by piece: GCC 12 warns falsely (-Wrestrict) on "\n" + std::string(...).
+    if (c.ensemble) {
+        const EnsembleAgreementInfo& e = *c.ensemble;
+        out += "\nSame sign: the share of paired draws (same seed " + std::to_string(e.seed) +
+               ", same draw index) in which the difference keeps the sign it has at the point estimate; " +
+               std::to_string(e.paired) + " of " + std::to_string(e.draws) +
+               " draws balance in every scenario. Held at their point values: " + e.held + ".\n";
+    }
+        // Appended piece by piece: GCC 12 warns falsely (-Wrestrict) on "\n" + std::string(...).
     out += '\n';
     out += kDecisionSupportNotice;
     out += '\n';

@@ -533,7 +533,10 @@ std::size_t attachEnsembleAgreement(ScenarioComparison& comparison, const Ensemb
         for (std::size_t s = 1; s < comparison.scenarios.size() && s < o.differences.size(); ++s) {
             const auto other = lookup(comparison.scenarios[s], key);
             if (!other || other->size() != reference->size()) continue;
-            o.differences[s].sameSignShare = sameSignShare(*reference, *other, o.differences[s].absolute);
+            // An output that does not differ (within its tolerance) has no sign to keep: NaN,
+            // rather than a share decided by round-off.
+            const OutputDifference& d = o.differences[s];
+            o.differences[s].sameSignShare = sameSignShare(*reference, *other, d.differs ? d.absolute : 0.0);
             ++filled;
         }
     }

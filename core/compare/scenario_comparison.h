@@ -16,12 +16,14 @@
 // Outputs come from the balance sheet (core/balance) and the network analysis
 // (core/network/network_analysis.h): nothing is computed here that those do not.
 //
-// Ensembles (DESIGN 3.7) are being built apart: `attachEnsembleAgreement` takes paired
-// draws through a lookup and fills, per difference, the share of paired draws (same seed,
-// same draw index) in which the difference keeps the sign of the point estimate's.
+// Ensembles (DESIGN 3.7): `attachEnsembleAgreement` takes paired draws through a lookup
+// and fills, per difference, the share of paired draws (same seed, same draw index) in
+// which the difference keeps the sign of the point estimate's; ensemble_agreement.h runs
+// the ensembles (`tledger compare --ensemble N --seed S`).
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <functional>
 #include <optional>
 #include <span>
@@ -75,8 +77,18 @@ struct ComparedOutput {
     std::string key() const;
 };
 
+// Where the same-sign shares come from (ensemble_agreement.h), when they were asked for.
+struct EnsembleAgreementInfo {
+    std::uint64_t draws = 0, seed = 0;
+    std::vector<std::uint64_t> balanced;  // per scenario
+    std::uint64_t paired = 0;             // draws balanced in every scenario
+    std::string held;                     // inputs held at their point values
+    std::vector<std::string> fingerprints;  // per scenario: the ensemble's (what decides its draws)
+};
+
 struct ScenarioComparison {
     std::vector<std::string> scenarios;  // [0] is the reference
+    std::optional<EnsembleAgreementInfo> ensemble;
     std::vector<BalanceSheet> sheets;    // per scenario
     std::vector<NetworkAnalysis> analyses;
     Units units;  // of the reference
@@ -118,7 +130,9 @@ using EnsembleDrawLookup =
     std::function<std::optional<std::vector<double>>(std::string_view scenario, std::string_view key)>;
 
 // Fills OutputDifference::sameSignShare wherever the lookup has draws for both the
-// reference and the scenario (of equal count). Returns how many differences it filled.
+// reference and the scenario (of equal count); NaN for an output that does not differ at
+// the point estimate. Returns how many differences it filled. ensemble_agreement.h runs
+// the ensembles that feed it.
 std::size_t attachEnsembleAgreement(ScenarioComparison& comparison, const EnsembleDrawLookup& lookup);
 
 }  // namespace tl

@@ -225,6 +225,13 @@ std::string hex(std::uint64_t v)
     return buf;
 }
 
+std::string fingerprintOf(const EnsembleInputs& inputs, const Analyses& analyses)
+{
+    std::uint64_t fp = inputs.fingerprint();
+    fp ^= (analyses.trophicLevels ? 1u : 0u) | (analyses.levels ? 2u : 0u) | (analyses.indicators ? 4u : 0u);
+    return hex(fp);
+}
+
 // One thread's share of the work: its buffers and its statistics.
 struct Worker {
     BalanceInputs in;
@@ -261,7 +268,8 @@ bool EnsembleStatistics::merge(const EnsembleStatistics& o, std::string* why)
     };
     if (cancelled || o.cancelled) return refuse("a cancelled run is not a slice and cannot be merged");
     if (o.fingerprint != fingerprint || o.seed != seed || o.totalDraws != totalDraws || !(o.analyses == analyses) ||
-        o.outputNames != outputNames || o.compartments != compartments || o.shape != shape)
+        o.outputNames != outputNames || o.compartments != compartments || o.shape != shape ||
+        o.flowTermsHeld != flowTermsHeld)
         return refuse("it comes from another ensemble (scenario, seed, draws, analyses or distributions differ)");
     for (const DrawRange& a : ranges)
         for (const DrawRange& b : o.ranges)
@@ -335,10 +343,7 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
     }
 
     EnsembleStatistics& stats = run.statistics;
-    std::uint64_t fp = inputs.fingerprint();
-    fp ^= (settings.analyses.trophicLevels ? 1u : 0u) | (settings.analyses.levels ? 2u : 0u) |
-          (settings.analyses.indicators ? 4u : 0u);
-    stats.fingerprint = hex(fp);
+    stats.fingerprint = fingerprintOf(inputs, settings.analyses);
     stats.seed = settings.seed;
     stats.totalDraws = settings.draws;
     stats.analyses = settings.analyses;
@@ -348,6 +353,7 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
     stats.breaks.assign(model.size(), {});
     stats.outputNames = layout.names();
     stats.inputNames = inputs.names();
+    stats.flowTermsHeld = settings.holdFlowTerms;
     for (double p : pointOutputs) stats.outputs.emplace_back(OutputStatistics::scaleExponentOf(p));
 
     const unsigned threads = std::max(1u, std::min<unsigned>(settings.threads, static_cast<unsigned>(
@@ -436,6 +442,7 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
         KeptDraws& kept = run.kept;
         kept.inputNames = inputs.names();
         kept.outputNames = layout.names();
+        for (std::size_t r = 0; r < inputs.dietRows().size(); ++r) kept.dietColumns.push_back(inputs.dietColumns(r));
         std::vector<std::pair<std::uint64_t, std::pair<std::size_t, std::size_t>>> order;  // draw, (worker, row)
         for (std::size_t wi = 0; wi < workers.size(); ++wi)
             for (std::size_t r = 0; r < workers[wi].keptDraws.size(); ++r) order.push_back({workers[wi].keptDraws[r], {wi, r}});
@@ -453,6 +460,13 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
         }
     }
     return run;
+}
+
+std::string ensembleFingerprint(const Model& model, const EnsembleSettings& settings)
+{
+    const BalancePlan plan = BalancePlan::build(model);
+    if (plan.hasStructuralErrors()) return {};
+    return fingerprintOf(EnsembleInputs::build(model, plan, settings), settings.analyses);
 }
 
 }  // namespace tl::ensemble

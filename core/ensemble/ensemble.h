@@ -59,6 +59,7 @@ struct EnsembleStatistics {
     std::vector<std::string> outputNames;
     std::vector<OutputStatistics> outputs;
     std::vector<std::string> inputNames;  // the drawn inputs (descriptive)
+    bool flowTermsHeld = false;           // EnsembleSettings::holdFlowTerms (ensemble_inputs.h)
     bool cancelled = false;
 
     bool complete() const { return ranges.size() == 1 && ranges[0].first == 0 && ranges[0].last + 1 == totalDraws; }
@@ -73,6 +74,9 @@ struct EnsembleStatistics {
 // global sensitivity (PRCC) and for CSV export.
 struct KeptDraws {
     std::vector<std::string> inputNames, outputNames;
+    // Per diet row drawn, its input columns [first, first + count): a row's shares sum to
+    // its entered total, so a regression on inputs drops one of them (sensitivity PRCC).
+    std::vector<std::pair<std::size_t, std::size_t>> dietColumns;
     std::vector<std::uint64_t> draw;
     Eigen::MatrixXd inputs;   // draws x inputs
     Eigen::MatrixXd outputs;  // draws x outputs
@@ -93,5 +97,10 @@ using EnsembleProgress = std::function<void(std::uint64_t done, std::uint64_t to
 // or of more than 2^32 - 1 draws.
 EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings,
                         const std::atomic<bool>* cancel = nullptr, const EnsembleProgress& progress = {});
+
+// The fingerprint runEnsemble would give (EnsembleStatistics::fingerprint) without running
+// a draw: whether a stored run still describes the scenario. Empty when the scenario's
+// balance cannot be planned.
+std::string ensembleFingerprint(const Model& model, const EnsembleSettings& settings);
 
 }  // namespace tl::ensemble

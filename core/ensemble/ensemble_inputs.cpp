@@ -139,7 +139,63 @@ EnsembleInputs EnsembleInputs::build(const Model& model, const BalancePlan& plan
         if (row.import) e.names_.push_back(pred + ".diet:import");
         e.dietRows_.push_back(std::move(row));
     }
+    if (!settings.holdFlowTerms) e.addFlowTerms(model, settings);
     return e;
+}
+
+void EnsembleInputs::addFlowTerms(const Model& model, const EnsembleSettings& settings)
+{
+    auto shapeFor = [&](std::size_t i, Param p) {
+        const auto own = settings.shapeOf.find({i, p});
+        return own != settings.shapeOf.end() ? own->second : settings.shape;
+    };
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        const Compartment& c = model.compartment(i);
+        for (Param p : {Param::Unassim, Param::BiomassAccum, Param::NetEmigration, Param::DetritusImport}) {
+            if (p == Param::Unassim && c.kind != CompartmentKind::Consumer) continue;
+            if (p == Param::DetritusImport ? c.kind != CompartmentKind::Detritus : !c.isLiving()) continue;
+            const std::optional<double>& v = c.value(p);
+            if (!v || *v == 0.0 || !std::isfinite(*v)) continue;
+            if (p != Param::BiomassAccum && p != Param::NetEmigration && *v < 0.0) continue;  // only BA and E are signed
+            const auto [cv, source] = confidenceCv(c, p, model.rules);
+            DrawnFlowTerm t;
+            t.compartment = i;
+            t.param = p;
+            t.sign = *v < 0.0 ? -1.0 : 1.0;
+            t.distribution = InputDistribution(shapeFor(i, p), std::abs(*v), cv);
+            t.cvSource = source;
+            if (t.distribution.constant()) continue;
+            flowTerms_.push_back(std::move(t));
+            names_.push_back(c.name + "." + std::string(paramKey(p)));
+        }
+    }
+    const double catchCv = settings.catchCv.value_or(model.rules.cvByGrade[2]);
+    const std::string catchSource = settings.catchCv ? "catch CV " + trimmedCv(catchCv) : "catch: grade C assumed";
+    const SparseColumns& discards = point_.discardsToPool;
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        const auto e = static_cast<Eigen::Index>(i);
+        if (!model.compartment(i).isLiving() || !(point_.catchTotal[e] > 0.0)) continue;
+        DrawnFlowTerm t;
+        t.compartment = i;
+        t.kind = DrawnFlowTerm::Kind::Catch;
+        t.distribution = InputDistribution(settings.shape, point_.catchTotal[e], catchCv);
+        t.cvSource = catchSource;
+        if (t.distribution.constant()) continue;
+        t.deadDiscards = point_.deadDiscards[e];
+        for (Eigen::Index col = 0; col < discards.outerSize(); ++col)
+            for (Eigen::Index k = discards.outerIndexPtr()[col]; k < discards.outerIndexPtr()[col + 1]; ++k)
+                if (discards.innerIndexPtr()[k] == e) t.discardsToPool.emplace_back(k, discards.valuePtr()[k]);
+        for (const Fleet& f : model.fleets()) t.fleetCatch.emplace_back(f.landings[i], f.discards[i]);
+        flowTerms_.push_back(std::move(t));
+        names_.push_back(model.compartment(i).name + ".catch");
+    }
+}
+
+std::pair<std::size_t, std::size_t> EnsembleInputs::dietColumns(std::size_t r) const
+{
+    std::size_t first = parameters_.size();
+    for (std::size_t k = 0; k < r; ++k) first += dietRows_[k].distribution.size();
+    return {first, dietRows_[r].distribution.size()};
 }
 
 void EnsembleInputs::draw(std::uint64_t seed, std::uint64_t draw, BalanceInputs& in, double* values) const
@@ -160,6 +216,26 @@ void EnsembleInputs::draw(std::uint64_t seed, std::uint64_t draw, BalanceInputs&
         for (std::size_t s = 0; s < row.position.size(); ++s) dietValues[row.position[s]] = shares[s];
         k += row.distribution.size();
     }
+    double* discardValues = in.discardsToPool.valuePtr();
+    for (const DrawnFlowTerm& t : flowTerms_) {
+        const double v = t.distribution.draw(stream);
+        values[k++] = t.sign * v;
+        const auto e = static_cast<Eigen::Index>(t.compartment);
+        if (t.kind == DrawnFlowTerm::Kind::Catch) {
+            // Landings and dead discards scaled together, so their routing stays as entered.
+            const double factor = v / t.distribution.value();
+            in.catchTotal[e] = v;
+            in.deadDiscards[e] = t.deadDiscards * factor;
+            for (const auto& [at, point] : t.discardsToPool) discardValues[at] = point * factor;
+            continue;
+        }
+        switch (t.param) {
+        case Param::Unassim: in.unassim[e] = v; break;
+        case Param::BiomassAccum: in.biomassAccum[e] = t.sign * v; break;
+        case Param::NetEmigration: in.netEmigration[e] = t.sign * v; break;
+        default: in.detritusImport[e] = v; break;
+        }
+    }
 }
 
 void EnsembleInputs::applyToModel(const double* values, Model& model) const
@@ -170,6 +246,18 @@ void EnsembleInputs::applyToModel(const double* values, Model& model) const
         for (std::size_t s = 0; s < row.prey.size(); ++s) model.setDiet(row.predator, row.prey[s], values[k + s]);
         if (row.import) model.setDietImport(row.predator, values[k + row.prey.size()]);
         k += row.distribution.size();
+    }
+    for (const DrawnFlowTerm& t : flowTerms_) {
+        const double v = values[k++];
+        if (t.kind == DrawnFlowTerm::Kind::Parameter) {
+            model.compartment(t.compartment).value(t.param) = v;
+            continue;
+        }
+        const double factor = v / t.distribution.value();
+        for (std::size_t f = 0; f < t.fleetCatch.size(); ++f) {
+            model.fleet(f).landings[t.compartment] = t.fleetCatch[f].first * factor;
+            model.fleet(f).discards[t.compartment] = t.fleetCatch[f].second * factor;
+        }
     }
 }
 
@@ -200,6 +288,14 @@ std::uint64_t EnsembleInputs::fingerprint() const
         f.f64(row.distribution.concentration());
         f.f64(row.rowSum);
         for (double s : row.distribution.shares()) f.f64(s);
+    }
+    for (const DrawnFlowTerm& t : flowTerms_) {
+        f.u64(t.compartment);
+        f.u64(static_cast<std::uint64_t>(t.kind) * 16 + static_cast<std::uint64_t>(t.param));
+        f.u64(static_cast<std::uint64_t>(t.distribution.shape()));
+        f.f64(t.sign);
+        f.f64(t.distribution.value());
+        f.f64(t.distribution.cv());
     }
     for (const std::string& n : names_) f.bytes(n.data(), n.size() + 1);
     return f.h;

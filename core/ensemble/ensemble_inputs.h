@@ -9,12 +9,23 @@
 // from a Dirichlet (input_distribution.h) with the row's CV (the model keeps no
 // confidence per diet row yet: EnsembleSettings::dietCvOf, else dietCv, else the
 // project's grade-C CV).
-// Held at their point values (stated in every report): catch, U, BA, E, detritus import
-// and routing. Zero diet shares stay zero (the diet's pattern is kept).
+// Flow terms (issue 15: every input drawn), unless EnsembleSettings::holdFlowTerms:
+// U of a consumer whose U is given (the 0.2 default is a convention, not data, and is
+// held), BA and E where given and non-zero, a pool's detritus import where positive,
+// each with its own data confidence; and each compartment's catch Y: one factor drawn
+// per compartment scales the landings and discards of every fleet together (the model
+// keeps no confidence for catch: EnsembleSettings::catchCv, else the project's grade-C
+// CV). BA and E may be negative: their magnitude is drawn and their sign kept (the sign
+// is the modeller's statement; this project's choice).
+// Held at their point values (stated in every report): detritus routing. Zero diet
+// shares stay zero (the diet's pattern is kept).
 //
 // A draw's inputs are a plain row of numbers, one per drawn input in names() order:
 // the parameters first, then each diet row's shares (modelled prey in prey order, then
-// import). Kept draws (ensemble.h) are these rows, for PRCC and other global analyses
+// import), then the flow terms ("C.unassim", "C.biomass_accum", "C.net_emigration",
+// "C.detritus_import", "C.catch" = Y drawn). The flow terms come last so that the
+// parameters and diets of draw d are the same numbers whether flow terms are drawn or
+// held (the stream is consumed in this order). Kept draws (ensemble.h) are these rows, for PRCC and other global analyses
 // (note: a diet row's shares sum to 1, so they are collinear; drop one per row before a
 // regression).
 #pragma once
@@ -61,6 +72,8 @@ struct EnsembleSettings {
     std::optional<double> dietCv;                            // default: the project's grade-C CV
     std::map<std::size_t, double> dietCvOf;                  // per predator
     bool keepBalancedDraws = false;
+    bool holdFlowTerms = false;    // hold catch, U, BA, E and detritus import at their point values
+    std::optional<double> catchCv;  // CV of each compartment's catch; default: the project's grade-C CV
 };
 
 struct DrawnParameter {
@@ -79,6 +92,21 @@ struct DrawnDietRow {
     DirichletRow distribution;
 };
 
+// A flow term drawn (see the top of this file).
+struct DrawnFlowTerm {
+    enum class Kind : std::uint8_t { Parameter, Catch };
+    std::size_t compartment = 0;
+    Kind kind = Kind::Parameter;
+    Param param = Param::Unassim;     // Kind::Parameter: Unassim, BiomassAccum, NetEmigration, DetritusImport
+    double sign = 1.0;                // the point value's sign; the distribution draws its magnitude
+    InputDistribution distribution;   // of |value| (of Y for catch)
+    std::string cvSource;
+    // Kind::Catch: the point values the drawn factor Y_drawn / Y scales.
+    double deadDiscards = 0.0;
+    std::vector<std::pair<Eigen::Index, double>> discardsToPool;  // (entry in its value array, point value)
+    std::vector<std::pair<double, double>> fleetCatch;             // per fleet: (landings, discards)
+};
+
 class EnsembleInputs {
 public:
     // plan: BalancePlan::build(model), without structural errors.
@@ -86,6 +114,9 @@ public:
 
     const std::vector<DrawnParameter>& parameters() const { return parameters_; }
     const std::vector<DrawnDietRow>& dietRows() const { return dietRows_; }
+    const std::vector<DrawnFlowTerm>& flowTerms() const { return flowTerms_; }
+    // Columns of names() that hold diet row r's shares: [first, first + size).
+    std::pair<std::size_t, std::size_t> dietColumns(std::size_t r) const;
     const std::vector<std::string>& names() const { return names_; }
     std::size_t size() const { return names_.size(); }
     const BalanceInputs& pointInputs() const { return point_; }
@@ -100,8 +131,11 @@ public:
     std::uint64_t fingerprint() const;
 
 private:
+    void addFlowTerms(const Model& model, const EnsembleSettings& settings);
+
     std::vector<DrawnParameter> parameters_;
     std::vector<DrawnDietRow> dietRows_;
+    std::vector<DrawnFlowTerm> flowTerms_;
     std::vector<std::string> names_;
     BalanceInputs point_;
 };

@@ -103,7 +103,7 @@ std::string ensembleJson(const EnsembleStatistics& s)
     w.endArray();
     w.field("shape", s.shape);
     w.field("outputs_over", "balanced draws");
-    w.field("held_at_point_value", kHeldFixed);
+    w.field("held_at_point_value", heldFixed(s));
     w.key("inputs").beginArray();
     for (const std::string& n : s.inputNames) w.value(n);
     w.endArray();
@@ -140,7 +140,7 @@ std::string ensembleTable(const EnsembleStatistics& s)
     if (s.cancelled) out += "CANCELLED: the figures cover only the draws finished.\n";
     out += "Balanced: " + std::to_string(s.balanced) + " draws (" + displayNumber(100.0 * s.balancedShare()) +
            " %); singular: " + std::to_string(s.singular) + "\n";
-    out += "Held at their point values: " + std::string(kHeldFixed) + ".\n\n";
+    out += "Held at their point values: " + std::string(heldFixed(s)) + ".\n\n";
     TextTable t;
     t.addColumn("output", TextTable::Align::Left);
     for (const char* h : {"2.5 %", "25 %", "median", "75 %", "97.5 %", "mean"}) t.addColumn(h);
@@ -187,6 +187,7 @@ std::string partialJson(const EnsembleStatistics& s)
     for (const std::string& a : analysesKeys(s.analyses)) w.value(a);
     w.endArray();
     w.field("shape", s.shape);
+    w.field("flow_terms_held", s.flowTermsHeld);
     w.key("ranges").beginArray();
     for (const DrawRange& r : s.ranges) {
         w.beginArray();
@@ -276,6 +277,7 @@ std::optional<EnsembleStatistics> readPartialJson(std::string_view text, const s
         if (!analyses) return fail("unknown analyses '" + words + "'");
         s.analyses = *analyses;
         s.shape = j.at("shape").get<std::string>();
+        s.flowTermsHeld = j.value("flow_terms_held", true);  // partials written before flow terms were drawn held them
         for (const auto& r : j.at("ranges")) {
             const DrawRange range{r.at(0).get<std::uint64_t>(), r.at(1).get<std::uint64_t>()};
             if (range.first > range.last || range.last >= s.totalDraws) return fail("a draw range lies outside the draws");
@@ -345,8 +347,43 @@ std::string ensembleSettingsJson(const EnsembleSettings& settings, const std::st
     w.key("diet_cv");
     if (settings.dietCv) w.value(*settings.dietCv);
     else w.value("grade C of the project");
+    w.field("flow_terms_held", settings.holdFlowTerms);
+    w.key("catch_cv");
+    if (settings.catchCv) w.value(*settings.catchCv);
+    else w.value("grade C of the project");
     w.endObject();
     return w.str();
+}
+
+std::optional<EnsembleSettings> readEnsembleSettingsJson(std::string_view text, std::string* why)
+{
+    auto fail = [&](std::string reason) -> std::optional<EnsembleSettings> {
+        if (why) *why = std::move(reason);
+        return std::nullopt;
+    };
+    const nlohmann::json j = nlohmann::json::parse(text, nullptr, false);
+    if (!j.is_object()) return fail("the stored settings are not a JSON object");
+    try {
+        EnsembleSettings s;
+        s.draws = j.at("draws").get<std::uint64_t>();
+        const std::string seed = j.at("seed").get<std::string>();
+        if (std::from_chars(seed.data(), seed.data() + seed.size(), s.seed).ec != std::errc{}) return fail("bad seed '" + seed + "'");
+        std::string words;
+        for (const auto& a : j.at("analyses")) words += (words.empty() ? "" : ",") + a.get<std::string>();
+        const auto analyses = parseAnalyses(words);
+        if (!analyses) return fail("unknown analyses '" + words + "'");
+        s.analyses = *analyses;
+        const auto shape = parseShape(j.at("shape").get<std::string>());
+        if (!shape) return fail("unknown shape '" + j.at("shape").get<std::string>() + "'");
+        s.shape = *shape;
+        if (j.at("diet_cv").is_number()) s.dietCv = j.at("diet_cv").get<double>();
+        s.holdFlowTerms = j.value("flow_terms_held", true);
+        if (j.contains("catch_cv") && j.at("catch_cv").is_number()) s.catchCv = j.at("catch_cv").get<double>();
+        if (s.draws == 0) return fail("no draws");
+        return s;
+    } catch (const nlohmann::json::exception& e) {
+        return fail(std::string("a key is missing or of the wrong type (") + e.what() + ")");
+    }
 }
 
 }  // namespace tl::ensemble

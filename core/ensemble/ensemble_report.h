@@ -19,7 +19,10 @@ namespace tl::ensemble {
 inline constexpr const char* kPartialFormat = "tledger-ensemble-partial";
 inline constexpr int kPartialVersion = 1;
 // What the ensemble holds at the point value (ensemble_inputs.h), said in every report.
+// kHeldFixed with EnsembleSettings::holdFlowTerms; kHeldFixedDrawingFlows otherwise.
 inline constexpr const char* kHeldFixed = "catch, U, BA, E, detritus import and detritus routing";
+inline constexpr const char* kHeldFixedDrawingFlows = "detritus routing, and U where left to its default (0.2)";
+inline const char* heldFixed(const EnsembleStatistics& s) { return s.flowTermsHeld ? kHeldFixed : kHeldFixedDrawingFlows; }
 
 std::string ensembleJson(const EnsembleStatistics& stats);
 std::string ensembleTable(const EnsembleStatistics& stats);
@@ -33,5 +36,11 @@ std::optional<EnsembleStatistics> readPartialJson(std::string_view text, const s
 std::string keptDrawsCsv(const KeptDraws& kept);
 
 std::string ensembleSettingsJson(const EnsembleSettings& settings, const std::string& scenario);
+// The settings a stored run was made with (ensembleSettingsJson), for running its draws
+// again: draws, seed, analyses, shape, diet and catch CVs, whether flow terms were held
+// (a run stored before they were drawn held them). Threads are the caller's. Per-parameter
+// shapes and per-row diet CVs are not stored. Nothing, with *why set, when the text is
+// not such settings.
+std::optional<EnsembleSettings> readEnsembleSettingsJson(std::string_view text, std::string* why = nullptr);
 
 }  // namespace tl::ensemble

@@ -102,10 +102,25 @@ std::vector<std::size_t> rankedDrivers(const PrccResult& r, std::optional<std::s
     return order;
 }
 
-void writePrcc(JsonWriter& w, const PrccTable& table, std::optional<std::size_t> top)
+void writePrcc(JsonWriter& w, const PrccTable& table, std::optional<std::size_t> top,
+               const SensitivityReportOptions::PrccEnsemble* source)
 {
     w.beginObject();
     w.field("method", "partial rank correlation (Marino et al. 2008), two-sided t test");
+    w.key("ensemble");
+    if (source) {
+        w.beginObject();
+        w.field("draws", static_cast<long long>(source->draws));
+        w.field("seed", std::to_string(source->seed));  // as text, as tledger ensemble writes it
+        w.field("balanced_draws", static_cast<long long>(source->balanced));
+        w.key("left_out").beginArray();
+        for (const std::string& n : source->leftOut) w.value(n);
+        w.endArray();
+        w.field("held_at_point_value", source->held);
+        w.endObject();
+    } else {
+        w.null();
+    }
     w.key("outputs").beginArray();
     for (std::size_t o = 0; o < table.outputs.size(); ++o) {
         const PrccResult& r = table.outputs[o];
@@ -188,7 +203,7 @@ std::string sensitivityJson(const Model& model, const ElasticityResult& result, 
     }
     w.endArray();
     w.key("prcc");
-    if (options.prcc) writePrcc(w, *options.prcc, options.top);
+    if (options.prcc) writePrcc(w, *options.prcc, options.top, options.prccEnsemble);
     else w.null();
     w.field("notice", kDecisionSupportNotice);
     w.endObject();
@@ -197,8 +212,22 @@ std::string sensitivityJson(const Model& model, const ElasticityResult& result, 
 
 std::string prccText(const PrccTable& table, std::optional<std::size_t> top)
 {
+    return prccText(table, top, nullptr);
+}
+
+std::string prccText(const PrccTable& table, std::optional<std::size_t> top, const SensitivityReportOptions::PrccEnsemble* source)
+{
     std::string out = "\nPartial rank correlation over the draws (Marino et al. 2008): the monotone effect of each "
                       "input once the others' are taken out; p from a two-sided t test.\n";
+    if (source) {
+        out += "Draws: " + std::to_string(source->balanced) + " balanced of " + std::to_string(source->draws) +
+               " (seed " + std::to_string(source->seed) + "). Held at their point values: " + source->held + ".\n";
+        if (!source->leftOut.empty()) {
+            out += "Left out (one share per diet row, since a row's shares sum to a fixed total):";
+            for (std::size_t k = 0; k < source->leftOut.size(); ++k) out += (k ? ", " : " ") + source->leftOut[k];
+            out += ".\n";
+        }
+    }
     for (std::size_t o = 0; o < table.outputs.size(); ++o) {
         const PrccResult& r = table.outputs[o];
         out += '\n';
@@ -263,7 +292,7 @@ std::string sensitivityText(const Model& model, const ElasticityResult& result, 
             out += " smaller not shown; --top N shows more)\n";
         }
     }
-    if (options.prcc) out += prccText(*options.prcc, options.top);
+    if (options.prcc) out += prccText(*options.prcc, options.top, options.prccEnsemble);
     out += std::string("\n") + kDecisionSupportNotice + "\n";
     return out;
 }

@@ -8,18 +8,22 @@
 //                     "elasticities": [{"input": "C.param" or "C.diet:PREY", "compartment",
 //                                       "parameter", "prey", "value", "elasticity"}]}],
 //        "inputs": [{"input", "compartment", "parameter", "prey", "value"}],
-//        "prcc": null | {"method", "outputs": [{"output", "draws", "degrees_of_freedom",
+//        "prcc": null | {"method", "ensemble": null | {"draws", "seed", "balanced_draws",
+//                 "left_out", "held_at_point_value"}, "outputs": [{"output", "draws", "degrees_of_freedom",
 //                 "drivers": [{"input", "prcc", "p_value"}],
 //                 "undefined": [{"input", "reason"}]}]},
 //        "notice"}
 // "elasticities" lists every defined elasticity above 1e-12 in magnitude (smaller ones are
 // rounding residue), largest magnitude first
 // (`top` keeps the first K); "prey" is null except for diet entries ("import" for the
-// import share); "note" says why an output has none (its value is 0). "prcc" is null until
-// the ensemble provides draws (the seam of `--prcc`).
+// import share); "note" says why an output has none (its value is 0). "prcc" is null
+// without `--prcc`; with it, "ensemble" says which draws fed it and "left_out" names the
+// diet share left out of each drawn row (core/sensitivity/ensemble_prcc.h says why).
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
+#include <vector>
 #include <optional>
 #include <string>
 
@@ -33,6 +37,13 @@ struct SensitivityReportOptions {
     std::string scenario;
     std::optional<std::size_t> top;  // elasticities (and PRCC drivers) per output; all when unset
     const PrccTable* prcc = nullptr;  // partial rank correlations over draws, when there are any
+    // Where prcc's draws come from, when an ensemble fed them.
+    struct PrccEnsemble {
+        std::uint64_t draws = 0, seed = 0, balanced = 0;
+        std::vector<std::string> leftOut;
+        std::string held;
+    };
+    const PrccEnsemble* prccEnsemble = nullptr;
 };
 
 std::string sensitivityJson(const Model& model, const ElasticityResult& result, const SensitivityReportOptions& options);
@@ -40,6 +51,7 @@ std::string sensitivityText(const Model& model, const ElasticityResult& result, 
 
 // The readable PRCC tables (the text's last part when options.prcc is set).
 std::string prccText(const PrccTable& table, std::optional<std::size_t> top);
+std::string prccText(const PrccTable& table, std::optional<std::size_t> top, const SensitivityReportOptions::PrccEnsemble* source);
 
 // The sentence the reports give for the diet path (elasticity.h).
 extern const char* const kDietPathNote;

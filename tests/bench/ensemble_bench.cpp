@@ -148,6 +148,7 @@ int main(int argc, char** argv)
         std::string numpy = o.numpy ? runNumpy(folder, o, t.name, draws) : "(skipped)";
         for (unsigned threads : {1u, o.threads}) {
             EnsembleSettings s;
+            s.holdFlowTerms = true;  // as numpy_ensemble.py: the same work on both sides
             s.draws = draws;
             s.seed = 7;
             s.threads = threads;

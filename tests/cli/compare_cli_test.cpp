@@ -83,6 +83,89 @@ TEST(CompareCli, OneChangedInputAppearsOnceAndItsDependentOutputsChange)
     EXPECT_FALSE(outputs.at("Zander adults.consumption").at("differs").get<bool>());
 }
 
+// --ensemble N --seed S: the same-sign share of each difference over paired draws. The
+// lagoon's sample CVs are wide (few draws balance), so the copy narrows them; its copy
+// lands 20 % more grey mullet, a difference the paired draws keep in nearly every pair.
+TEST(CompareCli, EnsembleGivesSameSignSharesOfPairedDraws)
+{
+    const ScratchDir dir("compare_cli");
+    auto narrow = [](Model& m) {
+        m.rules.cvByGrade = {0.02, 0.03, 0.05, 0.08};
+        for (std::size_t i = 0; i < m.size(); ++i)
+            for (Param p : kAllParams) m.compartment(i).confidenceOf(p).cv.reset();  // grades only
+    };
+    auto opened = ProjectFile::open(kLagoon, OpenMode::ReadOnly);
+    Project project = *opened.file->load().value;
+    Scenario base = *project.findScenario("baseline");
+    narrow(base.model);
+    Scenario more = base;
+    base.name = "narrow";
+    more.name = "more mullet landed";
+    const std::size_t mullet = *more.model.indexOf("grey mullet");
+    for (std::size_t f = 0; f < more.model.fleets().size(); ++f) more.model.fleet(f).landings[mullet] *= 1.2;
+    project.scenarios = {base, more};
+    project.info.rules = base.model.rules;  // the project's CVs per grade are the project's, not a scenario's
+    const fs::path path = dir / "lagoon.tledger";
+    ASSERT_FALSE(hasErrors(saveProjectToPath(project, path)));
+    const std::string cmd = "compare " + shellQuoted(path.string()) + " --scenarios 'narrow,more mullet landed'";
+    CliRun run = runTledger(cmd + " --ensemble 400 --seed 5 --threads 2 --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    nlohmann::json j = run.json();
+    ASSERT_TRUE(j.at("ensemble").is_object());
+    EXPECT_EQ(j.at("ensemble").at("draws").get<int>(), 400);
+    EXPECT_EQ(j.at("ensemble").at("seed"), "5");
+    EXPECT_GT(j.at("ensemble").at("paired_draws").get<int>(), 100);
+    int numbers = 0;
+    for (const auto& o : j.at("outputs")) {
+        const auto& share = o.at("differences")[0].at("same_sign_share");
+        if (share.is_number()) ++numbers;
+        if (o.at("subject") == "grey mullet" && o.at("quantity") == "ee") {
+            ASSERT_TRUE(share.is_number());
+            EXPECT_GT(share.get<double>(), 0.95);  // EE = (predation + Y) / P, Y 20 % higher
+        }
+        if (!o.at("differs").get<bool>()) {
+            EXPECT_TRUE(share.is_null()) << o.at("subject") << "." << o.at("quantity");
+        }
+    }
+    EXPECT_GT(numbers, 5);
+    // --ensemble stored: the settings of each scenario's stored `tledger ensemble` run, drawn
+    // again; the same draws, so the same shares.
+    run = runTledger(cmd + " --ensemble stored --json");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("'narrow' has no stored ensemble run"), std::string::npos) << run.err;
+    const std::string quoted = shellQuoted(path.string());
+    ASSERT_EQ(runTledger("ensemble " + quoted + " --scenario narrow --draws 400 --seed 5").exitCode, 0);
+    ASSERT_EQ(runTledger("ensemble " + quoted + " --scenario 'more mullet landed' --draws 400 --seed 6").exitCode, 0);
+    run = runTledger(cmd + " --ensemble stored --json");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("differ in draws, seed"), std::string::npos) << run.err;
+    ASSERT_EQ(runTledger("ensemble " + quoted + " --scenario 'more mullet landed' --draws 400 --seed 5").exitCode, 0);
+    run = runTledger(cmd + " --ensemble stored --threads 1 --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    EXPECT_EQ(run.err.find("changed since"), std::string::npos) << run.err;
+    EXPECT_EQ(run.json().at("outputs"), j.at("outputs"));
+    EXPECT_EQ(run.json().at("ensemble").at("paired_draws"), j.at("ensemble").at("paired_draws"));
+    run = runTledger(cmd + " --ensemble stored --seed 5");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("leave out --seed"), std::string::npos) << run.err;
+    // Without --ensemble: null, as before.
+    run = runTledger(cmd + " --json");
+    j = run.json();
+    EXPECT_TRUE(j.at("ensemble").is_null());
+    for (const auto& o : j.at("outputs")) EXPECT_TRUE(o.at("differences")[0].at("same_sign_share").is_null());
+    // The table gains a "Same sign" column and says what it means.
+    run = runTledger(cmd + " --ensemble 200 --seed 5");
+    EXPECT_NE(run.out.find("Same sign"), std::string::npos) << run.out;
+    EXPECT_NE(run.out.find("paired draws"), std::string::npos) << run.out;
+    // Bad input is named.
+    run = runTledger(cmd + " --ensemble 200");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("--seed"), std::string::npos) << run.err;
+    run = runTledger(cmd + " --ensemble 0 --seed 1");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("--ensemble '0'"), std::string::npos) << run.err;
+}
+
 TEST(CompareCli, BadScenarioNamesExitTwoNamingThem)
 {
     const std::string project = shellQuoted(kReservoir.string());

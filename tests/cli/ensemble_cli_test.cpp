@@ -129,6 +129,36 @@ TEST(EnsembleCli, ShapeOfOneParameterIsDrawnFromThatShape)
     EXPECT_GT(checked, 5u);
 }
 
+// Flow terms are drawn unless --hold-flow-terms; the report says which are held, and the
+// other inputs are drawn the same either way (they come first in each draw's stream).
+TEST(EnsembleCli, FlowTermsAreDrawnUnlessHeldAndTheReportSaysWhich)
+{
+    const std::string common = "ensemble " + kLagoon + " --draws 300 --seed 9 --diet-cv 0.1 --catch-cv 0.05 --json";
+    const CliRun drawn = runTledger(common);
+    const CliRun held = runTledger(common + " --hold-flow-terms");
+    ASSERT_LE(drawn.exitCode, 1) << drawn.err;
+    ASSERT_LE(held.exitCode, 1) << held.err;
+    const nlohmann::json d = drawn.json(), h = held.json();
+    EXPECT_EQ(h.at("held_at_point_value"), "catch, U, BA, E, detritus import and detritus routing");
+    EXPECT_EQ(d.at("held_at_point_value"), "detritus routing, and U where left to its default (0.2)");
+    auto catches = [](const nlohmann::json& j) {
+        int n = 0;
+        for (const auto& name : j.at("inputs")) n += name.get<std::string>().ends_with(".catch");
+        return n;
+    };
+    EXPECT_GT(catches(d), 0);  // the lagoon's fleets land several compartments
+    EXPECT_EQ(catches(h), 0);
+    EXPECT_NE(d.at("fingerprint"), h.at("fingerprint"));
+    // The held run's inputs are the first inputs of the drawn run (values: EnsembleFlowTerms).
+    const auto& all = d.at("inputs");
+    const auto& first = h.at("inputs");
+    ASSERT_LT(first.size(), all.size());
+    for (std::size_t k = 0; k < first.size(); ++k) EXPECT_EQ(all[k], first[k]) << k;
+    const CliRun bad = runTledger("ensemble " + kLagoon + " --draws 10 --seed 1 --catch-cv -1");
+    EXPECT_EQ(bad.exitCode, 2);
+    EXPECT_NE(bad.err.find("--catch-cv '-1'"), std::string::npos) << bad.err;
+}
+
 TEST(EnsembleCli, SlicesMergeIntoTheBytesOfOneRun)
 {
     const ScratchDir dir("ensemble_slices");
@@ -226,7 +256,7 @@ TEST(EnsembleCli, BadInputExitsWith2AndSaysWhatIsWrong)
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --frobnicate", "--frobnicate"},
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.biomass=gaussian", "--shape-of 'cockles.biomass=gaussian'"},
         {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of nobody.pb=uniform", "--shape-of 'nobody.pb=uniform'"},
-        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.unassim=uniform", "PARAM one of biomass"},
+        {"ensemble " + kLagoon + " --draws 100 --seed 1 --shape-of cockles.tl=uniform", "PARAM one of biomass"},  // (U, BA, E and import may be drawn)
         {"ensemble /nonexistent/model --draws 100 --seed 1", "/nonexistent/model"},
         {"ensemble " + shellQuoted(kSamples + "lagoon.tledger") + " --draws 100 --seed 1", "choose one with --scenario"},
         {"ensemble-merge", "expected one or more PART"},

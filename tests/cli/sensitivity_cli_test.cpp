@@ -160,11 +160,55 @@ TEST(SensitivityCli, UnknownScenarioAndMissingModelExitTwo)
     EXPECT_EQ(run.exitCode, 2);
 }
 
-TEST(SensitivityCli, PrccWaitsForTheEnsemble)
+// --prcc runs an ensemble of the scenario and ranks the inputs by PRCC over its balanced
+// draws. The invented pond with every value known to 5 % but the grazer's EE (CV 50 %): the
+// grazer's solved B = (Q_pike 0.5 + Y) / (P/B EE) is driven by that EE first.
+TEST(SensitivityCli, PrccRunsTheEnsembleAndRanksAPlantedDriverFirst)
 {
-    const CliRun run = runTledger("sensitivity " + kLagoon + " --scenario baseline --prcc --draws 100 --seed 1");
+    const ScratchDir dir("sensitivity_cli");
+    Model m = handPond();
+    m.rules.cvByGrade = {0.05, 0.05, 0.05, 0.05};
+    m.compartment(1).confidenceOf(Param::EE).cv = 0.5;
+    const std::string pond = shellQuoted(writePond(dir, m).string());
+    CliRun run = runTledger("sensitivity " + pond + " --output Grazer.b --prcc --draws 2000 --seed 3 --threads 2 --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    const nlohmann::json j = run.json();
+    ASSERT_TRUE(j.at("prcc").is_object());
+    const auto& source = j.at("prcc").at("ensemble");
+    EXPECT_EQ(source.at("draws").get<int>(), 2000);
+    EXPECT_GT(source.at("balanced_draws").get<int>(), 1000);
+    EXPECT_EQ(source.at("left_out"), nlohmann::json::parse(R"(["Grazer.diet:Detritus", "Pike.diet:import"])"));
+    ASSERT_EQ(j.at("prcc").at("outputs").size(), 1u);
+    const auto& out = j.at("prcc").at("outputs")[0];
+    EXPECT_EQ(out.at("output"), "Grazer.biomass");
+    EXPECT_EQ(out.at("draws").get<int>(), source.at("balanced_draws").get<int>());
+    EXPECT_EQ(out.at("drivers")[0].at("input"), "Grazer.ee");
+    EXPECT_LT(out.at("drivers")[0].at("prcc").get<double>(), -0.9);
+    // The text shows the same table.
+    run = runTledger("sensitivity " + pond + " --output Grazer.b --prcc --draws 500 --seed 3");
+    EXPECT_EQ(run.exitCode, 0) << run.err;
+    EXPECT_NE(run.out.find("Partial rank correlation"), std::string::npos) << run.out;
+    EXPECT_NE(run.out.find("Left out"), std::string::npos) << run.out;
+}
+
+TEST(SensitivityCli, PrccOptionsAreCheckedAndNamed)
+{
+    const std::string scenario = kLagoon + " --scenario baseline";
+    CliRun run = runTledger("sensitivity " + scenario + " --prcc --draws 100");
     EXPECT_EQ(run.exitCode, 2);
-    EXPECT_NE(run.err.find("ensemble"), std::string::npos) << run.err;
+    EXPECT_NE(run.err.find("--seed"), std::string::npos) << run.err;
+    run = runTledger("sensitivity " + scenario + " --draws 100 --seed 1");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("--prcc"), std::string::npos) << run.err;
+    run = runTledger("sensitivity " + scenario + " --prcc --draws many --seed 1");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("--draws 'many'"), std::string::npos) << run.err;
+    run = runTledger("sensitivity " + scenario + " --prcc --draws 10 --seed -1");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("--seed '-1'"), std::string::npos) << run.err;
+    run = runTledger("sensitivity " + scenario + " --prcc --draws 10 --seed 1 --threads 0");
+    EXPECT_EQ(run.exitCode, 2);
+    EXPECT_NE(run.err.find("--threads '0'"), std::string::npos) << run.err;
 }
 
 TEST(SensitivityCli, UnsolvableScenarioExitsOneAndSaysWhy)

@@ -37,7 +37,7 @@ def main():
         # Every value ungraded counts as grade C: set grade C's CV to 0.1 (settings.csv).
         with open(os.path.join(folder, "settings.csv"), "w", encoding="utf-8") as f:
             f.write("key,value\ncv_grade_c,0.1\n")
-        c = subprocess.run([a.tledger, "ensemble", folder, "--draws", str(a.draws), "--seed", "11", "--diet-cv", "0.1",
+        c = subprocess.run([a.tledger, "ensemble", folder, "--draws", str(a.draws), "--seed", "11", "--diet-cv", "0.1", "--hold-flow-terms",
                             "--threads", "2", "--json"], capture_output=True, text=True)
         if c.returncode not in (0, 1):
             sys.exit(f"tledger ensemble failed ({c.returncode}): {c.stderr}")

@@ -6,8 +6,9 @@
 // uses the precision-matrix identity (or its own step-by-step path when the ranked
 // covariance is singular), so the two share no code.
 //
-// Draws: a small ensemble of the invented hand-worked pond (tests/core/sensitivity),
-// solved draw by draw, with a constant column, a column of heavy ties and two diet
+// Draws: the ensemble's own kept draws (core/ensemble, every kind of input: parameters,
+// diet shares less one per row, flow terms) fed through prccOfKeptDraws; a small ensemble
+// of the invented hand-worked pond (tests/core/sensitivity), solved draw by draw, with a constant column, a column of heavy ties and two diet
 // shares whose sum is fixed (exactly collinear ranks); and plain random matrices.
 #include <cmath>
 #include <cstdio>
@@ -17,6 +18,7 @@
 #include <gtest/gtest.h>
 
 #include "core/balance/solver.h"
+#include "core/sensitivity/ensemble_prcc.h"
 #include "core/sensitivity/prcc.h"
 #include "tests/core/sensitivity/sensitivity_models.h"
 #include "tests/support/test_support.h"
@@ -116,6 +118,62 @@ TEST(PrccCrosscheck, PondEnsembleMatchesScipy)
     EXPECT_LT(r.coefficient[3], -0.3);
     EXPECT_EQ(r.note[8], PrccNote::ConstantInput);
     EXPECT_EQ(r.note[6], PrccNote::Collinear);
+}
+
+// The ensemble-fed path as `tledger sensitivity --prcc` takes it: the pond's ensemble at
+// 10-20 % CVs, its kept balanced draws, one diet share per row left out; scipy gets the
+// same reduced input matrix and each output column, the C++ its table.
+TEST(PrccCrosscheck, EnsembleFedPrccMatchesScipy)
+{
+    const testing::ScratchDir dir("prcc_scipy");
+    Model m = testing::handPond();
+    m.rules.cvByGrade = {0.1, 0.1, 0.15, 0.2};
+    m.compartment(1).value(Param::NetEmigration) = 0.3;  // a flow term with a grade
+    m.compartment(1).confidenceOf(Param::NetEmigration).grade = Confidence::Grade::B;
+    ensemble::EnsembleSettings s;
+    s.draws = 600;
+    s.seed = 8;
+    s.threads = 2;
+    s.dietCv = 0.1;
+    s.keepBalancedDraws = true;
+    s.analyses.trophicLevels = true;
+    const ensemble::EnsembleRun run = ensemble::runEnsemble(m, s);
+    ASSERT_TRUE(run.ran());
+    const ensemble::KeptDraws& kept = run.kept;
+    ASSERT_GT(kept.draw.size(), 200u);
+    const std::vector<std::string> outputs = {"Grazer.biomass", "Algae.ee", "Pike.ee", "Pike.tl"};
+    const EnsemblePrcc prcc = prccOfKeptDraws(kept, outputs);
+    ASSERT_EQ(prcc.table.outputNames, outputs);
+    // Inputs: parameters, diets less one share per row, and flow terms (E, catch).
+    for (const char* name : {"Pike.biomass", "Pike.diet:Grazer", "Grazer.net_emigration", "Grazer.catch", "Pike.catch"})
+        EXPECT_NE(std::find(prcc.table.inputNames.begin(), prcc.table.inputNames.end(), name), prcc.table.inputNames.end())
+            << name;
+    Eigen::MatrixXd x(kept.inputs.rows(), static_cast<Eigen::Index>(prcc.table.inputNames.size()));
+    for (std::size_t c = 0; c < prcc.table.inputNames.size(); ++c) {
+        const auto at = std::find(kept.inputNames.begin(), kept.inputNames.end(), prcc.table.inputNames[c]);
+        x.col(static_cast<Eigen::Index>(c)) = kept.inputs.col(at - kept.inputNames.begin());
+    }
+    int defined = 0;
+    for (std::size_t o = 0; o < outputs.size(); ++o) {
+        const auto at = std::find(kept.outputNames.begin(), kept.outputNames.end(), outputs[o]);
+        const Eigen::VectorXd y = kept.outputs.col(at - kept.outputNames.begin());
+        const nlohmann::json py = runScipy(x, y, dir, "ensemble_" + std::to_string(o));
+        ASSERT_FALSE(py.is_null()) << outputs[o] << ": prcc_scipy.py failed";
+        const PrccResult& ours = prcc.table.outputs[o];
+        for (Eigen::Index j = 0; j < x.cols(); ++j) {
+            const auto& ref = py.at("prcc")[static_cast<std::size_t>(j)];
+            if (ref.is_null()) {
+                EXPECT_TRUE(std::isnan(ours.coefficient[j])) << outputs[o] << " " << prcc.table.inputNames[static_cast<std::size_t>(j)];
+                continue;
+            }
+            EXPECT_NEAR(ours.coefficient[j], ref.get<double>(), 1e-9) << outputs[o] << " " << prcc.table.inputNames[static_cast<std::size_t>(j)];
+            const double p = py.at("p")[static_cast<std::size_t>(j)].get<double>();
+            EXPECT_NEAR(ours.pValue[j], p, 1e-7 * p + 1e-300) << outputs[o];
+            ++defined;
+        }
+    }
+    // No input is constant or collinear once a share per row is left out: all defined.
+    EXPECT_EQ(defined, static_cast<int>(outputs.size()) * static_cast<int>(x.cols()));
 }
 
 TEST(PrccCrosscheck, RandomMatricesMatchScipy)
