@@ -378,7 +378,10 @@ double* numberSetting(Model& m, std::string_view key)
            : key == "cv_grade_b"         ? &r.cvByGrade[1]
            : key == "cv_grade_c"         ? &r.cvByGrade[2]
            : key == "cv_grade_d"         ? &r.cvByGrade[3]
-                                         : nullptr;
+           : key == "plausible_biomass_max" ? &r.plausible.biomassMax
+           : key == "plausible_rate_max"    ? &r.plausible.rateMax
+           : key == "plausible_flow_max"    ? &r.plausible.flowMax
+                                            : nullptr;
 }
 
 void readSettings(const CsvTable& table, Model& model, Problems& problems)
@@ -409,7 +412,8 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         if (!number) {
             problems.push_back(errorAt(code::kCsvUnknownSetting, table.file, keyField, "unknown setting " + shown(key),
                                        "Known settings: currency, area, time, ee_max, pq_min, pq_max, "
-                                       "diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d."));
+                                       "diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d, "
+                                       "plausible_biomass_max, plausible_rate_max, plausible_flow_max."));
             continue;
         }
         const NumberCell v = numberCell(valueField, table.file, "setting " + shown(key), problems, true);
@@ -417,6 +421,11 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         if (!v.value) {
             problems.push_back(errorAt(code::kCsvMissingValue, table.file, valueField,
                                        "setting " + shown(key) + " needs a number"));
+            continue;
+        }
+        if (key.starts_with("plausible_") && !(*v.value > 0)) {
+            problems.push_back(errorAt(code::kCsvNumber, table.file, valueField,
+                                       "setting " + shown(key) + " must be above 0 (a value beyond it is warned about)"));
             continue;
         }
         *number = *v.value;
@@ -1191,7 +1200,8 @@ std::string settingsText(const Model& model)
         if (*textSetting(const_cast<Model&>(model), key) != *textSetting(defaults, key))
             rows += csvRecord({key, *textSetting(const_cast<Model&>(model), key)});
     for (const char* key : {"ee_max", "pq_min", "pq_max", "diet_sum_tolerance", "cv_grade_a", "cv_grade_b",
-                            "cv_grade_c", "cv_grade_d"})
+                            "cv_grade_c", "cv_grade_d", "plausible_biomass_max", "plausible_rate_max",
+                            "plausible_flow_max"})
         if (*numberSetting(const_cast<Model&>(model), key) != *numberSetting(defaults, key))
             rows += csvRecord({key, formatNumber(*numberSetting(const_cast<Model&>(model), key))});
     return rows.empty() ? rows : csvRecord({"key", "value"}) + rows;

@@ -155,7 +155,13 @@ std::string projectJson(const Project& project, const ProjectJsonOptions& option
         w.key("cv_by_grade").beginObject();
         const char* grades[] = {"A", "B", "C", "D"};
         for (std::size_t g = 0; g < 4; ++g) w.field(grades[g], info.rules.cvByGrade[g]);
-        w.endObject().endObject();
+        w.endObject();
+        w.key("plausible_max").beginObject()
+            .field("biomass", info.rules.plausible.biomassMax)
+            .field("rate", info.rules.plausible.rateMax)
+            .field("flow", info.rules.plausible.flowMax)
+            .endObject();
+        w.endObject();
         top.emplace_back("rules", w.str());
     }
     std::vector<std::string> scenarios;

@@ -106,11 +106,13 @@ bool writeInfo(sqlite3* db, const ProjectInfo& info)
 {
     Statement st(db, R"sql(
 INSERT INTO project_info (id, title, notes, created, modified, program_version, currency, area, time_unit,
-                          ee_max, pq_min, pq_max, diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d)
-VALUES (1, ?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)
+                          ee_max, pq_min, pq_max, diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d,
+                          plausible_biomass_max, plausible_rate_max, plausible_flow_max)
+VALUES (1, ?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)
 ON CONFLICT (id) DO UPDATE SET title = ?1, notes = ?2, created = ?3, modified = ?4, program_version = ?5,
   currency = ?6, area = ?7, time_unit = ?8, ee_max = ?9, pq_min = ?10, pq_max = ?11, diet_sum_tolerance = ?12,
-  cv_grade_a = ?13, cv_grade_b = ?14, cv_grade_c = ?15, cv_grade_d = ?16)sql");
+  cv_grade_a = ?13, cv_grade_b = ?14, cv_grade_c = ?15, cv_grade_d = ?16,
+  plausible_biomass_max = ?17, plausible_rate_max = ?18, plausible_flow_max = ?19)sql");
     const std::string now = utcNowIso8601();
     st.bind(1, info.title).bind(2, info.notes).bind(3, info.created.empty() ? now : info.created).bind(4, now);
     st.bind(5, std::string_view(TL_PROGRAM_VERSION));
@@ -118,6 +120,7 @@ ON CONFLICT (id) DO UPDATE SET title = ?1, notes = ?2, created = ?3, modified = 
     st.bind(9, info.rules.eeMax).bind(10, info.rules.pqMin).bind(11, info.rules.pqMax);
     st.bind(12, info.rules.dietSumTolerance);
     for (int g = 0; g < 4; ++g) st.bind(13 + g, info.rules.cvByGrade[static_cast<std::size_t>(g)]);
+    st.bind(17, info.rules.plausible.biomassMax).bind(18, info.rules.plausible.rateMax).bind(19, info.rules.plausible.flowMax);
     return st.run();
 }
 
@@ -243,7 +246,7 @@ bool insertRuns(sqlite3* db, int version, const std::vector<StoredRun>& runs, bo
     return true;
 }
 
-std::optional<ProjectInfo> readInfo(sqlite3* db)
+std::optional<ProjectInfo> readInfo(sqlite3* db, int version)
 {
     Statement st(db, "SELECT title, notes, created, modified, program_version, currency, area, time_unit, ee_max, pq_min,"
                      " pq_max, diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d FROM project_info WHERE id = 1");
@@ -262,6 +265,11 @@ std::optional<ProjectInfo> readInfo(sqlite3* db)
     info.rules.pqMax = st.real(10);
     info.rules.dietSumTolerance = st.real(11);
     for (int g = 0; g < 4; ++g) info.rules.cvByGrade[static_cast<std::size_t>(g)] = st.real(12 + g);
+    if (version >= 3) {  // before schema 3 the plausible ranges were not stored: defaults
+        Statement ranges(db, "SELECT plausible_biomass_max, plausible_rate_max, plausible_flow_max FROM project_info WHERE id = 1");
+        if (!ranges.step()) return std::nullopt;
+        info.rules.plausible = {ranges.real(0), ranges.real(1), ranges.real(2)};
+    }
     return info;
 }
 

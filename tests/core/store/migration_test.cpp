@@ -30,6 +30,9 @@ void expectFixtureContent(const Project& p)
     EXPECT_EQ(p.info.units.currency, "g C");
     EXPECT_EQ(p.info.units.area, "m²");
     EXPECT_EQ(p.info.created, "2026-11-01T08:00:00Z");
+    // Schema 3's plausible ranges were not stored before: the defaults of that time.
+    EXPECT_EQ(p.info.rules.plausible, PlausibleRanges{});
+    EXPECT_EQ(p.scenarios[0].model.rules.plausible, PlausibleRanges{});
     ASSERT_EQ(p.scenarios.size(), 2u);
     const Scenario& spring = p.scenarios[0];
     EXPECT_EQ(spring.name, "spring");
@@ -101,6 +104,30 @@ TEST(Migration, ReadWriteOpenMigratesToCurrentAndKeepsEverything)
     ASSERT_TRUE(loaded.value);
     EXPECT_EQ(loaded.value->scenarios[0].layout.at("perch"), (LayoutPosition{10, 20}));
     EXPECT_EQ(loaded.value->runs.size(), 1u);
+}
+
+TEST(Migration, PlausibleRangesAreKeptFromSchemaThreeOn)
+{
+    TempDir dir;
+    const auto path = copyOfFixture(dir);
+    Project project;
+    {
+        auto opened = ProjectFile::open(path);
+        ASSERT_TRUE(opened.file);
+        auto loaded = opened.file->load();
+        ASSERT_TRUE(loaded.value);
+        project = *loaded.value;
+        project.info.rules.plausible = PlausibleRanges{50.0, 300.0, 1e4};
+        for (Scenario& s : project.scenarios) s.model.rules = project.info.rules;
+        ASSERT_TRUE(opened.file->save(project).empty());
+    }
+    auto again = ProjectFile::open(path, OpenMode::ReadOnly);
+    ASSERT_TRUE(again.file);
+    auto loaded = again.file->load();
+    ASSERT_TRUE(loaded.value);
+    EXPECT_EQ(loaded.value->info.rules.plausible, (PlausibleRanges{50.0, 300.0, 1e4}));
+    // Each scenario's checks use the project's ranges: perch's B of 2.5 is within 50.
+    EXPECT_EQ(loaded.value->scenarios[0].model.rules.plausible, (PlausibleRanges{50.0, 300.0, 1e4}));
 }
 
 TEST(Migration, ReadOnlyOpenReadsVersionOneWithoutChangingIt)
