@@ -10,6 +10,7 @@ TL_BUILD_DIR="${TL_BUILD_DIR:-$TL_ROOT/build}"
 TL_PACKAGES=(cmake g++ ninja-build pkg-config
              qt6-base-dev qt6-svg-dev libqcustomplot-dev libeigen3-dev libsqlite3-dev
              libgtest-dev libbenchmark-dev libnlopt-cxx-dev nlohmann-json3-dev xvfb xauth
+             poppler-utils
              python3 python3-numpy python3-scipy python3-networkx)
 
 tl_install_missing_packages() {

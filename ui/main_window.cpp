@@ -34,14 +34,20 @@
 #include "core/model/problem_fixes.h"
 #include "ui/document/project_document.h"
 #include "ui/document/recovery_file.h"
+#include "ui/reconcile/reconcile_dialog.h"
+#include "ui/reconcile/reconcile_runner.h"
 #include "ui/style/palette.h"
 #include "ui/widgets/checks_panel.h"
 #include "ui/widgets/confidence_panel.h"
 #include "ui/widgets/editing_pages.h"
 #include "ui/widgets/help_window.h"
+#include "ui/widgets/fieldwork_dialog.h"
 #include "ui/widgets/project_settings_dialog.h"
 #include "ui/widgets/scenario_shelf.h"
 #include "ui/workbench_actions.h"
+#include "ui/compare/compare_page.h"
+#include "ui/widgets/report_dialog.h"
+#include "core/model/names.h"
 #if TL_UI_HAVE_RESULTS
 #include "ui/results/figure_export.h"
 #include "ui/results/results_pages.h"
@@ -278,6 +284,47 @@ void MainWindow::buildPages()
         });
     }
 #endif
+    compare_ = new ComparePage(stack_);
+    addPage(compare_, compare_->title(), compare_->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+    connect(compare_, &ComparePage::openCell, this, &MainWindow::openComparedCell);
+    connect(stack_, &QStackedWidget::currentChanged, this, [this](int) {
+        if (stack_->currentWidget() == compare_ && compareStale_) refreshCompare();
+    });
+    connect(doc_, &ProjectDocument::modelChanged, this, [this] { compareStale_ = true; refreshCompare(); });
+    connect(doc_, &ProjectDocument::projectChanged, this, [this] { compareStale_ = true; refreshCompare(); });
+}
+
+void MainWindow::refreshCompare()
+{
+    if (!compare_ || stack_->currentWidget() != compare_) return;
+    compare_->setProject(doc_->project());
+    compareStale_ = false;
+}
+
+// A row of the Compare page: the scenario becomes current and the cell behind the row is
+// shown in its editing page.
+void MainWindow::openComparedCell(const QString& scenario, const QString& compartment, const QString& item)
+{
+    const auto& scenarios = doc_->project().scenarios;
+    for (std::size_t s = 0; s < scenarios.size(); ++s)
+        if (tl::sameName(scenarios[s].name, scenario.toStdString()) && int(s) != doc_->currentIndex()) doc_->setCurrentIndex(int(s));
+    // The cell is found as the Checks panel finds a problem's cell (goToProblem).
+    tl::Problem where;
+    where.compartment = compartment.toStdString();
+    const QString kind = item.section(QLatin1Char(':'), 0, 0), name = item.section(QLatin1Char(':'), 1);
+    if (kind == QStringLiteral("diet") || kind == QStringLiteral("routing")) {
+        where.parameter = kind.toStdString();
+        if (name != QStringLiteral("import")) where.prey = name.toStdString();
+    } else if (kind == QStringLiteral("landings") || kind == QStringLiteral("discards") ||
+               kind == QStringLiteral("discard_survival") || kind == QStringLiteral("fleet") ||
+               kind == QStringLiteral("discard_pool")) {
+        where.parameter = "harvest";
+        where.fleet = name.toStdString();
+    } else {
+        where.parameter = item.toStdString();  // a parameter key opens its column, anything else the name
+    }
+    if (!goToProblem(where)) showPage(QStringLiteral("compartments"));
+    message(tr("Scenario '%1', %2: %3").arg(scenario, compartment.isEmpty() ? tr("harvest") : compartment, item));
 }
 
 void MainWindow::buildDocks()
@@ -339,7 +386,7 @@ void MainWindow::buildActions()
     exportFigureAct_->setEnabled(false);
     reportAct_ = file->addAction(icon("report"), tr("&Report…"), this, &MainWindow::reportDialog);
     reportAct_->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_R));
-    reportAct_->setToolTip(tr("Write an HTML report of every scenario of the project"));
+    reportAct_->setToolTip(tr("Preview a report of the scenario, every scenario or the comparison, and save it as HTML or PDF"));
     file->addSeparator();
     QAction* quitAct = file->addAction(tr("&Quit"), this, &QWidget::close);
     quitAct->setShortcut(QKeySequence::Quit);
@@ -379,12 +426,27 @@ void MainWindow::buildActions()
         dialog.exec();
     });
     settingsAct_->setToolTip(tr("Units, check rules and the fleets' discard pools"));
+    project->addAction(tr("&Fieldwork…"), this, [this] {
+        FieldworkDialog dialog(doc_, this);
+        dialog.resize(std::min(1200, int(width() * 0.9)), std::min(760, int(height() * 0.9)));
+        dialog.exec();
+    })->setToolTip(tr("A parameter from survey data (hauls, lengths, stomachs) or a published equation, "
+                      "previewed with its interval, written with its CV and source"));
 
     QMenu* scenario = menuBar()->addMenu(tr("&Scenario"));
     scenario->addAction(tr("&New scenario…"), shelf_, &ScenarioShelf::askNew);
     scenario->addAction(tr("&Duplicate scenario…"), shelf_, &ScenarioShelf::askDuplicate);
     scenario->addAction(tr("&Rename scenario…"), shelf_, &ScenarioShelf::askRename);
     scenario->addAction(tr("De&lete scenario…"), shelf_, &ScenarioShelf::askDelete);
+    scenario->addSeparator();
+    reconcileAct_ = scenario->addAction(tr("Re&concile…"), this, [this] {
+        ReconcileDialog dialog(doc_, this);
+        connect(&dialog, &ReconcileDialog::scenarioCreated, this, [this](const QString& name) {
+            message(tr("Scenario %1 created from the reconcile; Edit > Undo removes it").arg(name));
+        });
+        dialog.exec();
+    });
+    reconcileAct_->setToolTip(tr("Find the smallest confidence-weighted change that balances this scenario, as a new scenario"));
 
     viewMenu_ = menuBar()->addMenu(tr("&View"));
     for (int i = 0; i < pageCount(); ++i) {
@@ -672,13 +734,12 @@ bool MainWindow::writeReport(const QString& path, QString* error)
 
 void MainWindow::reportDialog()
 {
-    const QString suggested = QDir::home().filePath(QFileInfo(doc_->displayName()).completeBaseName() + QStringLiteral("-report.html"));
-    QString path = QFileDialog::getSaveFileName(this, tr("Write project report"), suggested, tr("HTML report (*.html)"));
-    if (path.isEmpty()) return;
-    if (!path.endsWith(QStringLiteral(".html"), Qt::CaseInsensitive)) path += QStringLiteral(".html");
-    QString why;
-    if (!writeReport(path, &why)) QMessageBox::warning(this, tr("Report"), why);
-    else message(tr("Report written to %1").arg(QDir::toNativeSeparators(path)));
+    tl::Project project = doc_->project();
+    if (project.info.title.empty()) project.info.title = QFileInfo(doc_->displayName()).completeBaseName().toStdString();
+    const QString path = doc_->origin() == ProjectDocument::Origin::ProjectFile ? doc_->filePath() : QString();
+    ReportDialog dialog(project, path, doc_->isModified(), qs(doc_->scenario().name), compare_ ? compare_->picked() : QStringList(),
+                        this);
+    dialog.exec();
 }
 
 void MainWindow::showUserGuide(const QString& section)
@@ -789,6 +850,25 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
         }
         written << file;
     }
+    // The Reconcile dialog on the current scenario: its settings, then its report.
+    ReconcileDialog dialog(doc_, this);
+    dialog.show();
+    auto grabDialog = [&](const QString& key) {
+        for (int k = 0; k < 5; ++k) QApplication::processEvents();
+        const QString file = QStringLiteral("%1/%2-%3.png").arg(dir).arg(written.size() + 1, 2, 10, QLatin1Char('0')).arg(key);
+        if (!dialog.grab().toImage().save(file)) {
+            if (error) *error = tr("Cannot write %1.").arg(file);
+            return false;
+        }
+        written << file;
+        return true;
+    };
+    if (!grabDialog(QStringLiteral("dialog-reconcile-settings"))) return written;
+    if (dialog.run()) {
+        dialog.runner()->waitForIdle();
+        if (dialog.showingReport() && !grabDialog(QStringLiteral("dialog-reconcile-report"))) return written;
+    }
+    dialog.reject();
     showPage(0);
     return written;
 }

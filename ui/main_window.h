@@ -31,6 +31,7 @@ class ConfidencePanel;
 class ScenarioShelf;
 class EditingPage;
 class CompartmentsPage;
+class ComparePage;
 class DietPage;
 class HarvestPage;
 class RoutingPage;
@@ -74,6 +75,7 @@ public:
     QAction* reportAction() const { return reportAct_; }
     QAction* settingsAction() const { return settingsAct_; }
     QAction* userGuideAction() const { return guideAct_; }
+    QAction* reconcileAction() const { return reconcileAct_; }  // Scenario > Reconcile…
     bool writeReport(const QString& path, QString* error);
 
     // Files. Each returns false (after telling the user, unless quiet) on failure.
@@ -117,6 +119,8 @@ private:
     void exportCsvDialog();
     void exportFigureDialog();
     void reportDialog();
+    void refreshCompare();  // the Compare page follows the project while it is on screen
+    void openComparedCell(const QString& scenario, const QString& compartment, const QString& item);
     void showUserGuide(const QString& section);
     void addRecent(const QString& path);
     void rebuildRecentMenu();
@@ -138,6 +142,8 @@ private:
     std::vector<EditingPage*> editingPages_;
     std::vector<ResultsPage*> resultsPages_;
     std::set<ResultsPage*> staleResults_;  // pages off screen that have not seen the latest solve
+    ComparePage* compare_ = nullptr;
+    bool compareStale_ = true;  // the project changed while the Compare page was off screen
 
     ChecksPanel* checks_;
     ConfidencePanel* confidence_;
@@ -154,6 +160,7 @@ private:
     QAction* reportAct_ = nullptr;
     QAction* settingsAct_ = nullptr;
     QAction* guideAct_ = nullptr;
+    QAction* reconcileAct_ = nullptr;
 };
 
 }  // namespace tl::ui

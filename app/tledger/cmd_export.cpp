@@ -1,4 +1,5 @@
-// tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH
+// tledger export MODEL [--scenario NAME] --format csv|json|scor|html|pdf --out PATH
+// tledger export PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH   (a comparison report)
 // tledger export MODEL [--scenario NAME] --format svg|png|pdf --view level-bars|flow-map
 //                [--dpi N] --out PATH          (figures; only in builds with the GUI)
 // (DESIGN 5.2). MODEL is a CSV model folder or a .tledger project.
@@ -6,13 +7,18 @@
 //   json  the project: information, every scenario (or the one named) with its inputs
 //         and its solve result (the `tledger solve --json` object under "result")
 //   scor  the solved scenario's flow network in SCOR format
-//   html  a plain, self-contained report (core/io/html_report.h)
+//   html  a plain, self-contained report (core/io/html_report.h): every scenario, the one
+//         named, or with --scenarios a comparison; charts inline as SVG
+//   pdf   without --view: the same report as PDF with vector charts (ui/report, drawn by
+//         tledger-figures); with --view: one figure
 // Bad input exits 2 naming the file, and nothing is written: output goes to a
 // temporary path first and is renamed into place only when complete. `--out -` writes
 // the file to standard output instead (the Unix convention; a CSV folder cannot be).
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
+#include <ctime>
 #include <fstream>
 #include <iostream>
 #include <system_error>
@@ -30,9 +36,12 @@
 #include "core/model/text.h"
 #include "core/network/flow_network.h"
 #include "core/io/html_report.h"
+#include "core/io/sha256.h"
+#include "core/compare/scenario_comparison.h"
 #include "core/store/model_source.h"
 #include "core/store/project_json.h"
 #ifdef TL_HAVE_FIGURES
+#include "ui/report/report_pdf.h"
 #include "ui/results/figure_export_cli.h"
 #endif
 
@@ -158,9 +167,85 @@ int exportScor(const Project& project, const Scenario& scenario, const fs::path&
     return 0;
 }
 
-int exportHtml(const Project& project, const fs::path& out)
+// The day of the report (UTC): SOURCE_DATE_EPOCH when set (the reproducible-builds
+// convention, so a report can be made again byte for byte), else today.
+std::string reportDate()
 {
-    return writeOutput(out, htmlReport(project));
+    if (const char* epoch = std::getenv("SOURCE_DATE_EPOCH")) {
+        if (const auto seconds = parseNumber(epoch); seconds && *seconds >= 0 && *seconds < 253402300800.0) {
+            const std::time_t t = static_cast<std::time_t>(*seconds);
+            std::tm utc{};
+            gmtime_r(&t, &utc);
+            char text[16];
+            std::strftime(text, sizeof text, "%Y-%m-%d", &utc);
+            return text;
+        }
+    }
+    return utcNowIso8601().substr(0, 10);
+}
+
+// What the report needs beyond the project: which scenarios, and its provenance.
+ReportOptions reportOptions(const ParsedOptions& opts, const fs::path& model)
+{
+    ReportOptions options;
+    if (const auto list = opts.value("--scenarios")) {
+        options.scenarios = splitScenarioList(*list);
+        options.compare = true;
+    } else if (const auto one = opts.value("--scenario")) {
+        options.scenarios = {*one};
+    }
+    options.provenance.programVersion = TL_VERSION;
+    options.provenance.date = reportDate();
+    std::error_code ec;
+    if (fs::is_regular_file(model, ec)) {
+        options.provenance.projectFile = model.filename().string();
+        options.provenance.projectSha256 = fileSha256(model).value_or("");
+    } else {
+        options.provenance.projectFile = model.filename().string() + " (CSV model folder)";
+    }
+    return options;
+}
+
+int exportHtml(const Project& project, const ParsedOptions& opts, const fs::path& out)
+{
+    const HtmlReport report = makeHtmlReport(project, reportOptions(opts, opts.positional[0]));
+    if (!report.error.empty()) {
+        std::cerr << "tledger export: " << opts.positional[0] << ": " << report.error << '\n';
+        return 2;
+    }
+    return writeOutput(out, report.html);
+}
+
+// The report as PDF (vector charts; ui/report). Only in tledger-figures.
+int exportPdfReport(const Project& project, const ParsedOptions& opts, const fs::path& out)
+{
+#ifdef TL_HAVE_FIGURES
+    ReportOptions options = reportOptions(opts, opts.positional[0]);
+    options.figureMarkers = true;
+    const HtmlReport report = makeHtmlReport(project, options);
+    if (!report.error.empty()) {
+        std::cerr << "tledger export: " << opts.positional[0] << ": " << report.error << '\n';
+        return 2;
+    }
+    const bool toStdout = isStandardOutput(out);
+    std::error_code ec;
+    const fs::path target = toStdout ? temporaryBeside(fs::temp_directory_path(ec) / "tledger-report.pdf") : out;
+    if (const std::string error = ui::writeReportPdf(report, target.string()); !error.empty()) {
+        std::cerr << "tledger export: " << error << '\n';
+        return 2;
+    }
+    if (!toStdout) return 0;
+    std::ifstream in(target, std::ios::binary);
+    std::cout << in.rdbuf();
+    std::cout.flush();
+    in.close();
+    fs::remove(target, ec);
+    return std::cout ? 0 : 2;
+#else
+    (void)project, (void)opts, (void)out;
+    std::cerr << "tledger export: --format pdf needs a build with the GUI (TL_BUILD_GUI=ON)\n";
+    return 2;
+#endif
 }
 
 bool isFigureFormat(const std::string& format) { return format == "svg" || format == "png" || format == "pdf"; }
@@ -240,12 +325,14 @@ void handOverToFigureProgram(const Args& args)
 
 int cmdExport(const Args& args)
 {
-    const auto opts = parseOptions(args, {"--scenario", "--format", "--out", "--view", "--dpi"}, {}, "export", std::cerr);
+    const auto opts = parseOptions(args, {"--scenario", "--scenarios", "--format", "--out", "--view", "--dpi"}, {}, "export",
+                                   std::cerr);
     if (!opts) return 2;
     const auto format = opts->value("--format");
     const auto out = opts->value("--out");
     if (opts->positional.size() != 1 || !format || !out || out->empty()) {
-        std::cerr << "tledger export: usage: tledger export MODEL [--scenario NAME] --format csv|json|scor|html --out PATH\n"
+        std::cerr << "tledger export: usage: tledger export MODEL [--scenario NAME] --format csv|json|scor|html|pdf --out PATH\n"
+                     "       tledger export PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH\n"
                      "       tledger export MODEL [--scenario NAME] --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH\n";
         return 2;
     }
@@ -261,15 +348,28 @@ int cmdExport(const Args& args)
                      "output (--out -); give a folder path, or use --format json for one stream\n";
         return 2;
     }
+    const bool pdfReport = *format == "pdf" && !opts->value("--view");
+    if (opts->value("--scenarios") && *format != "html" && !pdfReport) {
+        std::cerr << "tledger export: --scenarios (a comparison) goes with --format html or pdf (a report)\n";
+        return 2;
+    }
+    if (opts->value("--scenarios") && opts->value("--scenario")) {
+        std::cerr << "tledger export: give --scenario NAME (one scenario) or --scenarios A,B (a comparison), not both\n";
+        return 2;
+    }
     const fs::path model = opts->positional[0];
-    const auto project = loadProject(model, opts->value("--scenario"));
+    // A comparison picks its scenarios itself (and names a wrong one with the others);
+    // --scenario keeps the MODEL rule (a CSV folder's scenario takes that name).
+    const auto project = loadProject(model, opts->value("--scenarios") ? std::nullopt : opts->value("--scenario"));
     if (!project) return 2;
 
     int code = 2;
     if (*format == "json") {
         code = exportJson(*project, *out);
     } else if (*format == "html") {
-        code = exportHtml(*project, *out);
+        code = exportHtml(*project, *opts, *out);
+    } else if (pdfReport) {
+        code = exportPdfReport(*project, *opts, *out);
     } else {
         const Scenario* scenario = singleScenario(*project, model);
         if (!scenario) return 2;

@@ -23,6 +23,7 @@
 #include "core/io/csv_model.h"
 #include "core/model/text.h"
 #include "core/reconcile/reconcile_report.h"
+#include "core/reconcile/reconciled_scenario.h"
 #include "core/store/model_source.h"
 #include "core/store/project_file.h"
 
@@ -117,13 +118,6 @@ bool applyMoves(const std::string& list, ReconcileOptions& o)
         }
     }
     return true;
-}
-
-std::string freeScenarioName(const Project& project, const std::string& base)
-{
-    std::string name = base + " reconciled";
-    for (int k = 2; project.findScenario(name); ++k) name = base + " reconciled " + std::to_string(k);
-    return name;
 }
 
 void printProblems(const Problems& problems)
@@ -251,13 +245,7 @@ int cmdReconcile(const Args& rawArgs)
     // Write the new scenario (not for an unchanged one).
     std::optional<std::string> savedAs;
     if (result.status != ReconcileStatus::Unchanged) {
-        const std::string date = utcNowIso8601();
-        Scenario out;
-        out.model = annotatedReconcileModel(model, result, date);
-        out.parent = scenario.name;
-        out.created = date;
-        out.layout = scenario.layout;
-        out.description = reconcileDescription(model, result, scenario.name);
+        Scenario out = reconciledScenario(scenario, result, scenario.name, utcNowIso8601());
         if (folder) {
             const std::filesystem::path target = *saveAs;
             if (std::filesystem::exists(target, ec)) {
@@ -287,7 +275,7 @@ int cmdReconcile(const Args& rawArgs)
                 printProblems(all.problems);
                 return 2;
             }
-            out.name = saveAs ? std::string(trim(*saveAs)) : freeScenarioName(*all.value, scenario.name);
+            out.name = saveAs ? std::string(trim(*saveAs)) : freeReconciledName(*all.value, scenario.name);
             if (all.value->findScenario(out.name)) {
                 std::cerr << "tledger reconcile: " << path.string() << " already has a scenario named '" << out.name
                           << "'; reconcile never overwrites one (choose another --save-as)\n";

@@ -17,5 +17,9 @@ int cmdImport(const Args& args);
 int cmdExport(const Args& args);
 int cmdReconcile(const Args& args);
 int cmdSensitivity(const Args& args);
+int cmdCompare(const Args& args);
+int cmdEnsemble(const Args& args);
+int cmdEnsembleMerge(const Args& args);
+int cmdFieldwork(const Args& args);
 
 }  // namespace tl::cli

@@ -32,8 +32,36 @@ constexpr const char* kUsage = R"(usage: tledger <command> [arguments]
             [--central-differences] [--json]   local elasticities d ln(output) / d ln(input),
                                                ranked; QUANTITY: biomass (or b), pb, qb, ee,
                                                pq, tl (default: every output)
+  compare   PROJECT --scenarios A,B[,C...] [--json]
+                                               inputs that differ and every output side by side,
+                                               with differences against the first scenario named
+  ensemble  MODEL [--scenario NAME] --draws N --seed S [--threads T] [--draw-range FIRST:LAST]
+            [--analyses balance,tl,levels,indicators] [--shape lognormal|truncated-normal|uniform|triangular]
+            [--diet-cv CV] [--shape-of COMPARTMENT.PARAM=SHAPE ...] [--keep-draws FILE.csv]
+            [--out FILE] [--no-store] [--json]
+                                               Monte Carlo draws of the inputs from their data
+                                               confidence: percentiles of every output over the
+                                               balanced draws, the balanced share, the compartments
+                                               that break the balance. A project stores the run
+                                               beside its scenario. --draw-range runs a slice
+                                               (partial JSON, draws numbered from 0, both ends
+                                               included) for ensemble-merge.
+  ensemble-merge PART... [--partial] [--out FILE] [--json]
+                                               slices into exactly the result of one run
+  fieldwork biomass --hauls F --taxa F --compartment C [--strata F] [--catchability X1]
+            mortality --lengths F --taxon T --linf CM --k K [--method catch-curve|mean-length]
+                      [--points 4-9] [--cutoff CM]
+            mortality --method pauly1980|then-tmax|then-growth [--linf CM --k K --temperature C | --tmax Y]
+            consumption --winf G --temperature C --aspect-ratio A [--food carnivore|herbivore|detritivore]
+            diet --stomachs F --taxa F --compartment C [--summary mean|pooled]
+            each [--into PROJECT --scenario NAME --compartment C] [--level 0.95] [--json]
+                                               a parameter from survey data with its CV and
+                                               interval; --into writes it with a source note
   import    CSV_FOLDER|SCOR_FILE --into PROJECT --scenario NAME
-  export    MODEL --scenario NAME --format csv|scor|json|html --out PATH
+  export    MODEL --scenario NAME --format csv|scor|json|html|pdf --out PATH
+            PROJECT --scenarios A,B[,C...] --format html|pdf --out PATH
+                                               html/pdf: the report (every scenario, the one named,
+                                               or a comparison), charts included, with provenance
             MODEL --scenario NAME --format svg|png|pdf --view level-bars|flow-map [--dpi N] --out PATH
 
 MODEL is a CSV model folder (compartments.csv, diet.csv, ...) or a .tledger project.
@@ -53,6 +81,9 @@ int main(int argc, char** argv)
         {"solve", tl::cli::cmdSolve},   {"check", tl::cli::cmdCheck},   {"network", tl::cli::cmdNetwork},
         {"import", tl::cli::cmdImport}, {"export", tl::cli::cmdExport}, {"reconcile", tl::cli::cmdReconcile},
         {"sensitivity", tl::cli::cmdSensitivity},
+        {"compare", tl::cli::cmdCompare},
+        {"ensemble", tl::cli::cmdEnsemble}, {"ensemble-merge", tl::cli::cmdEnsembleMerge},
+        {"fieldwork", tl::cli::cmdFieldwork},
     };
     if (argc < 2) {
         std::cerr << kUsage;

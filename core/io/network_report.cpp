@@ -11,13 +11,6 @@
 namespace tl {
 namespace {
 
-std::string roman(int level)
-{
-    static const char* names[] = {"I",   "II",   "III", "IV", "V",   "VI",   "VII",  "VIII", "IX",  "X",
-                                  "XI",  "XII",  "XIII", "XIV", "XV", "XVI", "XVII", "XVIII", "XIX", "XX"};
-    return level >= 1 && level <= 20 ? names[level - 1] : std::to_string(level);
-}
-
 void writeLevels(JsonWriter& w, const ChainDecomposition& chains)
 {
     w.beginArray();
@@ -257,7 +250,7 @@ std::string networkReportTables(const NetworkAnalysis& r)
     while (shown > 4 && r.levels.combined.levels[shown - 1].throughput < 1e-5 * levelTotal) --shown;
     for (std::size_t k = 0; k < shown; ++k) {
         const TrophicLevelBin& bin = r.levels.combined.levels[k];
-        lv.addRow({roman(bin.level), displayNumber(bin.throughput), displayNumber(bin.biomass),
+        lv.addRow({levelName(bin.level), displayNumber(bin.throughput), displayNumber(bin.biomass),
                    displayNumber(bin.production), displayNumber(bin.catchTotal),
                    displayNumber(r.levels.fromProducers.levels[k].te), displayNumber(r.levels.fromDetritus.levels[k].te),
                    displayNumber(bin.te), displayNumber(bin.productionRatio)});
@@ -274,7 +267,7 @@ std::string networkReportTables(const NetworkAnalysis& r)
     if (!r.levels.cycleRemoval.complete)
         out += "The feeding cycles are too many to enumerate; only part of them was removed.\n";
     if (shown < r.levels.combined.levels.size())
-        out += "Levels " + roman(static_cast<int>(shown) + 1) + " and above hold less than 0.001 % of the "
+        out += "Levels " + levelName(static_cast<int>(shown) + 1) + " and above hold less than 0.001 % of the "
                "throughput and are left out here (--json lists them)\n";
     out += "Mean TE (geometric mean of levels II-IV): producer chains " + displayNumber(r.levels.fromProducers.meanTe) +
            ", detritus chains " + displayNumber(r.levels.fromDetritus.meanTe) + ", all " +

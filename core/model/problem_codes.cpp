@@ -55,6 +55,22 @@ constexpr std::array kCodes = std::to_array<ProblemCodeInfo>({
     {code::kReconcileUnsolvable, E, "Reconcile needs a scenario the balance can solve, with positive B, P/B and Q/B."},
     {code::kReconcileOption, E, "A reconcile pin or bound names a compartment or parameter that cannot move."},
     {code::kReconcileConflict, E, "No change within the pins and bounds satisfies this constraint together with the others."},
+    // Ensemble (core/ensemble).
+    {code::kEnsembleUnsolvable, E, "An ensemble needs a scenario whose balance equations can be set up (at most one unknown per compartment)."},
+    {code::kEnsembleSettings, E, "An ensemble setting is out of range (draws, draw range, threads or a CV)."},
+    {code::kEnsemblePartial, E, "A partial ensemble result cannot be read or does not belong with the others being merged."},
+    // Fieldwork (core/fieldwork).
+    {code::kSurveyValue, E, "A survey cell holds a value outside its allowed range (a negative catch, a swept area of zero)."},
+    {code::kSurveyInconsistent, E, "Rows of the same haul or stomach sample disagree (swept area, stratum, predator, stomachs)."},
+    {code::kSurveyUnknownTaxon, E, "A survey names a taxon that the taxon-to-compartment mapping does not list."},
+    {code::kSurveyUnknownCompartment, E, "The taxon mapping names a compartment that the scenario does not have."},
+    {code::kSurveyUnknownStratum, E, "A haul names a stratum that the strata file does not list, or a stratum has no haul."},
+    {code::kFieldworkTooFewData, E, "Too few hauls, fish, points or stomachs for the estimate and its interval."},
+    {code::kFieldworkInvalidInput, E, "An input of a fieldwork estimate is missing or outside what the equation allows."},
+    {code::kFieldworkOutsideRange, W, "An input lies outside the range of the data the empirical equation was fitted to."},
+    {code::kFieldworkTarget, E, "The estimate cannot be written into that compartment or parameter."},
+    {code::kFieldworkNothingUnknown, W,
+     "An estimate filled a value the balance used to solve while EE stays given: the compartment has nothing left unknown."},
     // Flow network.
     {code::kNetworkShortfallImport, W,
      "An unbalanced flow would be negative; the shortfall enters the flow network as an import."},

@@ -144,6 +144,21 @@ inline constexpr const char* kStoreIoError = "store-io-error";
 inline constexpr const char* kReconcileUnsolvable = "reconcile-unsolvable";
 inline constexpr const char* kReconcileOption = "reconcile-option";
 inline constexpr const char* kReconcileConflict = "reconcile-conflict";
+// Ensemble (core/ensemble).
+inline constexpr const char* kEnsembleUnsolvable = "ensemble-unsolvable";
+inline constexpr const char* kEnsembleSettings = "ensemble-settings";
+inline constexpr const char* kEnsemblePartial = "ensemble-partial";
+// Fieldwork: survey files and the estimators built on them (core/fieldwork).
+inline constexpr const char* kSurveyValue = "survey-value";                  // a cell outside its allowed range
+inline constexpr const char* kSurveyInconsistent = "survey-inconsistent";    // rows of one haul or sample disagree
+inline constexpr const char* kSurveyUnknownTaxon = "survey-unknown-taxon";   // a taxon the mapping lacks
+inline constexpr const char* kSurveyUnknownCompartment = "survey-unknown-compartment";
+inline constexpr const char* kSurveyUnknownStratum = "survey-unknown-stratum";
+inline constexpr const char* kFieldworkTooFewData = "fieldwork-too-few-data";
+inline constexpr const char* kFieldworkInvalidInput = "fieldwork-invalid-input";
+inline constexpr const char* kFieldworkOutsideRange = "fieldwork-outside-range";  // warning
+inline constexpr const char* kFieldworkTarget = "fieldwork-target";
+inline constexpr const char* kFieldworkNothingUnknown = "fieldwork-nothing-unknown";  // warning
 }  // namespace code
 
 struct ProblemCodeInfo {

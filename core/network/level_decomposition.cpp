@@ -189,4 +189,11 @@ LevelDecomposition decomposeLevels(const FlowNetwork& net, int maxLevels, Feedin
     return out;
 }
 
+std::string levelName(int level)
+{
+    static const char* names[] = {"I",  "II",  "III",  "IV",  "V",  "VI",  "VII",  "VIII",  "IX",  "X",
+                                  "XI", "XII", "XIII", "XIV", "XV", "XVI", "XVII", "XVIII", "XIX", "XX"};
+    return level >= 1 && level <= 20 ? names[level - 1] : std::to_string(level);
+}
+
 }  // namespace tl

@@ -42,6 +42,7 @@
 #pragma once
 
 #include <cstddef>
+#include <string>
 #include <vector>
 
 #include <Eigen/Core>
@@ -83,6 +84,9 @@ struct LevelDecomposition {
     // Stack a level bar by node: combined.share(j, k-1) * throughput_j (or biomass_j ...).
     int levelCount() const { return static_cast<int>(combined.levels.size()); }
 };
+
+// The name of integer level k as the trade writes it: "I", "II", ... "XX", then digits.
+std::string levelName(int level);
 
 // maxLevels bounds the series (deep or cyclic webs); the remainder lands in the last level.
 LevelDecomposition decomposeLevels(const FlowNetwork& network, int maxLevels = 30,

@@ -11,7 +11,9 @@
 //      objective gradient is 0 there), so the answer is a KKT point of the whole
 //      problem while SLSQP (dense, cost ~ cube of the variable count) sees only the
 //      inputs near the imbalance. SLSQP works on scaled variables y = (x - x0) / (CV s),
-//      in which the objective is sum y^2.
+//      in which the objective is sum y^2. A working set too large for dense SLSQP
+//      (ReconcileOptions::slsqpFreeVariableLimit) is solved by NLopt's augmented
+//      Lagrangian with L-BFGS first, SLSQP polishing only if a constraint still fails.
 //   3. When that ends with a constraint still violated (the model is infeasible within
 //      its pins and bounds, or SLSQP stalled), the elastic form: every model constraint
 //      gets a slack t_k >= 0 (g_k - t_k <= 0; for an equality, |h_k| <= t_k) and the
@@ -23,6 +25,8 @@
 // status reported: the balance, not the optimiser, decides "balanced".
 #pragma once
 
+#include <atomic>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -54,7 +58,8 @@ enum class ReconcileStatus {
     Unchanged,       // already balanced: nothing to change
     Balanced,        // a change found that satisfies every constraint
     LeastViolating,  // infeasible: the least-violating change, with the conflict named
-    Invalid          // the problem could not be built (see problems)
+    Invalid,         // the problem could not be built (see problems)
+    Cancelled        // stopped on request (ReconcileControl::cancel): nothing changed
 };
 std::string_view reconcileStatusKey(ReconcileStatus s);  // "unchanged", "balanced", ...
 
@@ -84,7 +89,27 @@ inline constexpr double kElasticPenalty = 1e4;
 // A scaled constraint counts as satisfied within this, and as binding within it of 0.
 inline constexpr double kReconcileTolerance = 1e-7;
 
-ReconcileResult reconcile(const Model& model, const ReconcileOptions& options = {});
+// How far a running reconcile has come, for a caller on another thread. SLSQP cannot
+// say how many iterations remain, so this is a count, not a fraction.
+struct ReconcileProgress {
+    int round = 0;                 // working-set round (1-based); the elastic phase follows the last
+    bool elastic = false;          // the elastic (least-violating) phase is running
+    int evaluations = 0;           // objective evaluations so far, all phases
+    std::size_t freeVariables = 0; // variables SLSQP moves in this phase
+};
+
+// Optional control of a run from another thread (the workbench runs reconcile off its
+// GUI thread). `cancel` is read at every evaluation: once set, SLSQP is stopped (NLopt's
+// forced stop) and the result is Cancelled with the model unchanged. `progress` is
+// called on the solving thread at the start of each phase and every
+// kProgressEvery evaluations; it must be cheap and thread-safe.
+struct ReconcileControl {
+    const std::atomic<bool>* cancel = nullptr;
+    std::function<void(const ReconcileProgress&)> progress;
+};
+inline constexpr int kProgressEvery = 20;
+
+ReconcileResult reconcile(const Model& model, const ReconcileOptions& options = {}, const ReconcileControl& control = {});
 
 // The source note written on every changed value: method, date, value before.
 std::string reconcileSourceNote(const std::string& date, double before, const std::string& previous);

@@ -84,6 +84,11 @@ struct ReconcileOptions {
     double catchCv = 0.25;
     // No input moves by more than this factor either way (keeps logs finite; our choice).
     double maxFactor = 1000.0;
+    // Solver choice, not part of the problem: a working set of more free variables than
+    // this is solved by NLopt's augmented Lagrangian with L-BFGS first, because dense
+    // SLSQP costs about n^3 per iteration (core/reconcile/reconcile.cpp, runPhase).
+    // Tests and the benchmark move it to compare the two on the same problem.
+    std::size_t slsqpFreeVariableLimit = 300;
 };
 
 enum class ConstraintKind { EEMax, EEMin, EEGiven, PQMin, PQMax, RespirationNonNegative, DetritusSupply, DietSum };

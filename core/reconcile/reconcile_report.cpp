@@ -105,6 +105,7 @@ std::string reconcileText(const Model& original, const ReconcileResult& r, const
         out += "'" + scenario + "' cannot balance within its pins and bounds: the least-violating change is below.\n";
         break;
     case ReconcileStatus::Invalid: out += "'" + scenario + "' could not be reconciled.\n"; break;
+    case ReconcileStatus::Cancelled: return out + "Reconciling '" + scenario + "' was cancelled: nothing changed.\n";
     }
     if (r.status == ReconcileStatus::Invalid) return out + problemsTable(r.problems);
     out += "Objective (sum of (change / CV)^2): " + displayNumber(r.objective) + "; evaluations: " +

@@ -368,6 +368,12 @@ def main():
     target("save a 200-compartment project (5 scenarios) < 200 ms", store_time("project_save"), 0.2)
     for page in ("balance-sheet", "level-bars"):
         target(f"edit to redraw, 100 compartments, {page} page < 50 ms", gui_ms.get(page), 0.05)
+    # Ensemble (issue 15): its own driver prints draws/s beside the NumPy batched ensemble.
+    ensemble = bench / "ensemble_bench"
+    if ensemble.exists():
+        print()
+        sys.stdout.flush()
+        subprocess.run([str(ensemble), "--size", "50", "--draws", "100000", "--rounds", "2"], env=single)
     print()
     print(f"(run took {time.perf_counter() - started:.0f} s)")
 

@@ -267,7 +267,9 @@ private slots:
         QVERIFY2(w.openPath(sampleProject(), true, &error), qPrintable(error));
         const QStringList files = w.renderSnapshots(dir.path() + QStringLiteral("/shots"), &error);
         QVERIFY2(error.isEmpty(), qPrintable(error));
-        QCOMPARE(files.size(), w.pageCount());
+        // Every page, then the Reconcile dialog's settings and report (issue 14).
+        QCOMPARE(files.size(), w.pageCount() + 2);
+        QVERIFY(files.last().endsWith(QStringLiteral("reconcile-report.png")));
         QVERIFY(w.pageCount() >= 4);
         for (const QString& f : files) {
             QImage image(f);

@@ -6,27 +6,16 @@
 #include <QGroupBox>
 #include <QLabel>
 #include <QLineEdit>
-#include <QLocale>
 #include <QScrollArea>
 #include <QVBoxLayout>
-#include <cmath>
 
 #include "ui/document/project_document.h"
+#include "ui/widgets/number_text.h"
 
 namespace tl::ui {
 namespace {
 
 QString qs(const std::string& s) { return QString::fromStdString(s); }
-
-// Numbers as the tables show them: C locale ("0.05"), also accepting the user's locale.
-std::optional<double> parseNumber(const QString& text)
-{
-    bool ok = false;
-    double v = text.trimmed().toDouble(&ok);
-    if (!ok) v = QLocale().toDouble(text.trimmed(), &ok);
-    if (!ok || !std::isfinite(v)) return std::nullopt;
-    return v;
-}
 
 QString numberText(double v) { return QString::number(v, 'g', 10); }
 
@@ -215,7 +204,7 @@ std::optional<ProjectSettings> ProjectSettingsDialog::settings(QString* why) con
         {rateMax_, &s.rules.plausible.rateMax, tr("Plausible P/B, Q/B up to")},
         {flowMax_, &s.rules.plausible.flowMax, tr("Plausible flows up to")}};
     for (const auto& n : numbers) {
-        const auto v = parseNumber(n.edit->text());
+        const auto v = parseTypedNumber(n.edit->text());
         if (!v) {
             if (why) *why = tr("%1: \"%2\" is not a number.").arg(n.label, n.edit->text());
             return std::nullopt;

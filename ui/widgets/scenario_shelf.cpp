@@ -83,18 +83,23 @@ void ScenarioShelf::refresh()
 
 QString ScenarioShelf::checkName(const QString& name, int except, QString* why) const
 {
+    return checkScenarioName(doc_->project(), name, except, why);
+}
+
+QString checkScenarioName(const tl::Project& project, const QString& name, int except, QString* why)
+{
     const QString n = name.trimmed();
     if (n.isEmpty()) {
-        if (why) *why = tr("A scenario needs a name.");
+        if (why) *why = ScenarioShelf::tr("A scenario needs a name.");
         return {};
     }
-    const auto& sc = doc_->project().scenarios;
+    const auto& sc = project.scenarios;
     for (int i = 0; i < int(sc.size()); ++i)
         if (i != except && tl::sameName(sc[std::size_t(i)].name, n.toStdString())) {
             if (why)
                 *why = qs(sc[std::size_t(i)].name) == n
-                           ? tr("A scenario called \"%1\" already exists.").arg(n)
-                           : tr("A scenario called \"%1\" already exists; names must differ by more than capitals "
+                           ? ScenarioShelf::tr("A scenario called \"%1\" already exists.").arg(n)
+                           : ScenarioShelf::tr("A scenario called \"%1\" already exists; names must differ by more than capitals "
                                 "and spaces.").arg(qs(sc[std::size_t(i)].name));
             return {};
         }

@@ -9,6 +9,7 @@ class QListWidget;
 class QToolButton;
 
 namespace tl {
+struct Project;
 struct Scenario;
 }
 
@@ -20,6 +21,10 @@ class ProjectDocument;
 // was not copied). A copy does not follow the scenario it came from: it is frozen at
 // the moment of copying, and the label says so rather than suggesting derivation.
 QString copyLabel(const tl::Scenario& s);
+
+// `name` trimmed when it can name a new scenario of `project` (scenario `except` left
+// out of the comparison: a rename), else empty with `why` saying what is wrong.
+QString checkScenarioName(const tl::Project& project, const QString& name, int except, QString* why);
 
 class ScenarioShelf : public QWidget {
     Q_OBJECT

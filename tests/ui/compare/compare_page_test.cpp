@@ -1,0 +1,240 @@
+// The Compare page and the Report dialog (issue 16), offscreen. The sample projects are
+// invented (sample_projects/README.md). Pictures of every tab at 1600 x 1000 and
+// 1024 x 700, and of the report preview, are kept in TL_SNAPSHOT_DIR when it is set.
+#include <QAbstractTextDocumentLayout>
+#include <QApplication>
+#include <QDir>
+#include <QFile>
+#include <QHeaderView>
+#include <QSignalSpy>
+#include <QTabWidget>
+#include <QTableView>
+#include <QTemporaryDir>
+#include <QTest>
+#include <QTextBrowser>
+
+#include "core/io/balance_report.h"
+#include "core/store/model_source.h"
+#include "tests/ui/workbench_test_support.h"
+#include "ui/compare/compare_page.h"
+#include "ui/compare/comparison_models.h"
+#include "ui/document/project_document.h"
+#include "ui/main_window.h"
+#include "ui/tables/compartment_table_model.h"
+#include "ui/tables/ledger_table_view.h"
+#include "ui/widgets/editing_pages.h"
+#include "ui/widgets/report_dialog.h"
+
+using namespace tl::ui;
+
+namespace {
+
+tl::Project sample(const char* file)
+{
+    tl::ModelSource source = tl::readModelSource(std::string(TL_SAMPLES_DIR) + "/" + file);
+    return source.project ? std::move(*source.project) : tl::Project{};
+}
+
+void settle()
+{
+    for (int k = 0; k < 6; ++k) QApplication::processEvents();
+}
+
+void keep(QWidget* w, const QString& name)
+{
+    const QString dir = qEnvironmentVariable("TL_SNAPSHOT_DIR");
+    if (dir.isEmpty()) return;
+    QDir().mkpath(dir);
+    w->grab().save(dir + QLatin1Char('/') + name + QStringLiteral(".png"));
+}
+
+// The row of `model` whose first two columns read `subject` and `label`.
+int rowOf(const QAbstractItemModel* model, const QString& subject, const QString& label)
+{
+    for (int r = 0; r < model->rowCount(); ++r)
+        if (model->index(r, 0).data().toString() == subject && model->index(r, 1).data().toString() == label) return r;
+    return -1;
+}
+
+}  // namespace
+
+class ComparePageTest : public QObject {
+    Q_OBJECT
+private slots:
+    void duplicateShowsNothingChanged();
+    void lagoonScenariosSideBySide();
+    void backgroundComparisonGivesTheSameAnswer();
+    void doubleClickOpensTheCellInItsScenario();
+    void reportDialogPreviewsAndSaves();
+};
+
+void ComparePageTest::duplicateShowsNothingChanged()
+{
+    tl::Project p = sample("lagoon.tledger");
+    QVERIFY(!p.scenarios.empty());
+    tl::Scenario copy = p.scenarios.front();
+    copy.name = "baseline copy";
+    p.scenarios.push_back(copy);
+    ComparePage page;
+    page.setProject(p);
+    page.pick({QStringLiteral("baseline"), QStringLiteral("baseline copy")});
+    QVERIFY(page.comparison());
+    QCOMPARE(page.inputsView()->model()->rowCount(), 0);
+    QCOMPARE(page.outputsView()->model()->rowCount(), 0);
+    QCOMPARE(page.tabs()->tabText(0), QStringLiteral("Changed inputs (0)"));
+    QCOMPARE(page.tabs()->tabText(1), QStringLiteral("Outputs (0 differ)"));
+    // A reference alone is no comparison: the page says what to do.
+    page.pick({QStringLiteral("baseline")});
+    QVERIFY(!page.comparison());
+    QCOMPARE(page.inputsView()->model()->rowCount(), 0);
+}
+
+void ComparePageTest::lagoonScenariosSideBySide()
+{
+    const tl::Project p = sample("lagoon.tledger");
+    ComparePage page;
+    page.resize(1300, 800);
+    page.setProject(p);
+    QCOMPARE(page.picked(), (QStringList{QStringLiteral("baseline"), QStringLiteral("clam raking closed")}));
+    const tl::ScenarioComparison* c = page.comparison();
+    QVERIFY(c);
+    auto* inputs = page.inputsView()->model();
+    auto* outputs = qobject_cast<ComparedOutputsModel*>(page.outputsView()->model());
+    QCOMPARE(inputs->rowCount(), int(c->inputs.size()));
+    QCOMPARE(outputs->rowCount(), int(c->differingOutputs()));
+    // eelgrass B 160 -> 200 (the scenario's description): +25 %, arrow up in text and icon.
+    const int b = rowOf(outputs, QStringLiteral("eelgrass"), QStringLiteral("B"));
+    QVERIFY(b >= 0);
+    const QModelIndex change = outputs->index(b, ComparedOutputsModel::kFirstValueColumn + 2);
+    QCOMPARE(change.data().toString(), QStringLiteral("▲ +40  (+25 %)"));
+    QVERIFY(!change.data(Qt::DecorationRole).value<QIcon>().isNull());
+    const int catchRow = rowOf(outputs, QStringLiteral("cockles"), QStringLiteral("Catch"));
+    QVERIFY(catchRow >= 0);
+    QVERIFY(outputs->index(catchRow, ComparedOutputsModel::kFirstValueColumn + 2).data().toString().startsWith(QStringLiteral("▼")));
+    outputs->setOnlyDiffering(false);
+    QCOMPARE(outputs->rowCount(), int(c->outputs.size()));
+    outputs->setOnlyDiffering(true);
+    QCOMPARE(page.tabs()->count(), 4);
+    page.show();
+    for (const QSize size : {QSize(1300, 800), QSize(800, 560)}) {
+        page.resize(size);
+        for (int t = 0; t < page.tabs()->count(); ++t) {
+            page.tabs()->setCurrentIndex(t);
+            settle();
+            keep(&page, QStringLiteral("compare-page-%1-tab%2").arg(size.width()).arg(t));
+        }
+    }
+}
+
+// Large comparisons run off the GUI thread: the same rows arrive, and a pick made while
+// one runs wins over the late result of the earlier pick.
+void ComparePageTest::backgroundComparisonGivesTheSameAnswer()
+{
+    const tl::Project p = sample("reservoir.tledger");
+    ComparePage inline_;
+    inline_.setProject(p);
+    QVERIFY(inline_.comparison());
+    ComparePage page;
+    page.setInlineLimit(0);
+    page.setProject(p);
+    QVERIFY(page.busy());
+    QVERIFY(!page.comparison());
+    page.pick({QStringLiteral("baseline"), QStringLiteral("invasive mussel")});  // supersedes the first pick
+    page.waitForIdle();
+    QVERIFY(page.comparison());
+    QCOMPARE(page.picked(), (QStringList{QStringLiteral("baseline"), QStringLiteral("invasive mussel")}));
+    QCOMPARE(page.comparison()->scenarios.size(), std::size_t(2));
+    inline_.pick({QStringLiteral("baseline"), QStringLiteral("invasive mussel")});
+    QCOMPARE(page.inputsView()->model()->rowCount(), inline_.inputsView()->model()->rowCount());
+    QCOMPARE(page.outputsView()->model()->rowCount(), inline_.outputsView()->model()->rowCount());
+    QCOMPARE(page.comparison()->differingOutputs(), inline_.comparison()->differingOutputs());
+}
+
+void ComparePageTest::doubleClickOpensTheCellInItsScenario()
+{
+    QTemporaryDir dir;
+    MainWindow w(tl::testing::workbenchTestOptions(dir));
+    w.resize(1600, 1000);
+    w.show();
+    QString error;
+    QVERIFY2(w.openPath(QStringLiteral(TL_SAMPLES_DIR "/lagoon.tledger"), true, &error), qPrintable(error));
+    w.runner()->waitForIdle();
+    auto* page = tl::testing::workbenchPage<ComparePage>(w, QStringLiteral("compare"));
+    QVERIFY(page);
+    w.showPage(QStringLiteral("compare"));
+    settle();
+    QVERIFY(page->comparison());
+    keep(&w, QStringLiteral("compare-window-1600"));
+    QTableView* view = page->inputsView();
+    const int row = rowOf(view->model(), QStringLiteral("eelgrass"), QStringLiteral("B"));
+    QVERIFY(row >= 0);
+    QSignalSpy spy(page, &ComparePage::openCell);
+    const QModelIndex cell = view->model()->index(row, InputDifferencesModel::kFirstScenarioColumn + 1);
+    view->scrollTo(cell);
+    const QPoint at = view->visualRect(cell).center();
+    QTest::mouseClick(view->viewport(), Qt::LeftButton, {}, at);
+    QTest::mouseDClick(view->viewport(), Qt::LeftButton, {}, at);
+    settle();
+    QCOMPARE(spy.count(), 1);
+    QCOMPARE(spy.front().at(0).toString(), QStringLiteral("clam raking closed"));
+    QCOMPARE(w.document()->scenario().name, std::string("clam raking closed"));
+    QCOMPARE(w.currentPage(), static_cast<QWidget*>(w.compartmentsPage()));
+    const QModelIndex current = w.compartmentsPage()->view()->currentIndex();
+    QCOMPARE(current.row(), int(*w.document()->model().indexOf("eelgrass")));
+    QCOMPARE(current.column(), CompartmentTableModel::columnOf(tl::Param::Biomass));
+    // A harvest row in the reference's column opens the harvest table of the reference.
+    w.showPage(QStringLiteral("compare"));
+    settle();
+    const int landings = rowOf(view->model(), QStringLiteral("cockles"), QStringLiteral("Landings by clam rakes"));
+    QVERIFY(landings >= 0);
+    const QModelIndex refCell = view->model()->index(landings, InputDifferencesModel::kFirstScenarioColumn);
+    view->scrollTo(refCell);
+    QTest::mouseClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
+    QTest::mouseDClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
+    settle();
+    QCOMPARE(spy.count(), 2);
+    QCOMPARE(w.document()->scenario().name, std::string("baseline"));
+    QCOMPARE(w.currentPage(), tl::testing::workbenchPage<QWidget>(w, QStringLiteral("harvest")));
+    // The page follows an edit of the project: back on it, the eelgrass row is still there.
+    w.resize(1024, 700);
+    w.showPage(QStringLiteral("compare"));
+    settle();
+    keep(&w, QStringLiteral("compare-window-1024"));
+    QVERIFY(page->comparison());
+}
+
+void ComparePageTest::reportDialogPreviewsAndSaves()
+{
+    tl::Project p = sample("lagoon.tledger");
+    ReportDialog dialog(p, QStringLiteral(TL_SAMPLES_DIR "/lagoon.tledger"), false, QStringLiteral("baseline"),
+                        {QStringLiteral("baseline"), QStringLiteral("clam raking closed")});
+    dialog.show();
+    settle();
+    const QString text = dialog.preview()->toPlainText();
+    QVERIFY(text.contains(QStringLiteral("Report: lagoon")));
+    QVERIFY(text.contains(QString::fromUtf8(tl::kDecisionSupportNotice)));
+    QVERIFY(!text.contains(QStringLiteral("@@tl-figure")));  // every marker became a chart
+    QCOMPARE(dialog.report().figures.size(), std::size_t(3));
+    keep(&dialog, QStringLiteral("report-preview-scenario"));
+    dialog.setScope(2);
+    settle();
+    QVERIFY(dialog.preview()->toPlainText().contains(QStringLiteral("Comparison report: lagoon")));
+    QVERIFY(dialog.preview()->toPlainText().contains(QStringLiteral("Inputs that differ (8)")));
+    keep(&dialog, QStringLiteral("report-preview-comparison"));
+    QTemporaryDir out;
+    const QString html = out.filePath(QStringLiteral("r.html")), pdf = out.filePath(QStringLiteral("r.pdf"));
+    QCOMPARE(dialog.saveHtml(html), QString());
+    QCOMPARE(dialog.savePdf(pdf), QString());
+    QFile h(html), f(pdf);
+    QVERIFY(h.open(QIODevice::ReadOnly) && f.open(QIODevice::ReadOnly));
+    const QByteArray htmlBytes = h.readAll();
+    QVERIFY(htmlBytes.contains("<svg ") && htmlBytes.contains("Comparison report: lagoon"));
+    QVERIFY(f.read(5) == "%PDF-");
+    QVERIFY(f.size() > 10000);
+    // A directory that does not exist: a sentence, not a crash.
+    QVERIFY(!dialog.savePdf(out.filePath(QStringLiteral("no/such/dir/r.pdf"))).isEmpty());
+    QVERIFY(!dialog.saveHtml(out.filePath(QStringLiteral("no/such/dir/r.html"))).isEmpty());
+}
+
+QTEST_MAIN(ComparePageTest)
+#include "compare_page_test.moc"
