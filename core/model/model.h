@@ -51,6 +51,10 @@ struct BalanceRules {
     bool operator==(const BalanceRules&) const = default;
 };
 
+// The CV a confidence stands for: its explicit CV when positive, else the project's CV
+// of its grade (DESIGN 3.7); empty when neither is given (the caller picks its default).
+std::optional<double> statedCv(const Confidence& confidence, const BalanceRules& rules);
+
 // A fleet takes landings and discards from compartments. Dead discards go to a detritus
 // pool (the first one unless discardPool is set); the surviving share is returned alive.
 struct Fleet {

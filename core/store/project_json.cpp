@@ -68,6 +68,13 @@ std::string modelInputsJson(const Model& m)
             w.field("source", conf.source);
             w.endObject();
         }
+        if (c.dietConfidence != Confidence{}) {  // the diet row as a whole
+            w.key("diet").beginObject();
+            w.field("grade", gradeKey(c.dietConfidence.grade));
+            optionalNumber(w, "cv", c.dietConfidence.cv);
+            w.field("source", c.dietConfidence.source);
+            w.endObject();
+        }
         w.endObject();
         w.endObject();
     }

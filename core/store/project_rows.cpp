@@ -57,6 +57,13 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
                 out.push_back(pr);
             }
         }
+        if (const auto& cv = c.dietConfidence.cv; cv && !(std::isfinite(*cv) && *cv >= 0.0)) {
+            Problem pr = fileProblem(file, code::kStoreInvalidValue,
+                                     "the CV of the diet of '" + c.name + "'" + in + " must be a number of at least 0");
+            pr.compartment = c.name;
+            pr.parameter = "diet";
+            out.push_back(pr);
+        }
         auto badFraction = [&](const std::string& what, const std::string& parameter, const std::string& other) {
             Problem pr = fileProblem(file, code::kStoreInvalidFraction, what + in + " must lie between 0 and 1");
             pr.compartment = c.name;
@@ -166,13 +173,18 @@ bool writeScenario(sqlite3* db, int version, const Scenario& s, std::optional<st
 
     const Model& m = s.model;
     std::vector<std::int64_t> ids(m.size());
-    Statement insC(db, "INSERT INTO compartment (scenario_id, position, name, kind, diet_import) VALUES (?1, ?2, ?3, ?4, ?5)");
+    Statement insC(db, version >= 3 ? "INSERT INTO compartment (scenario_id, position, name, kind, diet_import, diet_grade, "
+                                      "diet_cv, diet_source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8)"
+                                    : "INSERT INTO compartment (scenario_id, position, name, kind, diet_import) "
+                                      "VALUES (?1, ?2, ?3, ?4, ?5)");
     Statement insV(db, "INSERT INTO parameter_value (compartment_id, parameter, value, grade, cv, source) "
                        "VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
     for (std::size_t i = 0; i < m.size(); ++i) {
         const Compartment& c = m.compartment(i);
         insC.reset();
         insC.bind(1, id).bind(2, static_cast<std::int64_t>(i)).bind(3, c.name).bind(4, kindKey(c.kind)).bind(5, m.dietImport(i));
+        if (version >= 3)
+            insC.bind(6, gradeKey(c.dietConfidence.grade)).bind(7, c.dietConfidence.cv).bind(8, c.dietConfidence.source);
         if (!insC.run()) return false;
         ids[i] = sqlite3_last_insert_rowid(db);
         for (Param p : kAllParams) {
@@ -299,7 +311,10 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
                                        "The file was left unchanged; this version cannot open a scenario that large."));
     };
     std::unordered_map<std::int64_t, std::size_t> index;  // row id -> compartment index
-    Statement comps(db, "SELECT id, name, kind, diet_import FROM compartment WHERE scenario_id = ?1 ORDER BY position");
+    Statement comps(db, version >= 3 ? "SELECT id, name, kind, diet_import, diet_grade, diet_cv, diet_source FROM compartment "
+                                       "WHERE scenario_id = ?1 ORDER BY position"
+                                     : "SELECT id, name, kind, diet_import FROM compartment WHERE scenario_id = ?1 "
+                                       "ORDER BY position");
     comps.bind(1, id);
     std::vector<std::pair<std::int64_t, double>> imports;
     while (comps.step()) {
@@ -321,6 +336,14 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
             continue;
         }
         c.kind = *kind;
+        if (version >= 3) {
+            const auto dietGrade = parseGrade(comps.text(4));
+            if (!dietGrade) {
+                damaged("compartment '" + c.name + "' has an unknown diet grade '" + comps.text(4) + "'");
+                continue;
+            }
+            c.dietConfidence = Confidence{*dietGrade, comps.optionalReal(5), comps.text(6)};
+        }
         index[comps.integer(0)] = s.model.addCompartment(std::move(c));
         imports.emplace_back(comps.integer(0), comps.real(3));
     }

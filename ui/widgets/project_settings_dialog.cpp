@@ -1,11 +1,14 @@
 #include "ui/widgets/project_settings_dialog.h"
 
+#include <algorithm>
+
 #include <QComboBox>
 #include <QDialogButtonBox>
 #include <QFormLayout>
 #include <QGroupBox>
 #include <QLabel>
 #include <QLineEdit>
+#include <QScreen>
 #include <QScrollArea>
 #include <QVBoxLayout>
 
@@ -186,7 +189,12 @@ ProjectSettingsDialog::ProjectSettingsDialog(ProjectDocument* doc, QWidget* pare
     layout->addWidget(scroll, 1);
     layout->addWidget(error_);
     layout->addWidget(buttons);
-    resize(520, 560);
+    // Tall enough for everything when the screen has room (no needless scroll bar);
+    // many fleets on a small screen scroll instead of pushing the buttons off it.
+    const int available = screen() ? screen()->availableGeometry().height() * 9 / 10 : 700;
+    const int margins = layout->contentsMargins().top() + layout->contentsMargins().bottom();
+    const int wanted = content->sizeHint().height() + buttons->sizeHint().height() + 2 * layout->spacing() + margins;
+    resize(std::max(520, content->sizeHint().width() + margins), std::min(wanted, available));
 }
 
 std::optional<ProjectSettings> ProjectSettingsDialog::settings(QString* why) const

@@ -56,6 +56,8 @@ public:
     QLineEdit* pqMaxEdit() const { return pqMax_; }
     QLineEdit* dietToleranceEdit() const { return dietTolerance_; }
     QLineEdit* biomassMaxEdit() const { return biomassMax_; }
+    QLineEdit* rateMaxEdit() const { return rateMax_; }
+    QLineEdit* flowMaxEdit() const { return flowMax_; }
     const std::vector<QComboBox*>& poolCombos() const { return poolCombos_; }
     QLabel* errorLabel() const { return error_; }
 
