@@ -27,6 +27,10 @@
 #include "ui/main_window.h"
 #include "tests/ui/workbench_test_support.h"
 #include "ui/results/flow_map_page.h"
+#include "ui/tables/diet_table_model.h"
+#include "ui/tables/ledger_table_view.h"
+#include "ui/widgets/confidence_panel.h"
+#include "ui/widgets/editing_pages.h"
 #include "ui/widgets/help_window.h"
 #include "ui/widgets/project_settings_dialog.h"
 #include "ui/widgets/scenario_shelf.h"
@@ -79,6 +83,7 @@ private slots:
     void projectSettingsAreUndoableAndSaved();
     void projectSettingsRefuseBadValuesNamingTheField();
     void duplicatesAreLabelledAsCopies();
+    void dietRowConfidenceIsEditedFromTheDietPage();
     void flowMapDragsAreUndoableAndSaved();
 };
 
@@ -284,6 +289,48 @@ void WorkbenchMenusTest::projectSettingsRefuseBadValuesNamingTheField()
         QVERIFY(doc->project() == before);  // nothing applied, nothing lost
         QCOMPARE(doc->undoStack()->count(), 0);
     }
+}
+
+// Issues 14, 15, 17: a diet row's data confidence is edited in the Data confidence
+// panel when a row of the Diet page is current; one undoable edit; saved with the project.
+void WorkbenchMenusTest::dietRowConfidenceIsEditedFromTheDietPage()
+{
+    QTemporaryDir dir;
+    MainWindow w(testOptions(dir));
+    QString error;
+    QVERIFY2(w.openPath(kReservoir, true, &error), qPrintable(error));
+    w.resize(1400, 900);
+    w.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&w));
+    ProjectDocument* doc = w.document();
+    w.showPage(QStringLiteral("diet"));
+    auto* diet = w.dietPage()->diet();
+    const int row = 1;
+    const std::size_t predator = diet->predatorOf(row);
+    const QString name = QString::fromStdString(doc->model().compartment(predator).name);
+    w.dietPage()->view()->goToCell(row, 0);
+    QApplication::processEvents();
+    auto* panel = w.confidencePanel();
+    auto* title = panel->findChild<QLabel*>(QStringLiteral("panelTitle"));
+    QVERIFY(title);
+    QVERIFY2(title->text().contains(QStringLiteral("the diet of %1").arg(name)), qPrintable(title->text()));
+    auto* grade = panel->findChild<QComboBox*>();
+    QVERIFY(grade);
+    const int undoBefore = doc->undoStack()->count();
+    const auto parameterConfidence = doc->model().compartment(predator).confidence;
+    grade->setCurrentIndex(grade->findData(QStringLiteral("B")));
+    QCOMPARE(doc->model().compartment(predator).dietConfidence.grade, tl::Confidence::Grade::B);
+    QCOMPARE(doc->undoStack()->count(), undoBefore + 1);
+    // The parameters' confidence of the same compartment is untouched.
+    QVERIFY(doc->model().compartment(predator).confidence == parameterConfidence);
+    doc->undoStack()->undo();
+    QCOMPARE(doc->model().compartment(predator).dietConfidence, tl::Confidence{});
+    doc->undoStack()->redo();
+    const QString path = dir.filePath("diet-confidence.tledger");
+    QVERIFY2(w.saveTo(path, &error), qPrintable(error));
+    ProjectDocument reread;
+    QVERIFY2(reread.open(path, &error), qPrintable(error));
+    QCOMPARE(reread.model().compartment(predator).dietConfidence.grade, tl::Confidence::Grade::B);
 }
 
 void WorkbenchMenusTest::duplicatesAreLabelledAsCopies()
