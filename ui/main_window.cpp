@@ -259,6 +259,9 @@ void MainWindow::buildPages()
     }
     connect(compartments_->view()->selectionModel(), &QItemSelectionModel::currentChanged, this,
             &MainWindow::updateCurrentCell);
+    connect(diet_->view()->selectionModel(), &QItemSelectionModel::currentChanged, this, [this](const QModelIndex& cur) {
+        if (cur.isValid() && cur.row() < diet_->diet()->rowCount()) confidence_->setDietTarget(diet_->diet()->predatorOf(cur.row()));
+    });
     connect(compartments_->tableModel(), &QAbstractItemModel::modelReset, this, [this] {
         // The view's selection model survives a reset; re-read the cell it points at.
         updateCurrentCell();

@@ -53,6 +53,7 @@ public:
     BalanceRunner* runner() const { return runner_; }
     RecoveryKeeper* recovery() const { return recovery_.get(); }
     ChecksPanel* checks() const { return checks_; }
+    ConfidencePanel* confidencePanel() const { return confidence_; }
     ScenarioShelf* shelf() const { return shelf_; }
     CompartmentsPage* compartmentsPage() const { return compartments_; }
     DietPage* dietPage() const { return diet_; }

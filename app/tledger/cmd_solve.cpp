@@ -4,6 +4,7 @@
 #include "app/tledger/commands.h"
 #include "app/tledger/load_model.h"
 #include "app/tledger/options.h"
+#include "core/balance/scenario_checks.h"
 #include "core/balance/solver.h"
 #include "core/io/balance_report.h"
 
@@ -20,7 +21,8 @@ int cmdSolve(const Args& args)
     const auto model = loadModelForCli(opts->positional[0], opts->value("--scenario"), std::cerr);
     if (!model) return 2;
 
-    const BalanceSheet sheet = solveBalance(*model);
+    // Reported as the workbench's status bar judges it: balanced only when valid too.
+    const BalanceSheet sheet = reportedSheet(*model, solveBalance(*model));
     std::cout << (opts->has("--json") ? balanceSheetJson(sheet) : balanceSheetTable(sheet, model->units));
     return sheet.status == BalanceStatus::Balanced ? 0 : 1;
 }

@@ -28,4 +28,17 @@ ScenarioState scenarioState(const Model& model, const BalanceSheet& sheet, const
     return ScenarioState::Balanced;
 }
 
+BalanceSheet reportedSheet(const Model& model, BalanceSheet sheet)
+{
+    Problems checks = scenarioChecks(model, sheet);
+    switch (scenarioState(model, sheet, checks)) {
+    case ScenarioState::Balanced: sheet.status = BalanceStatus::Balanced; break;
+    case ScenarioState::NotBalanced: sheet.status = BalanceStatus::Unbalanced; break;
+    case ScenarioState::NoCompartments:
+    case ScenarioState::Incomplete: sheet.status = BalanceStatus::Invalid; break;
+    }
+    sheet.problems = std::move(checks);
+    return sheet;
+}
+
 }  // namespace tl

@@ -27,4 +27,10 @@ enum class ScenarioState {
 // `checks` is scenarioChecks(model, sheet).
 ScenarioState scenarioState(const Model& model, const BalanceSheet& sheet, const Problems& checks);
 
+// The sheet as `tledger solve` reports a scenario (DESIGN 5.3 keys unchanged): its
+// problems are the whole Checks list, and its status is "balanced" only in the
+// Balanced state; "invalid" when the inputs are incomplete or wrong (an empty diet, a
+// diet summing to 0.3), "unbalanced" when solved but a balance condition fails.
+BalanceSheet reportedSheet(const Model& model, BalanceSheet sheet);
+
 }  // namespace tl

@@ -130,8 +130,12 @@ EnsembleInputs EnsembleInputs::build(const Model& model, const BalancePlan& plan
         }
         row.rowSum = 0.0;
         for (double v : shares) row.rowSum += v;
+        // A per-run CV for this row wins; then the row's own data confidence; then the default.
         const auto own = settings.dietCvOf.find(j);
-        row.distribution = DirichletRow(shares, own != settings.dietCvOf.end() ? own->second : defaultDietCv);
+        const double rowCv = own != settings.dietCvOf.end()
+                                 ? own->second
+                                 : statedCv(model.compartment(j).dietConfidence, model.rules).value_or(defaultDietCv);
+        row.distribution = DirichletRow(shares, rowCv);
         if (row.distribution.constant()) continue;
         // The Dirichlet draws shares summing to 1; a row entered with another sum keeps it.
         const std::string& pred = model.compartment(j).name;

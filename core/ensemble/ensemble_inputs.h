@@ -6,9 +6,9 @@
 // for P/B or Q/B; each with its CV (explicit CV, else the project's CV of its grade,
 // else grade C, as reconcile assumes) and the settings' shape (or a per-parameter one).
 // Diet: each consumer row with two or more non-zero shares (import counted as a share)
-// from a Dirichlet (input_distribution.h) with the row's CV (the model keeps no
-// confidence per diet row yet: EnsembleSettings::dietCvOf, else dietCv, else the
-// project's grade-C CV).
+// from a Dirichlet (input_distribution.h) with the row's CV: EnsembleSettings::dietCvOf,
+// else the row's data confidence (Compartment::dietConfidence), else dietCv, else the
+// project's grade-C CV.
 // Flow terms (issue 15: every input drawn), unless EnsembleSettings::holdFlowTerms:
 // U of a consumer whose U is given (the 0.2 default is a convention, not data, and is
 // held), BA and E where given and non-zero, a pool's detritus import where positive,
@@ -69,7 +69,7 @@ struct EnsembleSettings {
     Analyses analyses;
     Shape shape = Shape::Lognormal;
     std::map<std::pair<std::size_t, Param>, Shape> shapeOf;  // per parameter, overrides `shape`
-    std::optional<double> dietCv;                            // default: the project's grade-C CV
+    std::optional<double> dietCv;                            // rows without a confidence; default grade C
     std::map<std::size_t, double> dietCvOf;                  // per predator
     bool keepBalancedDraws = false;
     bool holdFlowTerms = false;    // hold catch, U, BA, E and detritus import at their point values

@@ -92,6 +92,15 @@ Problems applyDiet(Model& model, std::string& description, std::size_t predator,
         if (s.prey == "import") model.setDietImport(predator, s.share);
         else model.setDiet(predator, *model.indexOf(s.prey), s.share);
     }
+    // The row's data confidence: the grade from the number of stomachs, and the bootstrap
+    // CV of the largest share, the share the ensemble's Dirichlet concentration is set by
+    // (core/ensemble/input_distribution.h, DirichletRow::concentrationFor).
+    Confidence rowConfidence;
+    rowConfidence.grade = diet.grade;
+    if (!diet.shares.empty() && diet.shares.front().cv > 0.0) rowConfidence.cv = diet.shares.front().cv;
+    rowConfidence.source = "fieldwork " + date + ": " + std::to_string(diet.stomachs - diet.emptyStomachs) +
+                           " stomachs with food, " + diet.method;
+    model.compartment(predator).dietConfidence = rowConfidence;
     description += (description.empty() ? "" : "; ") + dietNote(diet, date);
     return problems;
 }

@@ -192,7 +192,10 @@ double* numberSetting(Model& m, std::string_view key)
            : key == "cv_grade_b"         ? &r.cvByGrade[1]
            : key == "cv_grade_c"         ? &r.cvByGrade[2]
            : key == "cv_grade_d"         ? &r.cvByGrade[3]
-                                         : nullptr;
+           : key == "plausible_biomass_max" ? &r.plausible.biomassMax
+           : key == "plausible_rate_max"    ? &r.plausible.rateMax
+           : key == "plausible_flow_max"    ? &r.plausible.flowMax
+                                            : nullptr;
 }
 
 void readSettings(const CsvTable& table, Model& model, Problems& problems)
@@ -223,7 +226,8 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         if (!number) {
             problems.push_back(errorAt(code::kCsvUnknownSetting, table.file, keyField, "unknown setting " + shown(key),
                                        "Known settings: currency, area, time, ee_max, pq_min, pq_max, "
-                                       "diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d."));
+                                       "diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d, "
+                                       "plausible_biomass_max, plausible_rate_max, plausible_flow_max."));
             continue;
         }
         const NumberCell v = numberCell(valueField, table.file, "setting " + shown(key), problems, true);
@@ -231,6 +235,11 @@ void readSettings(const CsvTable& table, Model& model, Problems& problems)
         if (!v.value) {
             problems.push_back(errorAt(code::kCsvMissingValue, table.file, valueField,
                                        "setting " + shown(key) + " needs a number"));
+            continue;
+        }
+        if (key.starts_with("plausible_") && !(*v.value > 0)) {
+            problems.push_back(errorAt(code::kCsvNumber, table.file, valueField,
+                                       "setting " + shown(key) + " must be above 0 (a value beyond it is warned about)"));
             continue;
         }
         *number = *v.value;
@@ -706,6 +715,7 @@ void readRouting(const CsvTable& table, Model& model, const NameIndex& names, Lo
 // confidence.csv ---------------------------------------------------------------------
 constexpr std::array<std::string_view, 5> kConfidenceKeys = {"compartment", "parameter", "grade", "cv", "source"};
 constexpr std::array<std::string_view, 2> kConfidenceRequired = {"compartment", "parameter"};
+constexpr std::string_view kDietConfidenceKey = "diet";
 
 void readConfidence(const CsvTable& table, Model& model, const NameIndex& names, Problems& problems)
 {
@@ -717,15 +727,18 @@ void readConfidence(const CsvTable& table, Model& model, const NameIndex& names,
     for (const CsvRecord* r : sheet->rows) {
         const auto i = knownCompartment(names, *sheet->field(*r, 0), table.file, "compartment", problems);
         const CsvField& paramField = *sheet->field(*r, 1);
+        // "diet": the confidence of the compartment's diet row as a whole (every share).
+        const bool isDiet = trim(paramField.text) == kDietConfidenceKey;
         const auto param = parseParamKey(trim(paramField.text));
-        if (!param)
+        if (!param && !isDiet)
             problems.push_back(errorAt(code::kCsvParameter, table.file, paramField,
                                        "unknown parameter " + shown(paramField.text),
-                                       "Expected a parameter column of compartments.csv: " + paramList + "."));
-        if (!i || !param) continue;
+                                       "Expected a parameter column of compartments.csv (" + paramList +
+                                           ") or diet."));
+        if (!i || (!param && !isDiet)) continue;
         const std::string& name = model.compartment(*i).name;
-        const std::string what = std::string(paramKey(*param)) + " of " + shown(name);
-        const std::size_t p = static_cast<std::size_t>(*param);
+        const std::string what = std::string(isDiet ? kDietConfidenceKey : paramKey(*param)) + " of " + shown(name);
+        const std::size_t p = isDiet ? kParamCount : static_cast<std::size_t>(*param);
         if (const auto it = seen.find({*i, p}); it != seen.end()) {
             problems.push_back(errorAt(code::kCsvDuplicateRow, table.file, paramField,
                                        "the confidence of " + what + " is already given on line " +
@@ -734,7 +747,8 @@ void readConfidence(const CsvTable& table, Model& model, const NameIndex& names,
         }
         seen.emplace(std::make_pair(*i, p), paramField.line);
 
-        Confidence& conf = model.compartment(*i).confidenceOf(*param);
+        Compartment& c = model.compartment(*i);
+        Confidence& conf = isDiet ? c.dietConfidence : c.confidenceOf(*param);
         if (const CsvField* g = sheet->field(*r, 2)) {
             if (const auto grade = parseGrade(g->text)) conf.grade = *grade;
             else
@@ -992,6 +1006,12 @@ std::string confidenceText(const Model& model)
             rows += csvRecord({c.name, std::string(paramKey(p)), std::string(gradeKey(conf.grade)),
                                optionalNumber(conf.cv), conf.source});
         }
+    for (const Compartment& c : model.compartments()) {
+        const Confidence& conf = c.dietConfidence;
+        if (conf == Confidence{}) continue;
+        rows += csvRecord({c.name, std::string(kDietConfidenceKey), std::string(gradeKey(conf.grade)),
+                           optionalNumber(conf.cv), conf.source});
+    }
     return rows.empty() ? rows
                         : csvRecord(std::vector<std::string>(kConfidenceKeys.begin(), kConfidenceKeys.end())) + rows;
 }
@@ -1005,7 +1025,8 @@ std::string settingsText(const Model& model)
         if (*textSetting(const_cast<Model&>(model), key) != *textSetting(defaults, key))
             rows += csvRecord({key, *textSetting(const_cast<Model&>(model), key)});
     for (const char* key : {"ee_max", "pq_min", "pq_max", "diet_sum_tolerance", "cv_grade_a", "cv_grade_b",
-                            "cv_grade_c", "cv_grade_d"})
+                            "cv_grade_c", "cv_grade_d", "plausible_biomass_max", "plausible_rate_max",
+                            "plausible_flow_max"})
         if (*numberSetting(const_cast<Model&>(model), key) != *numberSetting(defaults, key))
             rows += csvRecord({key, formatNumber(*numberSetting(const_cast<Model&>(model), key))});
     return rows.empty() ? rows : csvRecord({"key", "value"}) + rows;

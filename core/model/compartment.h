@@ -57,6 +57,11 @@ struct Compartment {
     CompartmentKind kind = CompartmentKind::Consumer;
     std::array<std::optional<double>, kParamCount> values{};
     std::array<Confidence, kParamCount> confidence{};
+    // Confidence of this predator's diet row as a whole: every share of the row carries
+    // it (a stomach-content sample gives one sample size per predator, issue 17). Used by
+    // reconcile (1/CV^2 weight of each share, issue 14) and by the ensemble (the row's
+    // Dirichlet concentration, issue 15). Stored from schema 3 on.
+    Confidence dietConfidence{};
 
     std::optional<double>& value(Param p) { return values[static_cast<std::size_t>(p)]; }
     const std::optional<double>& value(Param p) const { return values[static_cast<std::size_t>(p)]; }

@@ -150,4 +150,11 @@ double Model::deadDiscards(std::size_t i) const
     return y;
 }
 
+std::optional<double> statedCv(const Confidence& confidence, const BalanceRules& rules)
+{
+    if (confidence.cv && *confidence.cv > 0.0) return *confidence.cv;
+    if (confidence.grade == Confidence::Grade::None) return std::nullopt;
+    return rules.cvByGrade[static_cast<std::size_t>(confidence.grade) - 1];
+}
+
 }  // namespace tl

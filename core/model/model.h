@@ -27,6 +27,18 @@ struct Units {
     bool operator==(const Units&) const = default;
 };
 
+// Plausible ranges of entered values (issue 13): a value far above them, in the
+// project's units, is most likely a slip of the keyboard or of the units (B = 1e300),
+// so it is warned about (core/model/plausible_ranges.h), never refused. The defaults
+// are wide enough for any lake, reservoir or coastal water (common practice, no source):
+//   B 1e6 currency/area; P/B, Q/B 1e4 per time unit; BA, E, detritus import 1e7 flow.
+struct PlausibleRanges {
+    double biomassMax = 1e6;
+    double rateMax = 1e4;
+    double flowMax = 1e7;
+    bool operator==(const PlausibleRanges&) const = default;
+};
+
 // Rule-of-thumb bounds used by the checks; editable per project.
 struct BalanceRules {
     double eeMax = 1.0;
@@ -35,8 +47,13 @@ struct BalanceRules {
     double dietSumTolerance = 1e-3;
     // Default CV by confidence grade A..D (this project's own convention, DESIGN 3.7).
     std::array<double, 4> cvByGrade = {0.10, 0.25, 0.50, 0.80};
+    PlausibleRanges plausible;  // stored from schema 3 on
     bool operator==(const BalanceRules&) const = default;
 };
+
+// The CV a confidence stands for: its explicit CV when positive, else the project's CV
+// of its grade (DESIGN 3.7); empty when neither is given (the caller picks its default).
+std::optional<double> statedCv(const Confidence& confidence, const BalanceRules& rules);
 
 // A fleet takes landings and discards from compartments. Dead discards go to a detritus
 // pool (the first one unless discardPool is set); the surviving share is returned alive.

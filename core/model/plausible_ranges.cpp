@@ -13,6 +13,8 @@ std::string limitText(double v) { return formatNumber(v); }
 
 }  // namespace
 
+Problems implausibleValues(const Model& model) { return implausibleValues(model, model.rules.plausible); }
+
 Problems implausibleValues(const Model& model, const PlausibleRanges& ranges)
 {
     Problems out;

@@ -13,13 +13,10 @@
 
 namespace tl {
 
-struct PlausibleRanges {
-    double biomassMax = 1e6;
-    double rateMax = 1e4;
-    double flowMax = 1e7;
-};
 
-// One warning (code implausible-value) per entered value whose magnitude exceeds its limit.
-Problems implausibleValues(const Model& model, const PlausibleRanges& ranges = {});
+// One warning (code implausible-value) per entered value whose magnitude exceeds its
+// limit: the model's own rules (model.rules.plausible, editable per project), or `ranges`.
+Problems implausibleValues(const Model& model);
+Problems implausibleValues(const Model& model, const PlausibleRanges& ranges);
 
 }  // namespace tl

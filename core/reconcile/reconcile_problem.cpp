@@ -259,6 +259,15 @@ ReconcileProblem ReconcileProblem::build(const Model& model, const ReconcileOpti
         const bool moves = options.moveDiet && !pinned.count({j, AdjustParam::Diet}) &&
                            std::count_if(row.begin(), row.end(), [](const GridEntry& e) { return e.value > 0.0; }) >= 2;
         double sum = 0.0;
+        // Each share weighs by its row's data confidence (Compartment::dietConfidence),
+        // else by the options' diet CV.
+        const Confidence& rowConfidence = model.compartment(j).dietConfidence;
+        const auto statedRowCv = statedCv(rowConfidence, model.rules);
+        const double rowCv = statedRowCv.value_or(options.dietCv);
+        const std::string rowLabel =
+            !statedRowCv ? "diet CV " + displayNumber(options.dietCv) + " (no confidence given)"
+            : rowConfidence.cv && *rowConfidence.cv > 0.0 ? "diet CV " + displayNumber(rowCv)
+                                                          : "diet grade " + std::string(gradeKey(rowConfidence.grade));
         for (const auto& [prey, dc] : row) {
             DietEntry entry{prey, dc, -1};
             if (moves && dc > 0.0) {
@@ -269,11 +278,11 @@ ReconcileProblem ReconcileProblem::build(const Model& model, const ReconcileOpti
                 var.start = dc;
                 var.scale = dc;
                 var.value0 = dc;
-                var.cv = options.dietCv;
-                var.weight = 1.0 / (options.dietCv * options.dietCv);
+                var.cv = rowCv;
+                var.weight = 1.0 / (rowCv * rowCv);
                 var.lower = 0.0;
                 var.upper = 1.0;
-                var.confidence = "diet CV " + displayNumber(options.dietCv);
+                var.confidence = rowLabel;
                 pr.vars_.push_back(std::move(var));
                 entry.var = static_cast<int>(pr.vars_.size() - 1);
                 sum += dc;

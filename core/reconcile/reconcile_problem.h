@@ -78,8 +78,8 @@ struct ReconcileOptions {
     std::map<std::size_t, double> eeMax, eeMin;
     std::map<std::size_t, std::pair<double, double>> pqRange;
     // CVs where the model has no confidence: a parameter without grade or CV counts as
-    // grade C; diet fractions (the model keeps no confidence per diet entry yet) and
-    // catch use these (this project's convention, editable).
+    // grade C; diet shares of a row without a diet confidence, and catch, use these
+    // (this project's convention, editable).
     double dietCv = 0.5;
     double catchCv = 0.25;
     // No input moves by more than this factor either way (keeps logs finite; our choice).

@@ -21,7 +21,7 @@ StoreResult<Project> ProjectFile::load()
         result.problems.push_back(readFailure(path_, store::SqliteError::of(db_), "cannot be read"));
         return result;
     }
-    const auto info = readInfo(db_);
+    const auto info = readInfo(db_, schemaVersion_);
     if (!info) {
         result.problems.push_back(fileProblem(path_, code::kStoreDamaged, "the project information is missing"));
         execute(db_, "ROLLBACK");
@@ -71,7 +71,7 @@ StoreResult<Scenario> ProjectFile::loadScenario(const std::string& name)
         result.problems.push_back(readFailure(path_, store::SqliteError::of(db_), "cannot be read"));
         return result;
     }
-    const auto info = readInfo(db_);
+    const auto info = readInfo(db_, schemaVersion_);
     const auto id = scenarioId(db_, trimmed(name));
     if (!info) result.problems.push_back(fileProblem(path_, code::kStoreDamaged, "the project information is missing"));
     else if (!id)

@@ -63,7 +63,7 @@ bool writeInfo(sqlite3* db, const ProjectInfo& info);
 std::optional<std::int64_t> scenarioId(sqlite3* db, const std::string& name);
 bool writeScenario(sqlite3* db, int version, const Scenario& s, std::optional<std::int64_t> position);
 bool insertRuns(sqlite3* db, int version, const std::vector<StoredRun>& runs, bool keepIds);
-std::optional<ProjectInfo> readInfo(sqlite3* db);
+std::optional<ProjectInfo> readInfo(sqlite3* db, int version);  // version: of the file as opened
 std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int version, std::int64_t id,
                                      const ProjectInfo& info, Problems& problems);
 

@@ -68,6 +68,13 @@ std::string modelInputsJson(const Model& m)
             w.field("source", conf.source);
             w.endObject();
         }
+        if (c.dietConfidence != Confidence{}) {  // the diet row as a whole
+            w.key("diet").beginObject();
+            w.field("grade", gradeKey(c.dietConfidence.grade));
+            optionalNumber(w, "cv", c.dietConfidence.cv);
+            w.field("source", c.dietConfidence.source);
+            w.endObject();
+        }
         w.endObject();
         w.endObject();
     }
@@ -155,7 +162,13 @@ std::string projectJson(const Project& project, const ProjectJsonOptions& option
         w.key("cv_by_grade").beginObject();
         const char* grades[] = {"A", "B", "C", "D"};
         for (std::size_t g = 0; g < 4; ++g) w.field(grades[g], info.rules.cvByGrade[g]);
-        w.endObject().endObject();
+        w.endObject();
+        w.key("plausible_max").beginObject()
+            .field("biomass", info.rules.plausible.biomassMax)
+            .field("rate", info.rules.plausible.rateMax)
+            .field("flow", info.rules.plausible.flowMax)
+            .endObject();
+        w.endObject();
         top.emplace_back("rules", w.str());
     }
     std::vector<std::string> scenarios;

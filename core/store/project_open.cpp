@@ -159,8 +159,10 @@ ProjectOpenResult openChecked(const fs::path& path, OpenMode mode, int busyTimeo
         Problem note = fileProblem(path, code::kStoreNewerVersion, reason, "Open it with a newer Trophic Ledger to edit it.");
         note.severity = Severity::Warning;
         result.problems.push_back(note);
-    } else if (readOnly && reason.empty()) {
-        reason = "opened read-only on request";
+    } else if (readOnly) {
+        // Never migrated: an older file opened read-only (on request, or because it may
+        // not be written) is read at its own schema version and left as it is.
+        if (reason.empty()) reason = "opened read-only on request";
     } else if (schema < store::kSchemaVersion) {
         // All steps in one transaction: the file ends at the current version or stays
         // at its own, never in between.

@@ -57,6 +57,13 @@ void checkScenarioWritable(const fs::path& file, const Scenario& s, Problems& ou
                 out.push_back(pr);
             }
         }
+        if (const auto& cv = c.dietConfidence.cv; cv && !(std::isfinite(*cv) && *cv >= 0.0)) {
+            Problem pr = fileProblem(file, code::kStoreInvalidValue,
+                                     "the CV of the diet of '" + c.name + "'" + in + " must be a number of at least 0");
+            pr.compartment = c.name;
+            pr.parameter = "diet";
+            out.push_back(pr);
+        }
         auto badFraction = [&](const std::string& what, const std::string& parameter, const std::string& other) {
             Problem pr = fileProblem(file, code::kStoreInvalidFraction, what + in + " must lie between 0 and 1");
             pr.compartment = c.name;
@@ -106,11 +113,13 @@ bool writeInfo(sqlite3* db, const ProjectInfo& info)
 {
     Statement st(db, R"sql(
 INSERT INTO project_info (id, title, notes, created, modified, program_version, currency, area, time_unit,
-                          ee_max, pq_min, pq_max, diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d)
-VALUES (1, ?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)
+                          ee_max, pq_min, pq_max, diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d,
+                          plausible_biomass_max, plausible_rate_max, plausible_flow_max)
+VALUES (1, ?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)
 ON CONFLICT (id) DO UPDATE SET title = ?1, notes = ?2, created = ?3, modified = ?4, program_version = ?5,
   currency = ?6, area = ?7, time_unit = ?8, ee_max = ?9, pq_min = ?10, pq_max = ?11, diet_sum_tolerance = ?12,
-  cv_grade_a = ?13, cv_grade_b = ?14, cv_grade_c = ?15, cv_grade_d = ?16)sql");
+  cv_grade_a = ?13, cv_grade_b = ?14, cv_grade_c = ?15, cv_grade_d = ?16,
+  plausible_biomass_max = ?17, plausible_rate_max = ?18, plausible_flow_max = ?19)sql");
     const std::string now = utcNowIso8601();
     st.bind(1, info.title).bind(2, info.notes).bind(3, info.created.empty() ? now : info.created).bind(4, now);
     st.bind(5, std::string_view(TL_PROGRAM_VERSION));
@@ -118,6 +127,7 @@ ON CONFLICT (id) DO UPDATE SET title = ?1, notes = ?2, created = ?3, modified = 
     st.bind(9, info.rules.eeMax).bind(10, info.rules.pqMin).bind(11, info.rules.pqMax);
     st.bind(12, info.rules.dietSumTolerance);
     for (int g = 0; g < 4; ++g) st.bind(13 + g, info.rules.cvByGrade[static_cast<std::size_t>(g)]);
+    st.bind(17, info.rules.plausible.biomassMax).bind(18, info.rules.plausible.rateMax).bind(19, info.rules.plausible.flowMax);
     return st.run();
 }
 
@@ -163,13 +173,18 @@ bool writeScenario(sqlite3* db, int version, const Scenario& s, std::optional<st
 
     const Model& m = s.model;
     std::vector<std::int64_t> ids(m.size());
-    Statement insC(db, "INSERT INTO compartment (scenario_id, position, name, kind, diet_import) VALUES (?1, ?2, ?3, ?4, ?5)");
+    Statement insC(db, version >= 3 ? "INSERT INTO compartment (scenario_id, position, name, kind, diet_import, diet_grade, "
+                                      "diet_cv, diet_source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8)"
+                                    : "INSERT INTO compartment (scenario_id, position, name, kind, diet_import) "
+                                      "VALUES (?1, ?2, ?3, ?4, ?5)");
     Statement insV(db, "INSERT INTO parameter_value (compartment_id, parameter, value, grade, cv, source) "
                        "VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
     for (std::size_t i = 0; i < m.size(); ++i) {
         const Compartment& c = m.compartment(i);
         insC.reset();
         insC.bind(1, id).bind(2, static_cast<std::int64_t>(i)).bind(3, c.name).bind(4, kindKey(c.kind)).bind(5, m.dietImport(i));
+        if (version >= 3)
+            insC.bind(6, gradeKey(c.dietConfidence.grade)).bind(7, c.dietConfidence.cv).bind(8, c.dietConfidence.source);
         if (!insC.run()) return false;
         ids[i] = sqlite3_last_insert_rowid(db);
         for (Param p : kAllParams) {
@@ -243,7 +258,7 @@ bool insertRuns(sqlite3* db, int version, const std::vector<StoredRun>& runs, bo
     return true;
 }
 
-std::optional<ProjectInfo> readInfo(sqlite3* db)
+std::optional<ProjectInfo> readInfo(sqlite3* db, int version)
 {
     Statement st(db, "SELECT title, notes, created, modified, program_version, currency, area, time_unit, ee_max, pq_min,"
                      " pq_max, diet_sum_tolerance, cv_grade_a, cv_grade_b, cv_grade_c, cv_grade_d FROM project_info WHERE id = 1");
@@ -262,6 +277,11 @@ std::optional<ProjectInfo> readInfo(sqlite3* db)
     info.rules.pqMax = st.real(10);
     info.rules.dietSumTolerance = st.real(11);
     for (int g = 0; g < 4; ++g) info.rules.cvByGrade[static_cast<std::size_t>(g)] = st.real(12 + g);
+    if (version >= 3) {  // before schema 3 the plausible ranges were not stored: defaults
+        Statement ranges(db, "SELECT plausible_biomass_max, plausible_rate_max, plausible_flow_max FROM project_info WHERE id = 1");
+        if (!ranges.step()) return std::nullopt;
+        info.rules.plausible = {ranges.real(0), ranges.real(1), ranges.real(2)};
+    }
     return info;
 }
 
@@ -291,7 +311,10 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
                                        "The file was left unchanged; this version cannot open a scenario that large."));
     };
     std::unordered_map<std::int64_t, std::size_t> index;  // row id -> compartment index
-    Statement comps(db, "SELECT id, name, kind, diet_import FROM compartment WHERE scenario_id = ?1 ORDER BY position");
+    Statement comps(db, version >= 3 ? "SELECT id, name, kind, diet_import, diet_grade, diet_cv, diet_source FROM compartment "
+                                       "WHERE scenario_id = ?1 ORDER BY position"
+                                     : "SELECT id, name, kind, diet_import FROM compartment WHERE scenario_id = ?1 "
+                                       "ORDER BY position");
     comps.bind(1, id);
     std::vector<std::pair<std::int64_t, double>> imports;
     while (comps.step()) {
@@ -313,6 +336,14 @@ std::optional<Scenario> readScenario(sqlite3* db, const fs::path& file, int vers
             continue;
         }
         c.kind = *kind;
+        if (version >= 3) {
+            const auto dietGrade = parseGrade(comps.text(4));
+            if (!dietGrade) {
+                damaged("compartment '" + c.name + "' has an unknown diet grade '" + comps.text(4) + "'");
+                continue;
+            }
+            c.dietConfidence = Confidence{*dietGrade, comps.optionalReal(5), comps.text(6)};
+        }
         index[comps.integer(0)] = s.model.addCompartment(std::move(c));
         imports.emplace_back(comps.integer(0), comps.real(3));
     }

@@ -110,17 +110,29 @@ CREATE TABLE stored_run (
 CREATE INDEX stored_run_by_scenario ON stored_run(scenario_id);
 )sql";
 
+// Version 3: the plausible ranges of entered values (issue 13), editable per project;
+// a file from before gets the defaults the program used then (BalanceRules). And the
+// data confidence of each predator's diet row (issues 14, 15, 17): none before.
+constexpr std::string_view kVersion2To3 = R"sql(
+ALTER TABLE compartment ADD COLUMN diet_grade TEXT NOT NULL DEFAULT '' CHECK (diet_grade IN ('', 'A', 'B', 'C', 'D'));
+ALTER TABLE compartment ADD COLUMN diet_cv REAL CHECK (diet_cv IS NULL OR diet_cv >= 0);
+ALTER TABLE compartment ADD COLUMN diet_source TEXT NOT NULL DEFAULT '';
+ALTER TABLE project_info ADD COLUMN plausible_biomass_max REAL NOT NULL DEFAULT 1e6 CHECK (plausible_biomass_max > 0);
+ALTER TABLE project_info ADD COLUMN plausible_rate_max REAL NOT NULL DEFAULT 1e4 CHECK (plausible_rate_max > 0);
+ALTER TABLE project_info ADD COLUMN plausible_flow_max REAL NOT NULL DEFAULT 1e7 CHECK (plausible_flow_max > 0);
+)sql";
+
 }  // namespace
 
 std::string_view currentSchemaSql()
 {
-    static const std::string all = std::string(kVersion1) + std::string(kVersion1To2);
+    static const std::string all = std::string(kVersion1) + std::string(kVersion1To2) + std::string(kVersion2To3);
     return all;
 }
 
 const std::vector<Migration>& migrations()
 {
-    static const std::vector<Migration> list = {{1, kVersion1To2}};
+    static const std::vector<Migration> list = {{1, kVersion1To2}, {2, kVersion2To3}};
     return list;
 }
 

@@ -33,17 +33,31 @@ struct ReadOnlyCopy {
     ScratchDir dir{"ro_project"};
     fs::path folder = dir / "share";
     fs::path file = folder / "reservoir.tledger";
-    ReadOnlyCopy()
+    explicit ReadOnlyCopy(const fs::path& from = kSamples / "reservoir.tledger")
     {
         fs::create_directory(folder);
         fs::permissions(dir.path(), fs::perms::owner_all | fs::perms::group_read | fs::perms::group_exec |
                                         fs::perms::others_read | fs::perms::others_exec);
-        fs::copy_file(kSamples / "reservoir.tledger", file);
+        fs::copy_file(from, file);
         makeReadOnly(file);
         makeReadOnly(folder);
     }
     ~ReadOnlyCopy() { fs::permissions(folder, fs::perms::owner_all); }
 };
+
+// A project of an older schema on a read-only share is read at its own version, not
+// migrated (which would need writing) and not refused.
+TEST(ReliabilityCli, AnOlderProjectOnAReadOnlyShareIsReadWithoutMigrating)
+{
+    ReadOnlyCopy copy(fs::path(TL_FIXTURES_DIR) / "store" / "v1_project.tledger");
+    const std::string before = slurp(copy.file);
+    const CliRun run = runUnprivileged("solve " + shellQuoted(copy.file.string()) + " --scenario spring");
+    EXPECT_TRUE(run.exitCode == 0 || run.exitCode == 1) << run.exitCode << "\n" << run.err;
+    EXPECT_NE(run.out.find("perch"), std::string::npos) << run.out;
+    EXPECT_NE(run.err.find("opened read-only"), std::string::npos) << run.err;
+    EXPECT_EQ(run.err.find("schema"), std::string::npos) << run.err;
+    EXPECT_EQ(slurp(copy.file), before);
+}
 
 TEST(ReliabilityCli, AReadOnlyProjectIsSolvedCheckedAnalysedAndExported)
 {

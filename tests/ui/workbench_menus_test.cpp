@@ -13,6 +13,8 @@
 #include <QFileInfo>
 #include <QLineEdit>
 #include <QMenuBar>
+#include <QScrollArea>
+#include <QScrollBar>
 #include <QTemporaryDir>
 #include <QTest>
 #include <QTextBrowser>
@@ -25,6 +27,10 @@
 #include "ui/main_window.h"
 #include "tests/ui/workbench_test_support.h"
 #include "ui/results/flow_map_page.h"
+#include "ui/tables/diet_table_model.h"
+#include "ui/tables/ledger_table_view.h"
+#include "ui/widgets/confidence_panel.h"
+#include "ui/widgets/editing_pages.h"
 #include "ui/widgets/help_window.h"
 #include "ui/widgets/project_settings_dialog.h"
 #include "ui/widgets/scenario_shelf.h"
@@ -77,6 +83,7 @@ private slots:
     void projectSettingsAreUndoableAndSaved();
     void projectSettingsRefuseBadValuesNamingTheField();
     void duplicatesAreLabelledAsCopies();
+    void dietRowConfidenceIsEditedFromTheDietPage();
     void flowMapDragsAreUndoableAndSaved();
 };
 
@@ -202,16 +209,28 @@ void WorkbenchMenusTest::projectSettingsAreUndoableAndSaved()
     dialog.eeMaxEdit()->setText("0.95");
     dialog.pqMinEdit()->setText("0.1");
     dialog.pqMaxEdit()->setText("0.35");
+    dialog.biomassMaxEdit()->setText("5000");
+    dialog.rateMaxEdit()->setText("200");
+    dialog.flowMaxEdit()->setText("1e5");
     const std::size_t lastPool = m.detritusPools().back();
     dialog.poolCombos().front()->setCurrentIndex(dialog.poolCombos().front()->count() - 1);
     dialog.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&dialog));
     keepSnapshot(dialog, "project-settings");
+    // Sized for its content: no scroll bar where the screen has room for everything.
+    auto* scroll = dialog.findChild<QScrollArea*>();
+    QVERIFY(scroll);
+    QVERIFY2(!scroll->verticalScrollBar()->isVisible(),
+             qPrintable(QStringLiteral("content %1 px high in a %2 px viewport")
+                            .arg(scroll->widget()->sizeHint().height())
+                            .arg(scroll->viewport()->height())));
     dialog.accept();
     QCOMPARE(dialog.result(), int(QDialog::Accepted));
     QCOMPARE(doc->undoStack()->count(), 1);  // one edit for the whole dialog
 
     QCOMPARE(doc->project().info.units.currency, std::string("g C"));
     QCOMPARE(doc->project().info.rules.eeMax, 0.95);
+    QCOMPARE(doc->project().info.rules.plausible, (tl::PlausibleRanges{5000, 200, 1e5}));
     for (const auto& s : doc->project().scenarios) {  // every scenario carries the project's copy
         QCOMPARE(s.model.units.flow(), std::string("g C/m²/month"));
         QCOMPARE(s.model.rules.pqMax, 0.35);
@@ -231,6 +250,7 @@ void WorkbenchMenusTest::projectSettingsAreUndoableAndSaved()
     QVERIFY2(reread.open(path, &error), qPrintable(error));
     QCOMPARE(reread.project().info.units.time, std::string("month"));
     QCOMPARE(reread.project().info.rules.pqMin, 0.1);
+    QCOMPARE(reread.model().rules.plausible, (tl::PlausibleRanges{5000, 200, 1e5}));
     QCOMPARE(reread.model().units.area, std::string("m²"));
     QCOMPARE(reread.model().fleet(0).discardPool, std::optional<std::size_t>(lastPool));
 
@@ -256,7 +276,10 @@ void WorkbenchMenusTest::projectSettingsRefuseBadValuesNamingTheField()
                           {&ProjectSettingsDialog::eeMaxEdit, "-1", "Highest EE"},
                           {&ProjectSettingsDialog::pqMinEdit, "0.6", "P/Q"},
                           {&ProjectSettingsDialog::pqMaxEdit, "1.5", "Highest P/Q"},
-                          {&ProjectSettingsDialog::dietToleranceEdit, "0", "diet sums"}};
+                          {&ProjectSettingsDialog::dietToleranceEdit, "0", "diet sums"},
+                          {&ProjectSettingsDialog::biomassMaxEdit, "0", "Plausible B"},
+                          {&ProjectSettingsDialog::rateMaxEdit, "-5", "Plausible P/B"},
+                          {&ProjectSettingsDialog::flowMaxEdit, "many", "Plausible flows"}};
     for (const Case& c : cases) {
         ProjectSettingsDialog dialog(doc);
         (dialog.*c.edit)()->setText(QString::fromLatin1(c.text));
@@ -266,6 +289,48 @@ void WorkbenchMenusTest::projectSettingsRefuseBadValuesNamingTheField()
         QVERIFY(doc->project() == before);  // nothing applied, nothing lost
         QCOMPARE(doc->undoStack()->count(), 0);
     }
+}
+
+// Issues 14, 15, 17: a diet row's data confidence is edited in the Data confidence
+// panel when a row of the Diet page is current; one undoable edit; saved with the project.
+void WorkbenchMenusTest::dietRowConfidenceIsEditedFromTheDietPage()
+{
+    QTemporaryDir dir;
+    MainWindow w(testOptions(dir));
+    QString error;
+    QVERIFY2(w.openPath(kReservoir, true, &error), qPrintable(error));
+    w.resize(1400, 900);
+    w.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&w));
+    ProjectDocument* doc = w.document();
+    w.showPage(QStringLiteral("diet"));
+    auto* diet = w.dietPage()->diet();
+    const int row = 1;
+    const std::size_t predator = diet->predatorOf(row);
+    const QString name = QString::fromStdString(doc->model().compartment(predator).name);
+    w.dietPage()->view()->goToCell(row, 0);
+    QApplication::processEvents();
+    auto* panel = w.confidencePanel();
+    auto* title = panel->findChild<QLabel*>(QStringLiteral("panelTitle"));
+    QVERIFY(title);
+    QVERIFY2(title->text().contains(QStringLiteral("the diet of %1").arg(name)), qPrintable(title->text()));
+    auto* grade = panel->findChild<QComboBox*>();
+    QVERIFY(grade);
+    const int undoBefore = doc->undoStack()->count();
+    const auto parameterConfidence = doc->model().compartment(predator).confidence;
+    grade->setCurrentIndex(grade->findData(QStringLiteral("B")));
+    QCOMPARE(doc->model().compartment(predator).dietConfidence.grade, tl::Confidence::Grade::B);
+    QCOMPARE(doc->undoStack()->count(), undoBefore + 1);
+    // The parameters' confidence of the same compartment is untouched.
+    QVERIFY(doc->model().compartment(predator).confidence == parameterConfidence);
+    doc->undoStack()->undo();
+    QCOMPARE(doc->model().compartment(predator).dietConfidence, tl::Confidence{});
+    doc->undoStack()->redo();
+    const QString path = dir.filePath("diet-confidence.tledger");
+    QVERIFY2(w.saveTo(path, &error), qPrintable(error));
+    ProjectDocument reread;
+    QVERIFY2(reread.open(path, &error), qPrintable(error));
+    QCOMPARE(reread.model().compartment(predator).dietConfidence.grade, tl::Confidence::Grade::B);
 }
 
 void WorkbenchMenusTest::duplicatesAreLabelledAsCopies()
@@ -281,6 +346,11 @@ void WorkbenchMenusTest::duplicatesAreLabelledAsCopies()
     const QString today = QDateTime::currentDateTimeUtc().date().toString(Qt::ISODate);
     QCOMPARE(label, QStringLiteral("copied from %1 on %2").arg(base, today));
     QVERIFY(copyLabel(w.document()->project().scenarios.front()).isEmpty());
+    // A reconciled scenario says so (its description is reconcileDescription's).
+    tl::Scenario reconciled = copy;
+    reconciled.description = "reconciled from '" + base.toStdString() + "': smallest confidence-weighted change";
+    reconciled.created = "2026-11-30T23:10:00Z";
+    QCOMPARE(copyLabel(reconciled), QStringLiteral("reconciled from %1 on 2026-11-30").arg(base));
     // The shelf shows the label and never claims derivation.
     auto* list = w.shelf()->findChild<QListWidget*>();
     QVERIFY(list);

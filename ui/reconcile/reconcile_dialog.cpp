@@ -156,7 +156,7 @@ QWidget* ReconcileDialog::buildSettingsPage()
         e->setMaximumWidth(70);
         return e;
     };
-    dietCv_ = cvEdit(defaults.dietCv, tr("CV of every diet share: the project keeps no confidence per diet entry"));
+    dietCv_ = cvEdit(defaults.dietCv, tr("CV of the diet shares of rows that have no diet confidence of their own"));
     catchCv_ = cvEdit(defaults.catchCv, tr("CV of every catch figure, when catch may move"));
     auto* dietCvLabel = new QLabel(tr("Diet share CV:"), page);
     dietCvLabel->setBuddy(dietCv_);

@@ -20,6 +20,9 @@ public:
     ScenarioTableModel* ledgerModel() const;
     QList<QAction*> editActions() const { return editActions_; }
 
+    // The width the cells of a column need, its header left out (the header wraps).
+    int cellWidthHint(int column) const { return sizeHintForColumn(column); }
+
     void copySelection();
     void pasteClipboard();
     void fillDownSelection();

@@ -60,20 +60,54 @@ void ConfidencePanel::setTarget(std::optional<std::size_t> compartment, std::opt
 {
     compartment_ = compartment;
     param_ = param;
+    diet_ = false;
     message_->clear();
     refresh();
+}
+
+void ConfidencePanel::setDietTarget(std::size_t predator)
+{
+    compartment_ = predator;
+    param_.reset();
+    diet_ = true;
+    message_->clear();
+    refresh();
+}
+
+bool ConfidencePanel::hasTarget() const
+{
+    return compartment_ && (param_ || diet_) && *compartment_ < doc_->model().size();
+}
+
+const tl::Confidence& ConfidencePanel::targetIn(const tl::Model& m) const
+{
+    const tl::Compartment& c = m.compartment(*compartment_);
+    return diet_ ? c.dietConfidence : c.confidenceOf(*param_);
+}
+
+tl::Confidence& ConfidencePanel::targetIn(tl::Model& m) const
+{
+    tl::Compartment& c = m.compartment(*compartment_);
+    return diet_ ? c.dietConfidence : c.confidenceOf(*param_);
+}
+
+QString ConfidencePanel::targetName(const tl::Model& m) const
+{
+    const QString name = QString::fromStdString(m.compartment(*compartment_).name);
+    return diet_ ? tr("the diet of %1").arg(name) : tr("%1 of %2").arg(sym(*param_), name);
 }
 
 void ConfidencePanel::refresh()
 {
     updating_ = true;
     const tl::Model& m = doc_->model();
-    const bool valid = compartment_ && param_ && *compartment_ < m.size();
+    const bool valid = hasTarget();
     grade_->setEnabled(valid);
     cv_->setEnabled(valid);
     source_->setEnabled(valid);
     if (!valid) {
-        title_->setText(tr("Select a parameter cell in Compartments to see and edit its data confidence."));
+        title_->setText(tr("Select a parameter cell in Compartments, or a row of Diet, to see and edit its data "
+                           "confidence."));
         grade_->setCurrentIndex(0);
         cv_->clear();
         source_->clear();
@@ -81,9 +115,9 @@ void ConfidencePanel::refresh()
         updating_ = false;
         return;
     }
-    const tl::Compartment& c = m.compartment(*compartment_);
-    const tl::Confidence& conf = c.confidenceOf(*param_);
-    title_->setText(tr("Data confidence of %1 of %2").arg(sym(*param_), QString::fromStdString(c.name)));
+    const tl::Confidence& conf = targetIn(m);
+    title_->setText(diet_ ? tr("Data confidence of %1 (every share of the row)").arg(targetName(m))
+                          : tr("Data confidence of %1").arg(targetName(m)));
     grade_->setCurrentIndex(std::max(0, grade_->findData(QString::fromStdString(std::string(tl::gradeKey(conf.grade))))));
     cv_->setText(conf.cv ? ScenarioTableModel::numberText(*conf.cv) : QString());
     source_->setText(QString::fromStdString(conf.source));
@@ -96,24 +130,24 @@ void ConfidencePanel::refresh()
 
 void ConfidencePanel::apply(const tl::Confidence& conf, const QString& what)
 {
-    if (!compartment_ || !param_ || *compartment_ >= doc_->model().size()) return;
+    if (!hasTarget()) return;
     tl::Model copy = doc_->model();
-    copy.compartment(*compartment_).confidenceOf(*param_) = conf;
-    doc_->editModel(copy, tr("Set %1 of %2 of %3").arg(what, sym(*param_), QString::fromStdString(copy.compartment(*compartment_).name)));
+    targetIn(copy) = conf;
+    doc_->editModel(copy, tr("Set %1 of %2").arg(what, targetName(copy)));
 }
 
 void ConfidencePanel::applyGrade()
 {
-    if (!compartment_ || !param_) return;
-    tl::Confidence conf = doc_->model().compartment(*compartment_).confidenceOf(*param_);
+    if (!hasTarget()) return;
+    tl::Confidence conf = targetIn(doc_->model());
     conf.grade = tl::parseGrade(grade_->currentData().toString().toStdString()).value_or(tl::Confidence::Grade::None);
     apply(conf, tr("confidence grade"));
 }
 
 void ConfidencePanel::applyCv()
 {
-    if (!compartment_ || !param_) return;
-    tl::Confidence conf = doc_->model().compartment(*compartment_).confidenceOf(*param_);
+    if (!hasTarget()) return;
+    tl::Confidence conf = targetIn(doc_->model());
     const QString t = cv_->text().trimmed();
     if (t.isEmpty()) conf.cv.reset();
     else {
@@ -131,8 +165,8 @@ void ConfidencePanel::applyCv()
 
 void ConfidencePanel::applySource()
 {
-    if (!compartment_ || !param_) return;
-    tl::Confidence conf = doc_->model().compartment(*compartment_).confidenceOf(*param_);
+    if (!hasTarget()) return;
+    tl::Confidence conf = targetIn(doc_->model());
     conf.source = source_->text().trimmed().toStdString();
     apply(conf, tr("source note"));
 }

@@ -64,9 +64,21 @@ int EditingPage::headerWidthNeeded(int column) const
 
 void EditingPage::fitColumns()
 {
-    view_->resizeColumnsToContents();
-    for (int c = 0; c < view_->model()->columnCount(); ++c)
-        view_->setColumnWidth(c, std::max(std::clamp(view_->columnWidth(c), minWidth_, maxWidth_), headerWidthNeeded(c)));
+    // Width from the cells, not from the header on one line: the header wraps at spaces
+    // (LedgerTableView), so a unit such as "(t wet weight/km²)" need not widen its column
+    // (issue 13: six columns whole at 1024x700). It only needs its longest word to fit,
+    // and the header enough height for the lines it wraps into.
+    QHeaderView* header = view_->horizontalHeader();
+    const QFontMetrics fm(header->font());
+    int lines = 1;
+    for (int c = 0; c < view_->model()->columnCount(); ++c) {
+        const int width = std::max(std::clamp(view_->cellWidthHint(c), minWidth_, maxWidth_), headerWidthNeeded(c));
+        view_->setColumnWidth(c, width);
+        const QString text = view_->model()->headerData(c, Qt::Horizontal).toString();
+        const QRect wrapped = fm.boundingRect(QRect(0, 0, width - 12, 1 << 16), Qt::AlignCenter | Qt::TextWordWrap, text);
+        lines = std::max(lines, (wrapped.height() + fm.lineSpacing() - 1) / fm.lineSpacing());
+    }
+    header->setMinimumHeight(std::max(header->minimumHeight(), lines * fm.lineSpacing() + 12));
 }
 
 namespace {
@@ -102,7 +114,7 @@ CompartmentsPage::CompartmentsPage(ProjectDocument* doc, QWidget* parent)
     view()->setItemDelegateForColumn(CompartmentTableModel::kNameColumn, new QStyledItemDelegate(view()));
     view()->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
     fitColumns();
-    view()->horizontalHeader()->setMinimumHeight(44);
+    view()->horizontalHeader()->setMinimumHeight(std::max(44, view()->horizontalHeader()->minimumHeight()));
     // Room for an EE marked "1.156 — above 1" beside its icon (issue 13), after every reset.
     auto widenEE = [this] {
         const int ee = CompartmentTableModel::columnOf(tl::Param::EE);
@@ -161,7 +173,7 @@ DietPage::DietPage(ProjectDocument* doc, QWidget* parent)
     actions()->addWidget(hideUnused_);
     setTableModel(model_);
     view()->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
-    view()->horizontalHeader()->setMinimumHeight(44);
+    view()->horizontalHeader()->setMinimumHeight(std::max(44, view()->horizontalHeader()->minimumHeight()));
     connect(normalise, &QPushButton::clicked, this, [this] {
         const QModelIndex cur = view()->currentIndex();
         if (!cur.isValid()) {
@@ -206,7 +218,7 @@ HarvestPage::HarvestPage(ProjectDocument* doc, QWidget* parent)
     emptyNote_ = new QLabel(tr("No fleet yet: add one to enter landings and discards."), this);
     actions()->addWidget(emptyNote_);
     setTableModel(model_);
-    view()->horizontalHeader()->setMinimumHeight(44);
+    view()->horizontalHeader()->setMinimumHeight(std::max(44, view()->horizontalHeader()->minimumHeight()));
     connect(add, &QPushButton::clicked, this, [this] {
         bool ok = false;
         const QString name = QInputDialog::getText(this, tr("Add fleet"), tr("Fleet name:"), QLineEdit::Normal, tr("Fleet"), &ok);

@@ -1,11 +1,14 @@
 #include "ui/widgets/project_settings_dialog.h"
 
+#include <algorithm>
+
 #include <QComboBox>
 #include <QDialogButtonBox>
 #include <QFormLayout>
 #include <QGroupBox>
 #include <QLabel>
 #include <QLineEdit>
+#include <QScreen>
 #include <QScrollArea>
 #include <QVBoxLayout>
 
@@ -44,6 +47,10 @@ QString checkSettings(const ProjectSettings& s, const tl::Model& model)
     if (!(r.pqMin < r.pqMax)) return QObject::tr("P/Q range: the lowest P/Q must be below the highest.");
     if (!(r.dietSumTolerance > 0 && r.dietSumTolerance <= 0.1))
         return QObject::tr("Tolerance on diet sums: expected a number above 0 and at most 0.1.");
+    const tl::PlausibleRanges& p = r.plausible;
+    if (!(p.biomassMax > 0)) return QObject::tr("Plausible B up to: expected a number above 0.");
+    if (!(p.rateMax > 0)) return QObject::tr("Plausible P/B, Q/B up to: expected a number above 0.");
+    if (!(p.flowMax > 0)) return QObject::tr("Plausible flows up to: expected a number above 0.");
     if (s.discardPools.size() != model.fleets().size()) return QObject::tr("The fleets changed while the dialog was open.");
     for (std::size_t f = 0; f < s.discardPools.size(); ++f) {
         const auto pool = s.discardPools[f];
@@ -128,6 +135,15 @@ ProjectSettingsDialog::ProjectSettingsDialog(ProjectDocument* doc, QWidget* pare
     ruleForm->addRow(tr("Lowest &P/Q of consumers:"), pqMin_);
     ruleForm->addRow(tr("Highest P/&Q of consumers:"), pqMax_);
     ruleForm->addRow(tr("&Tolerance on diet sums:"), dietTolerance_);
+    // Entered values beyond these are warned about as likely slips (issue 13), never refused.
+    const QString beyond = tr("An entered %1 above this (in the project's units) is warned about as a likely slip of "
+                              "the digits or the units; it is kept as entered.");
+    biomassMax_ = line(numberText(now.rules.plausible.biomassMax), beyond.arg(tr("biomass")));
+    rateMax_ = line(numberText(now.rules.plausible.rateMax), beyond.arg(tr("P/B or Q/B")));
+    flowMax_ = line(numberText(now.rules.plausible.flowMax), beyond.arg(tr("flow (BA, E, detritus import)")));
+    ruleForm->addRow(tr("Plausible B up to:"), biomassMax_);
+    ruleForm->addRow(tr("Plausible P/B, Q/B up to:"), rateMax_);
+    ruleForm->addRow(tr("Plausible flows up to:"), flowMax_);
 
     auto* fleets = new QGroupBox(tr("Fleet discard pools (scenario %1)").arg(qs(doc->scenario().name)), this);
     auto* fleetForm = new QFormLayout(fleets);
@@ -173,7 +189,12 @@ ProjectSettingsDialog::ProjectSettingsDialog(ProjectDocument* doc, QWidget* pare
     layout->addWidget(scroll, 1);
     layout->addWidget(error_);
     layout->addWidget(buttons);
-    resize(520, 560);
+    // Tall enough for everything when the screen has room (no needless scroll bar);
+    // many fleets on a small screen scroll instead of pushing the buttons off it.
+    const int available = screen() ? screen()->availableGeometry().height() * 9 / 10 : 700;
+    const int margins = layout->contentsMargins().top() + layout->contentsMargins().bottom();
+    const int wanted = content->sizeHint().height() + buttons->sizeHint().height() + 2 * layout->spacing() + margins;
+    resize(std::max(520, content->sizeHint().width() + margins), std::min(wanted, available));
 }
 
 std::optional<ProjectSettings> ProjectSettingsDialog::settings(QString* why) const
@@ -186,7 +207,10 @@ std::optional<ProjectSettings> ProjectSettingsDialog::settings(QString* why) con
         {eeMax_, &s.rules.eeMax, tr("Highest EE accepted")},
         {pqMin_, &s.rules.pqMin, tr("Lowest P/Q")},
         {pqMax_, &s.rules.pqMax, tr("Highest P/Q")},
-        {dietTolerance_, &s.rules.dietSumTolerance, tr("Tolerance on diet sums")}};
+        {dietTolerance_, &s.rules.dietSumTolerance, tr("Tolerance on diet sums")},
+        {biomassMax_, &s.rules.plausible.biomassMax, tr("Plausible B up to")},
+        {rateMax_, &s.rules.plausible.rateMax, tr("Plausible P/B, Q/B up to")},
+        {flowMax_, &s.rules.plausible.flowMax, tr("Plausible flows up to")}};
     for (const auto& n : numbers) {
         const auto v = parseTypedNumber(n.edit->text());
         if (!v) {

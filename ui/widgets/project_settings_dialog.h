@@ -55,6 +55,9 @@ public:
     QLineEdit* pqMinEdit() const { return pqMin_; }
     QLineEdit* pqMaxEdit() const { return pqMax_; }
     QLineEdit* dietToleranceEdit() const { return dietTolerance_; }
+    QLineEdit* biomassMaxEdit() const { return biomassMax_; }
+    QLineEdit* rateMaxEdit() const { return rateMax_; }
+    QLineEdit* flowMaxEdit() const { return flowMax_; }
     const std::vector<QComboBox*>& poolCombos() const { return poolCombos_; }
     QLabel* errorLabel() const { return error_; }
 
@@ -63,6 +66,7 @@ public:
 private:
     ProjectDocument* doc_;
     QLineEdit *currency_, *area_, *time_, *eeMax_, *pqMin_, *pqMax_, *dietTolerance_;
+    QLineEdit *biomassMax_, *rateMax_, *flowMax_;  // plausible ranges (warnings only)
     std::vector<QComboBox*> poolCombos_;
     std::vector<std::size_t> pools_;  // detritus pools of the scenario, in model order
     QLabel* error_;

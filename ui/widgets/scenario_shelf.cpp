@@ -56,10 +56,16 @@ ScenarioShelf::ScenarioShelf(ProjectDocument* doc, QWidget* parent) : QWidget(pa
 QString copyLabel(const tl::Scenario& s)
 {
     if (s.parent.empty()) return {};
+    // A reconciled scenario is a changed copy, not a plain one: its description starts as
+    // core/reconcile's reconcileDescription writes it.
+    const bool reconciled = s.description.rfind("reconciled from '", 0) == 0;
     // `created` is ISO 8601 UTC; the calendar day is what a reader needs.
     const QDateTime when = QDateTime::fromString(qs(s.created), Qt::ISODate);
-    if (!when.isValid()) return QObject::tr("copied from %1").arg(qs(s.parent));
-    return QObject::tr("copied from %1 on %2").arg(qs(s.parent), when.toUTC().date().toString(Qt::ISODate));
+    if (!when.isValid())
+        return reconciled ? QObject::tr("reconciled from %1").arg(qs(s.parent)) : QObject::tr("copied from %1").arg(qs(s.parent));
+    const QString day = when.toUTC().date().toString(Qt::ISODate);
+    return reconciled ? QObject::tr("reconciled from %1 on %2").arg(qs(s.parent), day)
+                      : QObject::tr("copied from %1 on %2").arg(qs(s.parent), day);
 }
 
 void ScenarioShelf::refresh()

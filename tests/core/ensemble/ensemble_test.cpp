@@ -1,7 +1,9 @@
 // The ensemble run (core/ensemble/ensemble.h): reproducible for any thread count, slices
 // that merge into exactly the one-run result, draws judged as solveBalance judges them,
 // kept draws that are the draws, and the partial result's round trip.
+#include <algorithm>
 #include <atomic>
+#include <map>
 #include <set>
 
 #include <gtest/gtest.h>
@@ -37,6 +39,39 @@ EnsembleSettings settings(std::uint64_t draws, unsigned threads)
     s.threads = threads;
     s.dietCv = 0.1;
     return s;
+}
+
+TEST(EnsembleInputs, EachDietRowDrawsWithItsOwnConfidence)
+{
+    // Order: a per-run CV for the row, then the row's data confidence, then the run's
+    // diet CV for rows without one (ensemble_inputs.h).
+    Model model = lagoon();
+    std::vector<std::size_t> rows;  // consumers with two or more non-zero shares
+    for (std::size_t j = 0; j < model.size(); ++j)
+        if (model.compartment(j).kind == CompartmentKind::Consumer && model.dietRow(j).size() >= 2) rows.push_back(j);
+    ASSERT_GE(rows.size(), 3u);
+    model.compartment(rows[0]).dietConfidence.grade = Confidence::Grade::D;  // 0.20 in lagoon()
+    model.compartment(rows[1]).dietConfidence.cv = 0.33;
+    model.compartment(rows[2]).dietConfidence.cv = 0.33;
+    EnsembleSettings s = settings(10, 1);
+    s.dietCvOf[rows[2]] = 0.05;
+    const BalancePlan plan = BalancePlan::build(model);
+    const EnsembleInputs inputs = EnsembleInputs::build(model, plan, s);
+    std::map<std::size_t, double> expectedCv = {{rows[0], 0.20}, {rows[1], 0.33}, {rows[2], 0.05}};
+    int checked = 0;
+    for (const DrawnDietRow& row : inputs.dietRows()) {
+        const auto& shares = row.distribution.shares();
+        const double largest = *std::max_element(shares.begin(), shares.end());
+        const auto it = expectedCv.find(row.predator);
+        const double cv = it != expectedCv.end() ? it->second : *s.dietCv;
+        EXPECT_DOUBLE_EQ(row.distribution.concentration(), DirichletRow::concentrationFor(largest, cv))
+            << model.compartment(row.predator).name;
+        if (it == expectedCv.end()) continue;
+        // The row's own CV must make a difference here (not both at the concentration floor).
+        EXPECT_NE(DirichletRow::concentrationFor(largest, cv), DirichletRow::concentrationFor(largest, *s.dietCv));
+        ++checked;
+    }
+    EXPECT_EQ(checked, 3);
 }
 
 TEST(Ensemble, SameSeedGivesTheSameBitsFor1_2And4Threads)

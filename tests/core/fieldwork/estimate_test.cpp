@@ -156,6 +156,9 @@ TEST(ApplyEstimate, DietRowReplacedAndNoted)
     d.predator = "Perch";
     d.valid = true;
     d.method = "test";
+    d.grade = Confidence::Grade::B;
+    d.stomachs = 40;
+    d.emptyStomachs = 3;
     d.shares = {{"Algae", 0.7, 0.7, 0.6, 0.1, 0.5, 0.9}, {"import", 0.3, 0.3, 0.4, 0.2, 0.1, 0.5}};
     std::string description = "baseline";
     ASSERT_TRUE(applyDiet(m, description, 1, d, "2026-12-02").empty());
@@ -163,6 +166,10 @@ TEST(ApplyEstimate, DietRowReplacedAndNoted)
     EXPECT_EQ(m.diet(1, 0), 0.7);
     EXPECT_EQ(m.dietImport(1), 0.3);
     EXPECT_NE(description.find("baseline; fieldwork 2026-12-02: diet of Perch"), std::string::npos) << description;
+    // The row's confidence: the stomach-count grade and the largest share's bootstrap CV.
+    EXPECT_EQ(m.compartment(1).dietConfidence.grade, d.grade);
+    EXPECT_EQ(m.compartment(1).dietConfidence.cv, std::optional<double>(0.1));
+    EXPECT_NE(m.compartment(1).dietConfidence.source.find("fieldwork 2026-12-02"), std::string::npos);
     // Not a consumer; unknown prey.
     EXPECT_FALSE(applyDiet(m, description, 0, d, "d").empty());
     d.shares[0].prey = "Roach";

@@ -320,6 +320,12 @@ INSTANTIATE_TEST_SUITE_P(
                 "A, B, C, D"},
         BadCase{"bad parameter", "confidence.csv", "compartment,parameter,grade\nFish,P/B,A\n", "csv-parameter", 2,
                 2, "'P/B'"},
+        BadCase{"bad diet grade", "confidence.csv", "compartment,parameter,grade\nFish,diet,E\n", "csv-grade", 2, 3,
+                "grade of diet of 'Fish'"},
+        BadCase{"diet confidence twice", "confidence.csv", "compartment,parameter,grade\nFish,diet,A\nFish,diet,B\n",
+                "csv-duplicate-row", 3, 2, "line 2"},
+        BadCase{"plausible range not positive", "settings.csv", "key,value\nplausible_rate_max,0\n", "csv-number", 2, 2,
+                "plausible_rate_max"},
         BadCase{"unknown setting", "settings.csv", "key,value\ncurrency,t\nunits,t\n", "csv-unknown-setting", 3, 1,
                 "'units'"},
         BadCase{"setting not a number", "settings.csv", "key,value\nee_max,one\n", "csv-number", 2, 2, "'one'"}),
@@ -582,6 +588,7 @@ TEST(CsvModel, WritingOverAnOlderExportLeavesNoStaleData)
     for (std::size_t s = 0; s < smaller.size(); ++s) {
         for (std::size_t d = 0; d < smaller.size(); ++d) smaller.setRouting(s, d, 0.0);
         for (Param p : kAllParams) smaller.compartment(s).confidenceOf(p) = Confidence{};
+        smaller.compartment(s).dietConfidence = Confidence{};
     }
     smaller.units = Units{};
     ASSERT_TRUE(writeCsvModel(smaller, dir.path()).empty());
@@ -694,6 +701,12 @@ Model randomModel(std::mt19937_64& rng)
             left -= share;
         }
         m.setDietImport(j, left / 64.0);
+        if (chance(0.3)) {  // the diet row's confidence (confidence.csv parameter "diet")
+            Confidence& conf = m.compartment(j).dietConfidence;
+            conf.grade = static_cast<Confidence::Grade>(rng() % 5);
+            if (chance(0.5)) conf.cv = uniform(0, 2);
+            if (chance(0.5)) conf.source = text(6);
+        }
     }
     for (std::size_t s : living) {
         if (pools.empty() || !chance(0.4)) continue;

@@ -182,6 +182,12 @@ TEST(PlausibleRanges, AbsurdValuesAreWarnedNotRefused)
     Model edge = pond();
     edge.compartment(0).value(Param::Biomass) = PlausibleRanges{}.biomassMax;
     EXPECT_TRUE(implausibleValues(edge).empty());
+    // Without explicit ranges the model's own rules decide (editable per project).
+    edge.rules.plausible.biomassMax = 1e5;
+    const Problems own = implausibleValues(edge);
+    ASSERT_EQ(own.size(), 1u);
+    EXPECT_EQ(own[0].parameter, "biomass");
+    EXPECT_NE(own[0].message.find("100000"), std::string::npos) << own[0].message;
 }
 
 }  // namespace

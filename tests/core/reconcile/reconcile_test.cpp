@@ -122,6 +122,57 @@ TEST(Reconcile, ConfidenceSteersWhichInputMoves)
     EXPECT_GT(fishPB, 5.0 * pikeB);
 }
 
+TEST(ReconcileProblem, DietSharesWeighByTheirRowsConfidence)
+{
+    // Pike's diet row graded A (CV 10 %), the grazers' row with an explicit CV of 0.4,
+    // the small fish's single-prey row never moves; other rows fall back to the option.
+    Model m = overEatingModel();
+    m.compartment(3).dietConfidence.grade = Confidence::Grade::A;
+    m.compartment(1).dietConfidence.cv = 0.4;
+    ReconcileOptions o;
+    o.dietCv = 0.7;
+    const ReconcileProblem pr = ReconcileProblem::build(m, o);
+    ASSERT_TRUE(pr.ok());
+    int dietVariables = 0;
+    for (const auto& v : pr.variables()) {
+        if (v.param != AdjustParam::Diet) continue;
+        ++dietVariables;
+        const double expected = v.compartment == 3 ? m.rules.cvByGrade[0] : 0.4;
+        EXPECT_TRUE(v.compartment == 3 || v.compartment == 1) << v.compartment;
+        EXPECT_DOUBLE_EQ(v.cv, expected) << v.compartment;
+        EXPECT_DOUBLE_EQ(v.weight, 1.0 / (expected * expected)) << v.compartment;
+    }
+    EXPECT_EQ(dietVariables, 4);
+
+    // Without a row confidence the option's CV is used and said.
+    m.compartment(3).dietConfidence = Confidence{};
+    const ReconcileProblem fallback = ReconcileProblem::build(m, o);
+    for (const auto& v : fallback.variables())
+        if (v.param == AdjustParam::Diet && v.compartment == 3) {
+            EXPECT_DOUBLE_EQ(v.cv, 0.7);
+            EXPECT_NE(v.confidence.find("no confidence given"), std::string::npos) << v.confidence;
+        }
+}
+
+TEST(Reconcile, AWellKnownDietRowMovesLessThanAPoorlyKnownOne)
+{
+    // The same over-eating web twice: once with pike's diet row known to 5 %, once to 80 %.
+    // The better-known row must change less (measured as the largest share change).
+    auto largestPikeShareChange = [](double cv) {
+        Model m = overEatingModel();
+        m.compartment(3).dietConfidence.cv = cv;
+        ReconcileOptions o;
+        o.moveCatch = false;
+        const ReconcileResult r = reconcile(m, o);
+        EXPECT_EQ(r.status, ReconcileStatus::Balanced);
+        double largest = 0.0;
+        for (const ReconcileChange& c : r.changes)
+            if (c.compartment == 3 && c.param == AdjustParam::Diet) largest = std::max(largest, std::abs(c.after - c.before));
+        return largest;
+    };
+    EXPECT_LT(largestPikeShareChange(0.05), largestPikeShareChange(0.8));
+}
+
 TEST(Reconcile, PinsNeverMoveAndBoundsHold)
 {
     const Model m = overEatingModel();

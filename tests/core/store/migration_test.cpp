@@ -30,6 +30,12 @@ void expectFixtureContent(const Project& p)
     EXPECT_EQ(p.info.units.currency, "g C");
     EXPECT_EQ(p.info.units.area, "m²");
     EXPECT_EQ(p.info.created, "2026-11-01T08:00:00Z");
+    // Schema 3's plausible ranges were not stored before: the defaults of that time.
+    EXPECT_EQ(p.info.rules.plausible, PlausibleRanges{});
+    EXPECT_EQ(p.scenarios[0].model.rules.plausible, PlausibleRanges{});
+    // Nor was a diet row's confidence: none.
+    for (const Scenario& s : p.scenarios)
+        for (const Compartment& c : s.model.compartments()) EXPECT_EQ(c.dietConfidence, Confidence{}) << c.name;
     ASSERT_EQ(p.scenarios.size(), 2u);
     const Scenario& spring = p.scenarios[0];
     EXPECT_EQ(spring.name, "spring");
@@ -101,6 +107,36 @@ TEST(Migration, ReadWriteOpenMigratesToCurrentAndKeepsEverything)
     ASSERT_TRUE(loaded.value);
     EXPECT_EQ(loaded.value->scenarios[0].layout.at("perch"), (LayoutPosition{10, 20}));
     EXPECT_EQ(loaded.value->runs.size(), 1u);
+}
+
+TEST(Migration, PlausibleRangesAndDietConfidenceAreKeptFromSchemaThreeOn)
+{
+    TempDir dir;
+    const auto path = copyOfFixture(dir);
+    Project project;
+    {
+        auto opened = ProjectFile::open(path);
+        ASSERT_TRUE(opened.file);
+        auto loaded = opened.file->load();
+        ASSERT_TRUE(loaded.value);
+        project = *loaded.value;
+        project.info.rules.plausible = PlausibleRanges{50.0, 300.0, 1e4};
+        for (Scenario& s : project.scenarios) s.model.rules = project.info.rules;
+        Model& spring = project.scenarios[0].model;
+        spring.compartment(*spring.indexOf("perch")).dietConfidence = Confidence{Confidence::Grade::B, 0.35, "42 stomachs"};
+        ASSERT_TRUE(opened.file->save(project).empty());
+    }
+    auto again = ProjectFile::open(path, OpenMode::ReadOnly);
+    ASSERT_TRUE(again.file);
+    auto loaded = again.file->load();
+    ASSERT_TRUE(loaded.value);
+    EXPECT_EQ(loaded.value->info.rules.plausible, (PlausibleRanges{50.0, 300.0, 1e4}));
+    // Each scenario's checks use the project's ranges: perch's B of 2.5 is within 50.
+    EXPECT_EQ(loaded.value->scenarios[0].model.rules.plausible, (PlausibleRanges{50.0, 300.0, 1e4}));
+    const Model& spring = loaded.value->scenarios[0].model;
+    EXPECT_EQ(spring.compartment(*spring.indexOf("perch")).dietConfidence,
+              (Confidence{Confidence::Grade::B, 0.35, "42 stomachs"}));
+    EXPECT_EQ(loaded.value->scenarios, project.scenarios);
 }
 
 TEST(Migration, ReadOnlyOpenReadsVersionOneWithoutChangingIt)

@@ -52,6 +52,7 @@ inline Model inventedModel(double scale = 1.0)
     m.setDiet(pike, roach, 0.7);
     m.setDiet(pike, zoo, 0.1);
     m.setDietImport(pike, 0.2);
+    m.compartment(pike).dietConfidence = Confidence{Confidence::Grade::C, 0.4, "31 stomachs, 2025"};
     m.setDiet(roach, zoo, 0.6);
     m.setDiet(roach, detritus, 0.4);
     m.setDiet(zoo, algae, 0.75);
