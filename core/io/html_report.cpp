@@ -10,6 +10,7 @@
 #include "core/compare/comparison_report.h"
 #include "core/compare/scenario_comparison.h"
 #include "core/io/balance_report.h"
+#include "core/io/stored_run_summary.h"
 #include "core/io/text_table.h"
 #include "core/model/names.h"
 
@@ -166,8 +167,60 @@ void indicatorTable(Writer& w, const ScenarioComparison& one)
           "Christensen 1995 (primary production required); Pauly et al. 1998 (mean TL of the catch).</p>\n");
 }
 
-void reconcileAndRuns(Writer& w, const Project& project, const Scenario& s)
+std::string optionalCell(const std::optional<double>& v) { return v ? cell(*v) : textCell("-"); }
+
+std::string keyOutputUnit(KeyOutputUnit unit, const Units& u)
 {
+    switch (unit) {
+    case KeyOutputUnit::Percent: return "%";
+    case KeyOutputUnit::Flow: return u.flow();
+    case KeyOutputUnit::Biomass: return u.biomass();
+    case KeyOutputUnit::None: break;
+    }
+    return "-";
+}
+
+std::string runDate(const StoredRun& run) { return run.created.size() >= 10 ? run.created.substr(0, 10) : run.created; }
+
+// The reconcile JSON's parameter keys (core/reconcile adjustKey) as the report's symbols.
+std::string changedInput(const ReconcileRunSummary::Change& c)
+{
+    if (c.parameter == "diet") return "diet share of " + c.prey;
+    if (c.parameter == "b") return "B";
+    if (c.parameter == "pb") return "P/B";
+    if (c.parameter == "qb") return "Q/B";
+    return c.parameter;
+}
+
+// Reconcile changes: from the reconcile run stored with the scenario it made; a project
+// reconciled before runs were stored has only the source notes the reconcile wrote.
+void reconcileChanges(Writer& w, const Project& project, const Scenario& s)
+{
+    bool stored = false;
+    for (const StoredRun& run : project.runs) {
+        if (run.kind != "reconcile" || !sameName(run.scenario, s.name)) continue;
+        stored = true;
+        const ReconcileRunSummary r = readReconcileRun(run);
+        w.add("<h3>Reconcile changes (" + html(runDate(run)) + ")</h3>\n");
+        if (!r.error.empty()) {
+            w.add("<p><em>" + html(r.error) + "; the changes cannot be shown.</em></p>\n");
+            continue;
+        }
+        w.add("<p>Made by reconciling scenario <strong>" + html(r.from) + "</strong>: " +
+              html(r.status == "least_violating" ? "no balanced answer; the least-violating one"
+                   : r.status.empty()            ? "status not stored"
+                                                 : r.status) +
+              ", balance after the changes: <strong>" + html(r.balanceAfter.empty() ? "not stored" : r.balanceAfter) + "</strong>; " +
+              std::to_string(r.changes.size()) + " inputs changed.</p>\n");
+        if (r.changes.empty()) continue;
+        w.add(kTable);
+        w.add("<tr><th>Compartment</th><th>Input</th><th>Before</th><th>After</th><th>Change (%)</th><th>Confidence used</th></tr>\n");
+        for (const ReconcileRunSummary::Change& c : r.changes)
+            w.add("<tr>" + textCell(c.compartment) + textCell(changedInput(c)) +
+                  cell(c.before) + cell(c.after) + cell(c.percent) + textCell(c.confidence.empty() ? "-" : c.confidence) + "</tr>\n");
+        w.add("</table>\n");
+    }
+    if (stored) return;
     std::vector<std::string> notes;
     for (const Compartment& c : s.model.compartments())
         for (Param p : kAllParams) {
@@ -175,15 +228,58 @@ void reconcileAndRuns(Writer& w, const Project& project, const Scenario& s)
             if (source.find("reconciled") != std::string::npos)
                 notes.push_back(c.name + " " + std::string(paramSymbol(p)) + ": " + source);
         }
-    if (!notes.empty()) {
-        w.add("<h3>Reconcile changes</h3>\n<ul>\n");
-        for (const std::string& n : notes) w.add("<li>" + html(n) + "</li>\n");
-        w.add("</ul>\n");
-    }
+    if (notes.empty()) return;
+    w.add("<h3>Reconcile changes</h3>\n<p>No reconcile run is stored with this scenario; its source notes say which inputs "
+          "a reconcile changed:</p>\n<ul>\n");
+    for (const std::string& n : notes) w.add("<li>" + html(n) + "</li>\n");
+    w.add("</ul>\n");
+}
+
+// A stored ensemble as a summary: draws, seed, balanced share, a percentile table of the
+// key system outputs and the compartments that broke the balance most often.
+void ensembleSummaries(Writer& w, const Project& project, const Scenario& s)
+{
     for (const StoredRun& run : project.runs) {
-        if (!sameName(run.scenario, s.name)) continue;
-        w.add("<h3>Stored " + html(run.kind) + " run of " + html(run.created) + "</h3>\n<p>Settings and summary as kept in "
-              "the project:</p>\n<pre>" + html(run.settingsJson) + "\n" + html(run.summaryJson) + "</pre>\n");
+        if (!sameName(run.scenario, s.name) || run.kind == "reconcile") continue;
+        if (run.kind != "ensemble") {
+            w.add("<p>A stored " + html(run.kind) + " run of " + html(runDate(run)) + " is kept in the project (not summarised "
+                  "in this report).</p>\n");
+            continue;
+        }
+        const EnsembleRunSummary e = readEnsembleRun(run);
+        w.add("<h3>Ensemble of " + html(runDate(run)) + "</h3>\n");
+        if (!e.error.empty()) {
+            w.add("<p><em>" + html(e.error) + "; the ensemble cannot be summarised.</em></p>\n");
+            continue;
+        }
+        w.add("<p>" + std::to_string(e.draws) + " draws" +
+              (e.totalDraws > e.draws ? " of " + std::to_string(e.totalDraws) + " planned" : std::string()) + ", seed " +
+              html(e.seed.empty() ? "not stored" : e.seed) + (e.shape.empty() ? "" : ", inputs drawn " + html(e.shape)) +
+              "; balanced in " + std::to_string(e.balancedDraws) + " draws (<strong>" + html(displayNumber(100.0 * e.balancedShare)) +
+              " %</strong>).</p>\n");
+        if (e.cancelled || !e.complete)
+            w.add("<p><strong>Incomplete run:</strong> the figures cover only the draws finished.</p>\n");
+        if (e.keyOutputs.empty()) {
+            w.add("<p>The run holds neither system outputs nor EE to summarise here.</p>\n");
+        } else {
+            w.add(kTable);
+            w.add("<tr><th>Output</th><th>Unit</th><th>2.5 %</th><th>Median</th><th>97.5 %</th><th>Mean</th><th>Draws</th></tr>\n");
+            for (const EnsembleRunSummary::Row& r : e.keyOutputs)
+                w.add("<tr>" + textCell(r.label) + textCell(keyOutputUnit(r.unit, s.model.units)) + optionalCell(r.p2_5) +
+                      optionalCell(r.p50) + optionalCell(r.p97_5) + optionalCell(r.mean) + "<td>" + std::to_string(r.count) +
+                      "</td></tr>\n");
+            w.add("</table>\n<p class=\"caption\">Percentiles over the balanced draws, as stored with the run" +
+                  (e.outputsLeftOut ? "; " + std::to_string(e.outputsLeftOut) + " more compartments' EE" : std::string()) +
+                  ". Every output of every compartment is in the project's stored run (<code>tledger ensemble --json</code> "
+                  "prints the same for a new run).</p>\n");
+        }
+        if (!e.breakers.empty()) {
+            std::string list;
+            for (std::size_t k = 0; k < std::min<std::size_t>(5, e.breakers.size()); ++k)
+                list += (k ? "; " : "") + e.breakers[k].compartment + " " + std::to_string(e.breakers[k].draws) + " draws (" +
+                        displayNumber(100.0 * e.breakers[k].share) + " %)";
+            w.add("<p>Compartments that most often broke the balance: " + html(list) + ".</p>\n");
+        }
     }
 }
 
@@ -208,7 +304,8 @@ void scenarioSection(Writer& w, const Project& project, const Scenario& s, const
     w.add("<h3>Impact matrix</h3>\n");
     w.figure(impactMatrixSvg(a));
     if (a.available()) indicatorTable(w, one);
-    reconcileAndRuns(w, project, s);
+    reconcileChanges(w, project, s);
+    ensembleSummaries(w, project, s);
 }
 
 void comparisonSection(Writer& w, const ScenarioComparison& c)
