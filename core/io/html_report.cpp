@@ -180,6 +180,8 @@ std::string keyOutputUnit(KeyOutputUnit unit, const Units& u)
     return "-";
 }
 
+constexpr long long kFewBalancedDraws = 100;
+
 std::string runDate(const StoredRun& run) { return run.created.size() >= 10 ? run.created.substr(0, 10) : run.created; }
 
 // The reconcile JSON's parameter keys (core/reconcile adjustKey) as the report's symbols.
@@ -257,6 +259,11 @@ void ensembleSummaries(Writer& w, const Project& project, const Scenario& s)
               html(e.seed.empty() ? "not stored" : e.seed) + (e.shape.empty() ? "" : ", inputs drawn " + html(e.shape)) +
               "; balanced in " + std::to_string(e.balancedDraws) + " draws (<strong>" + html(displayNumber(100.0 * e.balancedShare)) +
               " %</strong>).</p>\n");
+        // Few balanced draws make the outer percentiles little more than the extremes (common
+        // practice, no source: a few hundred draws for a 95 % interval).
+        if (e.balancedDraws > 0 && e.balancedDraws < kFewBalancedDraws)
+            w.add("<p><strong>Only " + std::to_string(e.balancedDraws) + " draws balanced:</strong> the percentiles below rest "
+                  "on few draws; reconcile the scenario or check its data-confidence grades before reading them.</p>\n");
         if (e.cancelled || !e.complete)
             w.add("<p><strong>Incomplete run:</strong> the figures cover only the draws finished.</p>\n");
         if (e.keyOutputs.empty()) {
