@@ -64,7 +64,7 @@ private slots:
     void duplicateShowsNothingChanged();
     void lagoonScenariosSideBySide();
     void backgroundComparisonGivesTheSameAnswer();
-    void doubleClickOpensTheCellInItsScenario();
+    void aClickOpensTheCellInItsScenario();
     void reportDialogPreviewsAndSaves();
 };
 
@@ -150,7 +150,7 @@ void ComparePageTest::backgroundComparisonGivesTheSameAnswer()
     QCOMPARE(page.comparison()->differingOutputs(), inline_.comparison()->differingOutputs());
 }
 
-void ComparePageTest::doubleClickOpensTheCellInItsScenario()
+void ComparePageTest::aClickOpensTheCellInItsScenario()
 {
     QTemporaryDir dir;
     MainWindow w(tl::testing::workbenchTestOptions(dir));
@@ -172,8 +172,22 @@ void ComparePageTest::doubleClickOpensTheCellInItsScenario()
     const QModelIndex cell = view->model()->index(row, InputDifferencesModel::kFirstScenarioColumn + 1);
     view->scrollTo(cell);
     const QPoint at = view->visualRect(cell).center();
-    QTest::mouseClick(view->viewport(), Qt::LeftButton, {}, at);
-    QTest::mouseDClick(view->viewport(), Qt::LeftButton, {}, at);
+    // Selecting rows with Ctrl+click or Shift+click, or moving with the arrow keys, opens nothing.
+    QTest::mouseClick(view->viewport(), Qt::LeftButton, Qt::ControlModifier, at);
+    const QModelIndex other = view->model()->index(row == 0 ? 2 : 0, 0);
+    view->scrollTo(other);
+    QTest::mouseClick(view->viewport(), Qt::LeftButton, Qt::ShiftModifier, view->visualRect(other).center());
+    settle();
+    QVERIFY(view->selectionModel()->selectedRows().size() >= 2);
+    view->setFocus();
+    QTest::keyClick(view, Qt::Key_Down);
+    QTest::keyClick(view, Qt::Key_Up);
+    settle();
+    QCOMPARE(spy.count(), 0);
+    QCOMPARE(w.currentPage(), static_cast<QWidget*>(page));
+    // One plain click opens the cell.
+    view->scrollTo(cell);
+    QTest::mouseClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(cell).center());
     settle();
     QCOMPARE(spy.count(), 1);
     QCOMPARE(spy.front().at(0).toString(), QStringLiteral("clam raking closed"));
@@ -189,8 +203,12 @@ void ComparePageTest::doubleClickOpensTheCellInItsScenario()
     QVERIFY(landings >= 0);
     const QModelIndex refCell = view->model()->index(landings, InputDifferencesModel::kFirstScenarioColumn);
     view->scrollTo(refCell);
-    QTest::mouseClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
-    QTest::mouseDClick(view->viewport(), Qt::LeftButton, {}, view->visualRect(refCell).center());
+    // From the keyboard: the current row, then Enter.
+    view->setFocus();
+    view->setCurrentIndex(refCell);
+    settle();
+    QCOMPARE(spy.count(), 1);
+    QTest::keyClick(view, Qt::Key_Return);
     settle();
     QCOMPARE(spy.count(), 2);
     QCOMPARE(w.document()->scenario().name, std::string("baseline"));
