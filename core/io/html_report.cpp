@@ -477,6 +477,24 @@ HtmlReport makeHtmlReport(const Project& project, const ReportOptions& options)
     return report;
 }
 
+std::string withInlineFigures(const HtmlReport& report)
+{
+    std::string out;
+    out.reserve(report.html.size());
+    std::size_t from = 0;
+    for (std::size_t k = 0; k < report.figures.size(); ++k) {
+        if (report.figures[k].svg.empty()) continue;  // written as its caption, with no marker
+        const std::string marker = "<p>" + figureMarker(k) + "</p>\n";
+        const std::size_t at = report.html.find(marker, from);
+        if (at == std::string::npos) continue;  // a report built without markers
+        out.append(report.html, from, at - from);
+        out += report.figures[k].svg;
+        from = at + marker.size();
+    }
+    out.append(report.html, from, std::string::npos);
+    return out;
+}
+
 std::string htmlReport(const Project& project) { return makeHtmlReport(project, {}).html; }
 
 }  // namespace tl
