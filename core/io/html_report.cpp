@@ -31,13 +31,21 @@ std::string textCell(std::string_view text) { return "<td class=\"text\">" + htm
 // not the style sheet.
 constexpr const char* kTable = "<table border=\"1\" cellspacing=\"0\" cellpadding=\"3\">\n";
 
+// Figures taller than this (SVG pixels; a third of a printed page) begin a printed page.
+constexpr double kTallFigure = 200.0;
+
 class Writer {
 public:
     explicit Writer(const ReportOptions& options) : options_(options) {}
 
     void add(std::string_view text) { out_ += text; }
-    void figure(SvgFigure f)
+    // `heading` (an h3) goes with the figure: a tall figure starts a new printed page with
+    // its heading, so that no heading is left alone at the foot of a page (browsers and
+    // Qt's rich text, which draws the PDF, both honour page-break-before).
+    void figure(SvgFigure f, std::string_view heading)
     {
+        const bool tall = !f.svg.empty() && f.height > kTallFigure;
+        out_ += std::string(tall ? "<h3 style=\"page-break-before: always\">" : "<h3>") + html(heading) + "</h3>\n";
         const std::size_t k = figures_.size();
         out_ += "<div class=\"figure\">\n<p class=\"figure-title\"><strong>" + html(f.title) + "</strong></p>\n";
         if (f.svg.empty()) {
@@ -91,7 +99,7 @@ void inputsTable(Writer& w, const Model& model)
 {
     w.add("<h3>Inputs, data confidence and sources</h3>\n");
     w.add(kTable);
-    w.add("<tr><th>Compartment</th><th>Input</th><th>Value</th><th>Unit</th><th>Data confidence</th><th>Source</th></tr>\n");
+    w.add("<thead><tr><th>Compartment</th><th>Input</th><th>Value</th><th>Unit</th><th>Data confidence</th><th>Source</th></tr></thead>\n");
     std::size_t ungraded = 0, unsourced = 0, given = 0;
     for (const Compartment& c : model.compartments())
         for (Param p : kAllParams) {
@@ -111,8 +119,8 @@ void balanceSheetTable(Writer& w, const BalanceSheet& sheet)
 {
     w.add("<h3>Balance sheet</h3>\n");
     w.add(kTable);
-    w.add("<tr><th>Compartment</th><th>Kind</th><th>TL</th><th>B</th><th>P/B</th><th>Q/B</th><th>EE</th>"
-          "<th>P/Q</th><th>P</th><th>Q</th><th>R</th><th>Catch</th></tr>\n");
+    w.add("<thead><tr><th>Compartment</th><th>Kind</th><th>TL</th><th>B</th><th>P/B</th><th>Q/B</th><th>EE</th>"
+          "<th>P/Q</th><th>P</th><th>Q</th><th>R</th><th>Catch</th></tr></thead>\n");
     for (const CompartmentBalance& row : sheet.rows) {
         const auto solved = [&](Param p) { return row.solved.contains(p); };
         w.add("<tr>" + textCell(row.name) + textCell(kindKey(row.kind)) + cell(row.tl) + cell(row.biomass, solved(Param::Biomass)) +
@@ -141,9 +149,9 @@ void checksList(Writer& w, const Model& model, const BalanceSheet& sheet)
 void levelTable(Writer& w, const NetworkAnalysis& a)
 {
     w.add(kTable);
-    w.add("<tr><th>Level</th><th>Throughput (" + html(a.flowUnit()) + ")</th><th>Biomass (" + html(a.stockUnit()) +
+    w.add("<thead><tr><th>Level</th><th>Throughput (" + html(a.flowUnit()) + ")</th><th>Biomass (" + html(a.stockUnit()) +
           ")</th><th>Production (" + html(a.flowUnit()) + ")</th><th>Catch (" + html(a.flowUnit()) +
-          ")</th><th>TE (%)</th></tr>\n");
+          ")</th><th>TE (%)</th></tr></thead>\n");
     for (const TrophicLevelBin& bin : a.levels.combined.levels) {
         if (bin.level > 12) break;  // deeper levels of long chains hold next to nothing
         w.add("<tr>" + textCell(levelName(bin.level)) + cell(bin.throughput) + cell(bin.biomass) + cell(bin.production) +
@@ -158,7 +166,7 @@ void indicatorTable(Writer& w, const ScenarioComparison& one)
 {
     w.add("<h3>System indicators</h3>\n");
     w.add(kTable);
-    w.add("<tr><th>Indicator</th><th>Value</th><th>Unit</th></tr>\n");
+    w.add("<thead><tr><th>Indicator</th><th>Value</th><th>Unit</th></tr></thead>\n");
     for (const ComparedOutput& o : one.outputs)
         if (o.group == OutputGroup::System)
             w.add("<tr>" + textCell(o.label) + cell(o.values.front()) + textCell(o.unit) + "</tr>\n");
@@ -216,7 +224,7 @@ void reconcileChanges(Writer& w, const Project& project, const Scenario& s)
               std::to_string(r.changes.size()) + " inputs changed.</p>\n");
         if (r.changes.empty()) continue;
         w.add(kTable);
-        w.add("<tr><th>Compartment</th><th>Input</th><th>Before</th><th>After</th><th>Change (%)</th><th>Confidence used</th></tr>\n");
+        w.add("<thead><tr><th>Compartment</th><th>Input</th><th>Before</th><th>After</th><th>Change (%)</th><th>Confidence used</th></tr></thead>\n");
         for (const ReconcileRunSummary::Change& c : r.changes)
             w.add("<tr>" + textCell(c.compartment) + textCell(changedInput(c)) +
                   cell(c.before) + cell(c.after) + cell(c.percent) + textCell(c.confidence.empty() ? "-" : c.confidence) + "</tr>\n");
@@ -270,7 +278,7 @@ void ensembleSummaries(Writer& w, const Project& project, const Scenario& s)
             w.add("<p>The run holds neither system outputs nor EE to summarise here.</p>\n");
         } else {
             w.add(kTable);
-            w.add("<tr><th>Output</th><th>Unit</th><th>2.5 %</th><th>Median</th><th>97.5 %</th><th>Mean</th><th>Draws</th></tr>\n");
+            w.add("<thead><tr><th>Output</th><th>Unit</th><th>2.5 %</th><th>Median</th><th>97.5 %</th><th>Mean</th><th>Draws</th></tr></thead>\n");
             for (const EnsembleRunSummary::Row& r : e.keyOutputs)
                 w.add("<tr>" + textCell(r.label) + textCell(keyOutputUnit(r.unit, s.model.units)) + optionalCell(r.p2_5) +
                       optionalCell(r.p50) + optionalCell(r.p97_5) + optionalCell(r.mean) + "<td>" + std::to_string(r.count) +
@@ -290,10 +298,11 @@ void ensembleSummaries(Writer& w, const Project& project, const Scenario& s)
     }
 }
 
+// `newPage`: printed from the top of a page (every scenario after a first one, or after a comparison).
 void scenarioSection(Writer& w, const Project& project, const Scenario& s, const BalanceSheet& sheet,
-                     const NetworkAnalysis& a, const ScenarioComparison& one)
+                     const NetworkAnalysis& a, const ScenarioComparison& one, bool newPage)
 {
-    w.add("<h2>Scenario: " + html(s.name) + "</h2>\n");
+    w.add(std::string(newPage ? "<h2 style=\"page-break-before: always\">" : "<h2>") + "Scenario: " + html(s.name) + "</h2>\n");
     if (!s.description.empty()) w.add("<p>" + html(s.description) + "</p>\n");
     // A duplicate is a frozen copy: say so, with the day it was made (ISO date).
     if (!s.parent.empty())
@@ -303,13 +312,10 @@ void scenarioSection(Writer& w, const Project& project, const Scenario& s, const
     checksList(w, s.model, sheet);
     inputsTable(w, s.model);
     balanceSheetTable(w, sheet);
-    w.add("<h3>Trophic levels</h3>\n");
-    w.figure(levelBarsSvg(a));
+    w.figure(levelBarsSvg(a), "Trophic levels");
     if (a.available()) levelTable(w, a);
-    w.add("<h3>Flow map</h3>\n");
-    w.figure(flowMapSvg(a));
-    w.add("<h3>Impact matrix</h3>\n");
-    w.figure(impactMatrixSvg(a));
+    w.figure(flowMapSvg(a), "Flow map");
+    w.figure(impactMatrixSvg(a), "Impact matrix");
     if (a.available()) indicatorTable(w, one);
     reconcileChanges(w, project, s);
     ensembleSummaries(w, project, s);
@@ -324,9 +330,9 @@ void comparisonSection(Writer& w, const ScenarioComparison& c)
     if (c.inputs.empty()) w.add("<p>None: the scenarios have the same inputs.</p>\n");
     else {
         w.add(kTable);
-        w.add("<tr><th>Compartment</th><th>Input</th>");
+        w.add("<thead><tr><th>Compartment</th><th>Input</th>");
         for (const std::string& s : c.scenarios) w.add("<th>" + html(s) + "</th>");
-        w.add("<th>What differs</th><th>Source notes</th></tr>\n");
+        w.add("<th>What differs</th><th>Source notes</th></tr></thead>\n");
         for (const InputDifference& d : c.inputs) {
             w.add("<tr>" + textCell(d.compartment.empty() ? "(fleet)" : d.compartment) + textCell(d.label));
             for (const std::string& v : d.shown) w.add(textCell(v));
@@ -345,10 +351,10 @@ void comparisonSection(Writer& w, const ScenarioComparison& c)
     if (differing == 0) w.add("<p>None.</p>\n");
     else {
         w.add(kTable);
-        w.add("<tr><th>Subject</th><th>Output</th><th>Unit</th>");
+        w.add("<thead><tr><th>Subject</th><th>Output</th><th>Unit</th>");
         for (const std::string& s : c.scenarios) w.add("<th>" + html(s) + "</th>");
         for (std::size_t s = 1; s < n; ++s) w.add("<th>Change, " + html(c.scenarios[s]) + "</th>");
-        w.add("</tr>\n");
+        w.add("</tr></thead>\n");
         for (const ComparedOutput& o : c.outputs) {
             if (!o.differs()) continue;
             const std::string subject = o.group == OutputGroup::System ? "system"
@@ -368,11 +374,9 @@ void comparisonSection(Writer& w, const ScenarioComparison& c)
         }
         w.add("</table>\n");
     }
-    w.add("<h3>Level bars side by side</h3>\n");
-    w.figure(levelBarsComparisonSvg(c));
+    w.figure(levelBarsComparisonSvg(c), "Level bars side by side");
     for (std::size_t s = 1; s < n; ++s) {
-        w.add("<h3>Largest relative changes: " + html(c.scenarios[s]) + "</h3>\n");
-        w.figure(relativeChangesSvg(c, s));
+        w.figure(relativeChangesSvg(c, s), "Largest relative changes: " + c.scenarios[s]);
     }
     const bool anyEnsemble = std::any_of(c.outputs.begin(), c.outputs.end(), [](const ComparedOutput& o) {
         return std::any_of(o.differences.begin(), o.differences.end(), [](const OutputDifference& d) { return d.sameSignShare.has_value(); });
@@ -466,7 +470,7 @@ HtmlReport makeHtmlReport(const Project& project, const ReportOptions& options)
         const Scenario& s = *picked[k];
         // One scenario's own figures: a comparison of one (its outputs are the indicators).
         const ScenarioComparison one = compareScenarios({&s});
-        scenarioSection(w, project, s, one.sheets.front(), one.analyses.front(), one);
+        scenarioSection(w, project, s, one.sheets.front(), one.analyses.front(), one, k > 0 || options.compare);
     }
     w.add("<hr>\n<p class=\"notice\">" + html(kDecisionSupportNotice) + "</p>\n");
     w.add("<p>Made by Trophic Ledger " + html(p.programVersion) + (p.date.empty() ? "" : " on " + html(p.date)) +
