@@ -296,6 +296,8 @@ void ComparePageTest::reportIsBuiltOffTheGuiThread()
     dialog.setScope(1);  // every scenario
     QVERIFY(dialog.building());
     dialog.show();
+    QApplication::processEvents();
+    keep(&dialog, QStringLiteral("report-building"));
     int ticks = 0;
     qint64 last = clock.elapsed(), longestGap = 0;  // the longest time the event loop was away
     QTimer tick;
