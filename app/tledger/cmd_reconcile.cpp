@@ -10,7 +10,8 @@
 //                       NEW the project already has is refused.
 //   a CSV model folder  --save-as names a new CSV model folder (it must not exist); it is
 //                       built beside its final place and renamed in, so it appears whole.
-// An already balanced scenario is not copied. A least-violating answer (exit 1) is saved
+// In a project the run (settings, changes) is stored with the new scenario (kind
+// "reconcile"), which the report reads. An already balanced scenario is not copied. A least-violating answer (exit 1) is saved
 // too, its description starting "NOT balanced", so that it can be inspected.
 // Exit: 0 balanced (or already balanced), 1 only a least-violating solution, 2 bad input.
 #include <filesystem>
@@ -287,6 +288,13 @@ int cmdReconcile(const Args& rawArgs)
                 return 2;
             }
             savedAs = out.name;
+            // The changes, kept with the new scenario for reports (a run of kind "reconcile").
+            const auto stored = opened.file->addRun(reconcileRun(scenario, result, o, out.name, out.created));
+            if (!stored.value) {
+                printProblems(stored.problems);
+                std::cerr << "warning: the reconcile run is not stored in " << path.string()
+                          << " (the new scenario is; its source notes name the changes)\n";
+            }
         }
     }
 

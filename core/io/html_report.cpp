@@ -10,6 +10,7 @@
 #include "core/compare/comparison_report.h"
 #include "core/compare/scenario_comparison.h"
 #include "core/io/balance_report.h"
+#include "core/io/stored_run_summary.h"
 #include "core/io/text_table.h"
 #include "core/model/names.h"
 
@@ -30,13 +31,21 @@ std::string textCell(std::string_view text) { return "<td class=\"text\">" + htm
 // not the style sheet.
 constexpr const char* kTable = "<table border=\"1\" cellspacing=\"0\" cellpadding=\"3\">\n";
 
+// Figures taller than this (SVG pixels; a third of a printed page) begin a printed page.
+constexpr double kTallFigure = 200.0;
+
 class Writer {
 public:
     explicit Writer(const ReportOptions& options) : options_(options) {}
 
     void add(std::string_view text) { out_ += text; }
-    void figure(SvgFigure f)
+    // `heading` (an h3) goes with the figure: a tall figure starts a new printed page with
+    // its heading, so that no heading is left alone at the foot of a page (browsers and
+    // Qt's rich text, which draws the PDF, both honour page-break-before).
+    void figure(SvgFigure f, std::string_view heading)
     {
+        const bool tall = !f.svg.empty() && f.height > kTallFigure;
+        out_ += std::string(tall ? "<h3 style=\"page-break-before: always\">" : "<h3>") + html(heading) + "</h3>\n";
         const std::size_t k = figures_.size();
         out_ += "<div class=\"figure\">\n<p class=\"figure-title\"><strong>" + html(f.title) + "</strong></p>\n";
         if (f.svg.empty()) {
@@ -90,7 +99,7 @@ void inputsTable(Writer& w, const Model& model)
 {
     w.add("<h3>Inputs, data confidence and sources</h3>\n");
     w.add(kTable);
-    w.add("<tr><th>Compartment</th><th>Input</th><th>Value</th><th>Unit</th><th>Data confidence</th><th>Source</th></tr>\n");
+    w.add("<thead><tr><th>Compartment</th><th>Input</th><th>Value</th><th>Unit</th><th>Data confidence</th><th>Source</th></tr></thead>\n");
     std::size_t ungraded = 0, unsourced = 0, given = 0;
     for (const Compartment& c : model.compartments())
         for (Param p : kAllParams) {
@@ -110,8 +119,8 @@ void balanceSheetTable(Writer& w, const BalanceSheet& sheet)
 {
     w.add("<h3>Balance sheet</h3>\n");
     w.add(kTable);
-    w.add("<tr><th>Compartment</th><th>Kind</th><th>TL</th><th>B</th><th>P/B</th><th>Q/B</th><th>EE</th>"
-          "<th>P/Q</th><th>P</th><th>Q</th><th>R</th><th>Catch</th></tr>\n");
+    w.add("<thead><tr><th>Compartment</th><th>Kind</th><th>TL</th><th>B</th><th>P/B</th><th>Q/B</th><th>EE</th>"
+          "<th>P/Q</th><th>P</th><th>Q</th><th>R</th><th>Catch</th></tr></thead>\n");
     for (const CompartmentBalance& row : sheet.rows) {
         const auto solved = [&](Param p) { return row.solved.contains(p); };
         w.add("<tr>" + textCell(row.name) + textCell(kindKey(row.kind)) + cell(row.tl) + cell(row.biomass, solved(Param::Biomass)) +
@@ -140,9 +149,9 @@ void checksList(Writer& w, const Model& model, const BalanceSheet& sheet)
 void levelTable(Writer& w, const NetworkAnalysis& a)
 {
     w.add(kTable);
-    w.add("<tr><th>Level</th><th>Throughput (" + html(a.flowUnit()) + ")</th><th>Biomass (" + html(a.stockUnit()) +
+    w.add("<thead><tr><th>Level</th><th>Throughput (" + html(a.flowUnit()) + ")</th><th>Biomass (" + html(a.stockUnit()) +
           ")</th><th>Production (" + html(a.flowUnit()) + ")</th><th>Catch (" + html(a.flowUnit()) +
-          ")</th><th>TE (%)</th></tr>\n");
+          ")</th><th>TE (%)</th></tr></thead>\n");
     for (const TrophicLevelBin& bin : a.levels.combined.levels) {
         if (bin.level > 12) break;  // deeper levels of long chains hold next to nothing
         w.add("<tr>" + textCell(levelName(bin.level)) + cell(bin.throughput) + cell(bin.biomass) + cell(bin.production) +
@@ -157,7 +166,7 @@ void indicatorTable(Writer& w, const ScenarioComparison& one)
 {
     w.add("<h3>System indicators</h3>\n");
     w.add(kTable);
-    w.add("<tr><th>Indicator</th><th>Value</th><th>Unit</th></tr>\n");
+    w.add("<thead><tr><th>Indicator</th><th>Value</th><th>Unit</th></tr></thead>\n");
     for (const ComparedOutput& o : one.outputs)
         if (o.group == OutputGroup::System)
             w.add("<tr>" + textCell(o.label) + cell(o.values.front()) + textCell(o.unit) + "</tr>\n");
@@ -166,8 +175,62 @@ void indicatorTable(Writer& w, const ScenarioComparison& one)
           "Christensen 1995 (primary production required); Pauly et al. 1998 (mean TL of the catch).</p>\n");
 }
 
-void reconcileAndRuns(Writer& w, const Project& project, const Scenario& s)
+std::string optionalCell(const std::optional<double>& v) { return v ? cell(*v) : textCell("-"); }
+
+std::string keyOutputUnit(KeyOutputUnit unit, const Units& u)
 {
+    switch (unit) {
+    case KeyOutputUnit::Percent: return "%";
+    case KeyOutputUnit::Flow: return u.flow();
+    case KeyOutputUnit::Biomass: return u.biomass();
+    case KeyOutputUnit::None: break;
+    }
+    return "-";
+}
+
+constexpr long long kFewBalancedDraws = 100;
+
+std::string runDate(const StoredRun& run) { return run.created.size() >= 10 ? run.created.substr(0, 10) : run.created; }
+
+// The reconcile JSON's parameter keys (core/reconcile adjustKey) as the report's symbols.
+std::string changedInput(const ReconcileRunSummary::Change& c)
+{
+    if (c.parameter == "diet") return "diet share of " + c.prey;
+    if (c.parameter == "b") return "B";
+    if (c.parameter == "pb") return "P/B";
+    if (c.parameter == "qb") return "Q/B";
+    return c.parameter;
+}
+
+// Reconcile changes: from the reconcile run stored with the scenario it made; a project
+// reconciled before runs were stored has only the source notes the reconcile wrote.
+void reconcileChanges(Writer& w, const Project& project, const Scenario& s)
+{
+    bool stored = false;
+    for (const StoredRun& run : project.runs) {
+        if (run.kind != "reconcile" || !sameName(run.scenario, s.name)) continue;
+        stored = true;
+        const ReconcileRunSummary r = readReconcileRun(run);
+        w.add("<h3>Reconcile changes (" + html(runDate(run)) + ")</h3>\n");
+        if (!r.error.empty()) {
+            w.add("<p><em>" + html(r.error) + "; the changes cannot be shown.</em></p>\n");
+            continue;
+        }
+        w.add("<p>Made by reconciling scenario <strong>" + html(r.from) + "</strong>: " +
+              html(r.status == "least_violating" ? "no balanced answer; the least-violating one"
+                   : r.status.empty()            ? "status not stored"
+                                                 : r.status) +
+              ", balance after the changes: <strong>" + html(r.balanceAfter.empty() ? "not stored" : r.balanceAfter) + "</strong>; " +
+              std::to_string(r.changes.size()) + " inputs changed.</p>\n");
+        if (r.changes.empty()) continue;
+        w.add(kTable);
+        w.add("<thead><tr><th>Compartment</th><th>Input</th><th>Before</th><th>After</th><th>Change (%)</th><th>Confidence used</th></tr></thead>\n");
+        for (const ReconcileRunSummary::Change& c : r.changes)
+            w.add("<tr>" + textCell(c.compartment) + textCell(changedInput(c)) +
+                  cell(c.before) + cell(c.after) + cell(c.percent) + textCell(c.confidence.empty() ? "-" : c.confidence) + "</tr>\n");
+        w.add("</table>\n");
+    }
+    if (stored) return;
     std::vector<std::string> notes;
     for (const Compartment& c : s.model.compartments())
         for (Param p : kAllParams) {
@@ -175,22 +238,71 @@ void reconcileAndRuns(Writer& w, const Project& project, const Scenario& s)
             if (source.find("reconciled") != std::string::npos)
                 notes.push_back(c.name + " " + std::string(paramSymbol(p)) + ": " + source);
         }
-    if (!notes.empty()) {
-        w.add("<h3>Reconcile changes</h3>\n<ul>\n");
-        for (const std::string& n : notes) w.add("<li>" + html(n) + "</li>\n");
-        w.add("</ul>\n");
-    }
+    if (notes.empty()) return;
+    w.add("<h3>Reconcile changes</h3>\n<p>No reconcile run is stored with this scenario; its source notes say which inputs "
+          "a reconcile changed:</p>\n<ul>\n");
+    for (const std::string& n : notes) w.add("<li>" + html(n) + "</li>\n");
+    w.add("</ul>\n");
+}
+
+// A stored ensemble as a summary: draws, seed, balanced share, a percentile table of the
+// key system outputs and the compartments that broke the balance most often.
+void ensembleSummaries(Writer& w, const Project& project, const Scenario& s)
+{
     for (const StoredRun& run : project.runs) {
-        if (!sameName(run.scenario, s.name)) continue;
-        w.add("<h3>Stored " + html(run.kind) + " run of " + html(run.created) + "</h3>\n<p>Settings and summary as kept in "
-              "the project:</p>\n<pre>" + html(run.settingsJson) + "\n" + html(run.summaryJson) + "</pre>\n");
+        if (!sameName(run.scenario, s.name) || run.kind == "reconcile") continue;
+        if (run.kind != "ensemble") {
+            w.add("<p>A stored " + html(run.kind) + " run of " + html(runDate(run)) + " is kept in the project (not summarised "
+                  "in this report).</p>\n");
+            continue;
+        }
+        const EnsembleRunSummary e = readEnsembleRun(run);
+        w.add("<h3>Ensemble of " + html(runDate(run)) + "</h3>\n");
+        if (!e.error.empty()) {
+            w.add("<p><em>" + html(e.error) + "; the ensemble cannot be summarised.</em></p>\n");
+            continue;
+        }
+        w.add("<p>" + std::to_string(e.draws) + " draws" +
+              (e.totalDraws > e.draws ? " of " + std::to_string(e.totalDraws) + " planned" : std::string()) + ", seed " +
+              html(e.seed.empty() ? "not stored" : e.seed) + (e.shape.empty() ? "" : ", inputs drawn " + html(e.shape)) +
+              "; balanced in " + std::to_string(e.balancedDraws) + " draws (<strong>" + html(displayNumber(100.0 * e.balancedShare)) +
+              " %</strong>).</p>\n");
+        // Few balanced draws make the outer percentiles little more than the extremes (common
+        // practice, no source: a few hundred draws for a 95 % interval).
+        if (e.balancedDraws > 0 && e.balancedDraws < kFewBalancedDraws)
+            w.add("<p><strong>Only " + std::to_string(e.balancedDraws) + " draws balanced:</strong> the percentiles below rest "
+                  "on few draws; reconcile the scenario or check its data-confidence grades before reading them.</p>\n");
+        if (e.cancelled || !e.complete)
+            w.add("<p><strong>Incomplete run:</strong> the figures cover only the draws finished.</p>\n");
+        if (e.keyOutputs.empty()) {
+            w.add("<p>The run holds neither system outputs nor EE to summarise here.</p>\n");
+        } else {
+            w.add(kTable);
+            w.add("<thead><tr><th>Output</th><th>Unit</th><th>2.5 %</th><th>Median</th><th>97.5 %</th><th>Mean</th><th>Draws</th></tr></thead>\n");
+            for (const EnsembleRunSummary::Row& r : e.keyOutputs)
+                w.add("<tr>" + textCell(r.label) + textCell(keyOutputUnit(r.unit, s.model.units)) + optionalCell(r.p2_5) +
+                      optionalCell(r.p50) + optionalCell(r.p97_5) + optionalCell(r.mean) + "<td>" + std::to_string(r.count) +
+                      "</td></tr>\n");
+            w.add("</table>\n<p class=\"caption\">Percentiles over the balanced draws, as stored with the run" +
+                  (e.outputsLeftOut ? "; " + std::to_string(e.outputsLeftOut) + " more compartments' EE" : std::string()) +
+                  ". Every output of every compartment is in the project's stored run (<code>tledger ensemble --json</code> "
+                  "prints the same for a new run).</p>\n");
+        }
+        if (!e.breakers.empty()) {
+            std::string list;
+            for (std::size_t k = 0; k < std::min<std::size_t>(5, e.breakers.size()); ++k)
+                list += (k ? "; " : "") + e.breakers[k].compartment + " " + std::to_string(e.breakers[k].draws) + " draws (" +
+                        displayNumber(100.0 * e.breakers[k].share) + " %)";
+            w.add("<p>Compartments that most often broke the balance: " + html(list) + ".</p>\n");
+        }
     }
 }
 
+// `newPage`: printed from the top of a page (every scenario after a first one, or after a comparison).
 void scenarioSection(Writer& w, const Project& project, const Scenario& s, const BalanceSheet& sheet,
-                     const NetworkAnalysis& a, const ScenarioComparison& one)
+                     const NetworkAnalysis& a, const ScenarioComparison& one, bool newPage)
 {
-    w.add("<h2>Scenario: " + html(s.name) + "</h2>\n");
+    w.add(std::string(newPage ? "<h2 style=\"page-break-before: always\">" : "<h2>") + "Scenario: " + html(s.name) + "</h2>\n");
     if (!s.description.empty()) w.add("<p>" + html(s.description) + "</p>\n");
     // A duplicate is a frozen copy: say so, with the day it was made (ISO date).
     if (!s.parent.empty())
@@ -200,15 +312,13 @@ void scenarioSection(Writer& w, const Project& project, const Scenario& s, const
     checksList(w, s.model, sheet);
     inputsTable(w, s.model);
     balanceSheetTable(w, sheet);
-    w.add("<h3>Trophic levels</h3>\n");
-    w.figure(levelBarsSvg(a));
+    w.figure(levelBarsSvg(a), "Trophic levels");
     if (a.available()) levelTable(w, a);
-    w.add("<h3>Flow map</h3>\n");
-    w.figure(flowMapSvg(a));
-    w.add("<h3>Impact matrix</h3>\n");
-    w.figure(impactMatrixSvg(a));
+    w.figure(flowMapSvg(a), "Flow map");
+    w.figure(impactMatrixSvg(a), "Impact matrix");
     if (a.available()) indicatorTable(w, one);
-    reconcileAndRuns(w, project, s);
+    reconcileChanges(w, project, s);
+    ensembleSummaries(w, project, s);
 }
 
 void comparisonSection(Writer& w, const ScenarioComparison& c)
@@ -220,9 +330,9 @@ void comparisonSection(Writer& w, const ScenarioComparison& c)
     if (c.inputs.empty()) w.add("<p>None: the scenarios have the same inputs.</p>\n");
     else {
         w.add(kTable);
-        w.add("<tr><th>Compartment</th><th>Input</th>");
+        w.add("<thead><tr><th>Compartment</th><th>Input</th>");
         for (const std::string& s : c.scenarios) w.add("<th>" + html(s) + "</th>");
-        w.add("<th>What differs</th><th>Source notes</th></tr>\n");
+        w.add("<th>What differs</th><th>Source notes</th></tr></thead>\n");
         for (const InputDifference& d : c.inputs) {
             w.add("<tr>" + textCell(d.compartment.empty() ? "(fleet)" : d.compartment) + textCell(d.label));
             for (const std::string& v : d.shown) w.add(textCell(v));
@@ -241,10 +351,10 @@ void comparisonSection(Writer& w, const ScenarioComparison& c)
     if (differing == 0) w.add("<p>None.</p>\n");
     else {
         w.add(kTable);
-        w.add("<tr><th>Subject</th><th>Output</th><th>Unit</th>");
+        w.add("<thead><tr><th>Subject</th><th>Output</th><th>Unit</th>");
         for (const std::string& s : c.scenarios) w.add("<th>" + html(s) + "</th>");
         for (std::size_t s = 1; s < n; ++s) w.add("<th>Change, " + html(c.scenarios[s]) + "</th>");
-        w.add("</tr>\n");
+        w.add("</tr></thead>\n");
         for (const ComparedOutput& o : c.outputs) {
             if (!o.differs()) continue;
             const std::string subject = o.group == OutputGroup::System ? "system"
@@ -264,11 +374,9 @@ void comparisonSection(Writer& w, const ScenarioComparison& c)
         }
         w.add("</table>\n");
     }
-    w.add("<h3>Level bars side by side</h3>\n");
-    w.figure(levelBarsComparisonSvg(c));
+    w.figure(levelBarsComparisonSvg(c), "Level bars side by side");
     for (std::size_t s = 1; s < n; ++s) {
-        w.add("<h3>Largest relative changes: " + html(c.scenarios[s]) + "</h3>\n");
-        w.figure(relativeChangesSvg(c, s));
+        w.figure(relativeChangesSvg(c, s), "Largest relative changes: " + c.scenarios[s]);
     }
     const bool anyEnsemble = std::any_of(c.outputs.begin(), c.outputs.end(), [](const ComparedOutput& o) {
         return std::any_of(o.differences.begin(), o.differences.end(), [](const OutputDifference& d) { return d.sameSignShare.has_value(); });
@@ -362,7 +470,7 @@ HtmlReport makeHtmlReport(const Project& project, const ReportOptions& options)
         const Scenario& s = *picked[k];
         // One scenario's own figures: a comparison of one (its outputs are the indicators).
         const ScenarioComparison one = compareScenarios({&s});
-        scenarioSection(w, project, s, one.sheets.front(), one.analyses.front(), one);
+        scenarioSection(w, project, s, one.sheets.front(), one.analyses.front(), one, k > 0 || options.compare);
     }
     w.add("<hr>\n<p class=\"notice\">" + html(kDecisionSupportNotice) + "</p>\n");
     w.add("<p>Made by Trophic Ledger " + html(p.programVersion) + (p.date.empty() ? "" : " on " + html(p.date)) +
@@ -371,6 +479,24 @@ HtmlReport makeHtmlReport(const Project& project, const ReportOptions& options)
     report.html = std::move(w.text());
     report.figures = std::move(w.figures());
     return report;
+}
+
+std::string withInlineFigures(const HtmlReport& report)
+{
+    std::string out;
+    out.reserve(report.html.size());
+    std::size_t from = 0;
+    for (std::size_t k = 0; k < report.figures.size(); ++k) {
+        if (report.figures[k].svg.empty()) continue;  // written as its caption, with no marker
+        const std::string marker = "<p>" + figureMarker(k) + "</p>\n";
+        const std::size_t at = report.html.find(marker, from);
+        if (at == std::string::npos) continue;  // a report built without markers
+        out.append(report.html, from, at - from);
+        out += report.figures[k].svg;
+        from = at + marker.size();
+    }
+    out.append(report.html, from, std::string::npos);
+    return out;
 }
 
 std::string htmlReport(const Project& project) { return makeHtmlReport(project, {}).html; }

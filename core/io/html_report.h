@@ -52,6 +52,10 @@ struct HtmlReport {
 HtmlReport makeHtmlReport(const Project& project, const ReportOptions& options);
 // The marker text standing for figure k when ReportOptions::figureMarkers is set.
 std::string figureMarker(std::size_t k);
+// A report built with figure markers as the self-contained HTML built without them: each
+// marker's paragraph replaced by its figure's SVG (byte for byte what makeHtmlReport
+// writes without markers), so that a preview can be saved without building it again.
+std::string withInlineFigures(const HtmlReport& report);
 
 // Every scenario, no provenance: makeHtmlReport(project, {}).html.
 std::string htmlReport(const Project& project);

@@ -7,6 +7,7 @@
 #include <map>
 
 #include "core/compare/comparison_report.h"
+#include "core/io/impact_colour_ramp.h"
 #include "core/io/text_table.h"
 
 namespace tl {
@@ -321,23 +322,7 @@ SvgFigure impactMatrixSvg(const NetworkAnalysis& a)
     const double cell = n > 30 ? 12 : 16, left = labelWidth + 12, top = labelWidth + 12;
     const double width = left + cell * static_cast<double>(n) + 20, height = top + cell * static_cast<double>(n) + 50;
     Svg svg(std::max(width, 420.0), height, title);
-    // The ramps of ui/analysis/impact_colour_map.cpp (ColorBrewer PRGn classes).
-    static constexpr std::array<unsigned, 5> purples = {0xffffff, 0xe7d4e8, 0xc2a5cf, 0x9970ab, 0x762a83};
-    static constexpr std::array<unsigned, 5> greens = {0xffffff, 0xd9f0d3, 0xa6dba0, 0x5aae61, 0x1b7837};
-    const auto colour = [&](double v) {
-        if (!std::isfinite(v) || !(range > 0) || v == 0) return std::string("#ffffff");
-        const double t = std::min(1.0, std::abs(v) / range) * 4.0;
-        const auto& ramp = v < 0 ? purples : greens;
-        const std::size_t k = std::min<std::size_t>(static_cast<std::size_t>(t), 3);
-        const double f = t - static_cast<double>(k);
-        char text[8];
-        const auto channel = [&](int shift) {
-            const double lo = (ramp[k] >> shift) & 0xff, hi = (ramp[k + 1] >> shift) & 0xff;
-            return static_cast<unsigned>(std::lround(lo + (hi - lo) * f));
-        };
-        std::snprintf(text, sizeof text, "#%02x%02x%02x", channel(16), channel(8), channel(0));
-        return std::string(text);
-    };
+    const auto colour = [range](double v) { return hexColour(impactRampColour(v, range)); };
     for (std::size_t i = 0; i < n; ++i)
         svg.text(left - 4, top + cell * static_cast<double>(i) + cell * 0.72, m.names[i], "end", 9.5);
     // Column names written upwards (a rotated text; kept apart and added at the end).

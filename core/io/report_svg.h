@@ -5,7 +5,7 @@
 // (core/compare/scenario_comparison.h). Status and sign are written as text beside the
 // colour, never by colour alone; colours are the Okabe-Ito palette (as ui/style/palette.h:
 // producers bluish green, consumers blue, detritus orange) and, for impacts, a diverging
-// purple-green scheme (as ui/analysis/impact_colour_map.cpp).
+// purple-green scheme (core/io/impact_colour_ramp.h, shared with the workbench).
 #pragma once
 
 #include <cstddef>

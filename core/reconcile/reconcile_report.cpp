@@ -94,6 +94,57 @@ std::string reconcileJson(const Model& original, const ReconcileResult& r, const
     return w.str() + "\n";
 }
 
+std::string reconcileSettingsJson(const Model& original, const ReconcileOptions& o, const std::string& scenario)
+{
+    const auto input = [&original](const std::pair<std::size_t, AdjustParam>& in) {
+        return original.compartment(in.first).name + "." + std::string(adjustKey(in.second));
+    };
+    const auto optionalNumber = [](JsonWriter& w, const char* key, const std::optional<double>& v) {
+        w.key(key);
+        if (v) w.value(*v); else w.null();
+    };
+    JsonWriter w;
+    w.beginObject();
+    w.field("scenario", scenario);
+    w.key("move").beginArray();
+    for (const auto& [moves, param] : {std::pair{o.moveBiomass, AdjustParam::Biomass}, std::pair{o.movePB, AdjustParam::PB},
+                                       std::pair{o.moveQB, AdjustParam::QB}, std::pair{o.moveDiet, AdjustParam::Diet},
+                                       std::pair{o.moveCatch, AdjustParam::Catch}})
+        if (moves) w.value(std::string(adjustKey(param)));
+    w.endArray();
+    w.key("pins").beginArray();
+    for (const auto& pin : o.pins) w.value(input(pin));
+    w.endArray();
+    w.key("bounds").beginArray();
+    for (const auto& [in, b] : o.bounds) {
+        w.beginObject();
+        w.field("input", input(in));
+        optionalNumber(w, "low", b.lower);
+        optionalNumber(w, "high", b.upper);
+        w.endObject();
+    }
+    w.endArray();
+    for (const auto& [key, map] : {std::pair{"ee_max", &o.eeMax}, std::pair{"ee_min", &o.eeMin}}) {
+        w.key(key).beginArray();
+        for (const auto& [i, v] : *map) {
+            w.beginObject();
+            w.field("compartment", original.compartment(i).name).field("value", v);
+            w.endObject();
+        }
+        w.endArray();
+    }
+    w.key("pq_range").beginArray();
+    for (const auto& [i, range] : o.pqRange) {
+        w.beginObject();
+        w.field("compartment", original.compartment(i).name).field("low", range.first).field("high", range.second);
+        w.endObject();
+    }
+    w.endArray();
+    w.field("diet_cv", o.dietCv).field("catch_cv", o.catchCv).field("max_factor", o.maxFactor);
+    w.endObject();
+    return w.str();
+}
+
 std::string reconcileText(const Model& original, const ReconcileResult& r, const std::string& scenario,
                           const std::optional<std::string>& savedAs)
 {

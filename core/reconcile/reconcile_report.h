@@ -21,6 +21,11 @@ namespace tl {
 
 std::string reconcileJson(const Model& original, const ReconcileResult& result, const std::string& scenario,
                           const std::optional<std::string>& savedAs);
+// What was asked of a reconcile, kept with its stored run: {"scenario", "move": [keys],
+// "pins": ["COMPARTMENT.key"], "bounds": [{"input", "low", "high"}], "ee_max"/"ee_min":
+// [{"compartment", "value"}], "pq_range": [{"compartment", "low", "high"}], "diet_cv",
+// "catch_cv", "max_factor"}.
+std::string reconcileSettingsJson(const Model& original, const ReconcileOptions& options, const std::string& scenario);
 std::string reconcileText(const Model& original, const ReconcileResult& result, const std::string& scenario,
                           const std::optional<std::string>& savedAs);
 

@@ -3,6 +3,7 @@
 #include <algorithm>
 
 #include "core/model/names.h"
+#include "core/reconcile/reconcile_report.h"
 
 namespace tl {
 
@@ -29,6 +30,18 @@ Scenario reconciledScenario(const Scenario& from, const ReconcileResult& result,
     out.layout = from.layout;
     out.description = reconcileDescription(from.model, result, from.name);
     return out;
+}
+
+StoredRun reconcileRun(const Scenario& from, const ReconcileResult& result, const ReconcileOptions& options,
+                       const std::string& made, const std::string& date)
+{
+    StoredRun run;
+    run.scenario = made;
+    run.kind = "reconcile";
+    run.settingsJson = reconcileSettingsJson(from.model, options, from.name);
+    run.summaryJson = reconcileJson(from.model, result, from.name, made);
+    run.created = date;
+    return run;
 }
 
 }  // namespace tl

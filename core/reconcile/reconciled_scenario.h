@@ -21,4 +21,10 @@ std::string freeReconciledName(const Project& project, const std::string& base);
 Scenario reconciledScenario(const Scenario& from, const ReconcileResult& result, const std::string& name,
                             const std::string& date);
 
+// The run kept with the new scenario `made` (kind "reconcile", on `made`): settings as
+// reconcileSettingsJson, summary as `tledger reconcile --json` (reconcile_report.h), so
+// that a report lists the changes with their before and after values.
+StoredRun reconcileRun(const Scenario& from, const ReconcileResult& result, const ReconcileOptions& options,
+                       const std::string& made, const std::string& date);
+
 }  // namespace tl

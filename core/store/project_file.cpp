@@ -125,13 +125,25 @@ Problems ProjectFile::save(const Project& project)
                 if (!names.count(st.text(0))) stale.push_back(st.text(0));
             if (st.failed()) return false;
         }
+        for (std::size_t i = 0; i < project.scenarios.size(); ++i)
+            if (!writeScenario(db_, schemaVersion_, project.scenarios[i], static_cast<std::int64_t>(i))) return false;
+        // A run already in the file follows its scenario to the name the project gives it
+        // (a renamed scenario is a new row here), before the stale rows and, by cascade,
+        // their runs go.
+        if (schemaVersion_ >= 2) {
+            Statement follow(db_, "UPDATE stored_run SET scenario_id = (SELECT id FROM scenario WHERE name = ?2) "
+                                  "WHERE id = ?1 AND EXISTS (SELECT 1 FROM scenario WHERE name = ?2)");
+            for (const StoredRun& run : project.runs) {
+                if (run.id == 0 || run.scenario.empty()) continue;
+                follow.reset();
+                if (!follow.bind(1, run.id).bind(2, run.scenario).run()) return false;
+            }
+        }
         Statement del(db_, "DELETE FROM scenario WHERE name = ?1");
         for (const std::string& name : stale) {
             del.reset();
             if (!del.bind(1, name).run()) return false;
         }
-        for (std::size_t i = 0; i < project.scenarios.size(); ++i)
-            if (!writeScenario(db_, schemaVersion_, project.scenarios[i], static_cast<std::int64_t>(i))) return false;
         if (!insertRuns(db_, schemaVersion_, project.runs, false)) return false;
         return true;
     });

@@ -240,12 +240,16 @@ bool writeScenario(sqlite3* db, int version, const Scenario& s, std::optional<st
 }
 
 // Inserts runs inside the caller's transaction: those not yet in the file (id 0), or,
-// for a new file, all of them with the ids they carry.
+// for a new file, all of them with the ids they carry. A run of id 0 the file already
+// holds word for word (the workbench keeps a run it made with id 0 until the project is
+// opened again, so every later save offers it anew) is not added twice.
 bool insertRuns(sqlite3* db, int version, const std::vector<StoredRun>& runs, bool keepIds)
 {
     if (version < 2) return true;
-    Statement ins(db, "INSERT INTO stored_run (id, scenario_id, kind, settings_json, summary_json, created) VALUES "
-                      "(?6, (SELECT id FROM scenario WHERE name = ?1), ?2, ?3, ?4, ?5)");
+    Statement ins(db, "INSERT INTO stored_run (id, scenario_id, kind, settings_json, summary_json, created) "
+                      "SELECT ?6, (SELECT id FROM scenario WHERE name = ?1), ?2, ?3, ?4, ?5 WHERE ?6 IS NOT NULL OR NOT EXISTS "
+                      "(SELECT 1 FROM stored_run r WHERE r.kind = ?2 AND r.settings_json = ?3 AND r.summary_json = ?4 "
+                      "AND r.created = ?5 AND r.scenario_id IS (SELECT id FROM scenario WHERE name = ?1))");
     for (const StoredRun& run : runs) {
         if (run.id != 0 && !keepIds) continue;
         ins.reset();

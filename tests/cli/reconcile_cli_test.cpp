@@ -8,6 +8,7 @@
 #include <string>
 
 #include "core/io/csv_model.h"
+#include "core/io/text_table.h"
 #include "core/store/project_file.h"
 #include "tests/core/reconcile/reconcile_test_models.h"
 #include "tests/support/test_support.h"
@@ -61,6 +62,56 @@ TEST(ReconcileCli, ProjectGainsABalancedScenarioAndKeepsTheOriginal)
     EXPECT_EQ(clash.exitCode, 2);
     EXPECT_NE(clash.err.find("already has a scenario named 'invasive mussel'"), std::string::npos) << clash.err;
     EXPECT_EQ(scenarioNames(project), names);
+}
+
+// The changes are kept with the new scenario as a stored run of kind "reconcile" (its
+// summary the same JSON as --json), and the report lists them from there, with the
+// before and after values of that JSON.
+TEST(ReconcileCli, StoresItsChangesAsARunTheReportReads)
+{
+    const ScratchDir dir("reconcile_run");
+    const fs::path project = dir.path() / "reservoir.tledger";
+    fs::copy_file(kSamples + "reservoir.tledger", project);
+    const CliRun run = runTledger("reconcile " + shellQuoted(project.string()) + " --scenario 'invasive mussel' "
+                                  "--pin 'Great cormorant.qb' --json");
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    const nlohmann::json printed = run.json();
+
+    auto opened = ProjectFile::open(project, OpenMode::ReadOnly);
+    const auto runs = opened.file->listRuns();
+    ASSERT_TRUE(runs.value);
+    ASSERT_EQ(runs.value->size(), 1u);
+    const StoredRun& stored = runs.value->front();
+    EXPECT_EQ(stored.kind, "reconcile");
+    EXPECT_EQ(stored.scenario, "invasive mussel reconciled");
+    const nlohmann::json summary = nlohmann::json::parse(stored.summaryJson);
+    EXPECT_EQ(summary.at("changes"), printed.at("changes"));
+    EXPECT_EQ(summary.at("scenario"), "invasive mussel");
+    const nlohmann::json settings = nlohmann::json::parse(stored.settingsJson);
+    EXPECT_EQ(settings.at("scenario"), "invasive mussel");
+    EXPECT_EQ(settings.at("pins"), nlohmann::json::array({"Great cormorant.qb"}));
+    EXPECT_EQ(settings.at("move"), nlohmann::json::array({"b", "pb", "qb", "diet"}));
+
+    const CliRun report = runTledger("export " + shellQuoted(project.string()) +
+                                     " --scenario 'invasive mussel reconciled' --format html --out -");
+    ASSERT_EQ(report.exitCode, 0) << report.err;
+    const auto at = report.out.find("<h3>Reconcile changes (");
+    ASSERT_NE(at, std::string::npos);
+    EXPECT_NE(report.out.find("Made by reconciling scenario <strong>invasive mussel</strong>", at), std::string::npos);
+    EXPECT_NE(report.out.find(std::to_string(printed.at("changes").size()) + " inputs changed", at), std::string::npos);
+    EXPECT_EQ(report.out.find("No reconcile run is stored"), std::string::npos);
+    // The largest change, as a row: compartment, input, before and after (four digits).
+    const nlohmann::json& first = printed.at("changes").at(0);
+    const std::string input = first.at("parameter") == "diet" ? "diet share of " + first.at("prey").get<std::string>()
+                              : first.at("parameter") == "b"  ? "B"
+                              : first.at("parameter") == "pb" ? "P/B"
+                                                              : "Q/B";
+    const std::string row = "<tr><td class=\"text\">" + first.at("compartment").get<std::string>() +
+                            "</td><td class=\"text\">" + input + "</td><td>" + displayNumber(first.at("before").get<double>()) +
+                            "</td><td>" + displayNumber(first.at("after").get<double>()) + "</td>";
+    EXPECT_NE(report.out.find(row, at), std::string::npos) << row;
+    // The pinned input is not among the changes.
+    EXPECT_EQ(report.out.find("<td class=\"text\">Great cormorant</td><td class=\"text\">Q/B</td>", at), std::string::npos);
 }
 
 TEST(ReconcileCli, CsvFolderNeedsANewOutputFolder)

@@ -1,9 +1,5 @@
-// Diverging purple–green colour map for impacts (DESIGN.md 4): purple for negative,
-// white for 0, green for positive, on a range symmetric around zero. The anchor colours
-// are the purple–green diverging scheme of ColorBrewer (Brewer, Hatchard & Harrower 2003,
-// Cartogr Geogr Inf Sci 30:5; hex values and citation recalled from memory), which is
-// listed there as colour-blind safe; the centre is pure white rather than the scheme's
-// near-white so that "no impact" reads as blank paper.
+// The impact matrix's colour scale as QColor: core/io/impact_colour_ramp.h (purple
+// negative, white 0, green positive; the report's SVG uses the same ramp).
 #pragma once
 
 #include <QColor>

@@ -8,8 +8,10 @@
 #include <QComboBox>
 #include <QHBoxLayout>
 #include <QHeaderView>
+#include <QKeyEvent>
 #include <QLabel>
 #include <QListWidget>
+#include <QMouseEvent>
 #include <QScrollArea>
 #include <QTabWidget>
 #include <QTableView>
@@ -109,8 +111,40 @@ ComparePage::ComparePage(QWidget* parent) : QWidget(parent)
     connect(reference_, &QComboBox::currentIndexChanged, this, [this] { recompute(); });
     connect(others_, &QListWidget::itemChanged, this, [this] { recompute(); });
     connect(onlyDiffering_, &QCheckBox::toggled, outputs_, &ComparedOutputsModel::setOnlyDiffering);
-    connect(inputsView_, &QTableView::activated, this, &ComparePage::activateInput);
-    connect(outputsView_, &QTableView::activated, this, &ComparePage::activateOutput);
+    // One click opens (no double-click needed); Ctrl/Shift-click keeps selecting rows.
+    connect(inputsView_, &QTableView::clicked, this, [this](const QModelIndex& index) {
+        if (!(clickModifiers_ & (Qt::ControlModifier | Qt::ShiftModifier | Qt::MetaModifier))) activateInput(index);
+    });
+    connect(outputsView_, &QTableView::clicked, this, [this](const QModelIndex& index) {
+        if (!(clickModifiers_ & (Qt::ControlModifier | Qt::ShiftModifier | Qt::MetaModifier))) activateOutput(index);
+    });
+    for (QTableView* view : {inputsView_, outputsView_}) {
+        view->installEventFilter(this);
+        view->viewport()->installEventFilter(this);
+        view->setToolTip(tr("Click a row to open that cell in its scenario; Ctrl+click or Shift+click selects rows "
+                            "without opening; Enter opens the current row."));
+    }
+}
+
+bool ComparePage::eventFilter(QObject* watched, QEvent* event)
+{
+    const bool inputs = watched == inputsView_ || watched == inputsView_->viewport();
+    const bool outputs = watched == outputsView_ || watched == outputsView_->viewport();
+    if (!inputs && !outputs) return QWidget::eventFilter(watched, event);
+    if (event->type() == QEvent::MouseButtonRelease || event->type() == QEvent::MouseButtonPress)
+        clickModifiers_ = static_cast<QMouseEvent*>(event)->modifiers();
+    if (event->type() == QEvent::KeyPress && (watched == inputsView_ || watched == outputsView_)) {
+        const int key = static_cast<QKeyEvent*>(event)->key();
+        if (key == Qt::Key_Return || key == Qt::Key_Enter) {
+            QTableView* view = inputs ? inputsView_ : outputsView_;
+            if (view->currentIndex().isValid()) {
+                if (inputs) activateInput(view->currentIndex());
+                else activateOutput(view->currentIndex());
+                return true;
+            }
+        }
+    }
+    return QWidget::eventFilter(watched, event);
 }
 
 ComparePage::~ComparePage() = default;

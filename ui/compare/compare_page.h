@@ -1,7 +1,9 @@
 // Compare page (issue 16): pick a reference scenario and the scenarios to set beside it;
 // see the inputs that differ, every output side by side with its change (icon and text),
 // the level bars of the scenarios on one axis and the largest relative changes.
-// Double-click (or Enter on) a row to open that cell in its scenario. The numbers come
+// A click on a row opens that cell in its scenario (the issue's "click a row"); a click
+// with Ctrl or Shift only selects (to copy rows), the arrow keys move without opening,
+// and Enter opens the current row. The numbers come
 // from core/compare; the charts are the report's SVG (core/io/report_svg.h).
 #pragma once
 
@@ -57,6 +59,9 @@ signals:
     // output quantity ("ee", "production", ...).
     void openCell(const QString& scenario, const QString& compartment, const QString& item);
 
+protected:
+    bool eventFilter(QObject* watched, QEvent* event) override;
+
 private:
     void recompute();
     void install(std::unique_ptr<tl::ScenarioComparison> comparison);
@@ -81,6 +86,7 @@ private:
     std::size_t inlineLimit_ = 160;
     quint64 generation_ = 0;  // only the newest comparison is shown
     int running_ = 0;
+    Qt::KeyboardModifiers clickModifiers_;  // of the last mouse release on a table
 };
 
 }  // namespace tl::ui

@@ -64,7 +64,7 @@ QString inputLabel(const tl::Model& model, const tl::ReconcileChange& ch)
 }  // namespace
 
 bool addReconciledScenario(ProjectDocument* doc, int from, const tl::Model& reconciled, const tl::ReconcileResult& result,
-                           const QString& name, QString* why)
+                           const tl::ReconcileOptions& options, const QString& name, QString* why)
 {
     const auto& scenarios = doc->project().scenarios;
     if (from < 0 || from >= int(scenarios.size()) || !(scenarios[std::size_t(from)].model == reconciled)) {
@@ -79,8 +79,9 @@ bool addReconciledScenario(ProjectDocument* doc, int from, const tl::Model& reco
     if (n.isEmpty()) return false;
     tl::Project after = doc->project();
     const QString sourceName = qs(after.scenarios[std::size_t(from)].name);
-    tl::Scenario made = tl::reconciledScenario(after.scenarios[std::size_t(from)], result, n.toStdString(),
-                                               tl::utcNowIso8601());
+    const std::string date = tl::utcNowIso8601();
+    tl::Scenario made = tl::reconciledScenario(after.scenarios[std::size_t(from)], result, n.toStdString(), date);
+    after.runs.push_back(tl::reconcileRun(after.scenarios[std::size_t(from)], result, options, made.name, date));
     after.scenarios.insert(after.scenarios.begin() + from + 1, std::move(made));  // (invalidates references into it)
     doc->editProject(after, from + 1, QObject::tr("Reconcile %1 into new scenario %2").arg(sourceName, n));
     return true;
@@ -358,6 +359,7 @@ bool ReconcileDialog::run()
     message_->clear();
     result_.reset();
     if (!runner_->start(model_, *o)) return false;
+    ranWith_ = *o;
     setRunning(true);
     return true;
 }
@@ -630,7 +632,7 @@ bool ReconcileDialog::createScenario()
     if (!result_) return false;
     QString why;
     const QString name = name_->text().trimmed();
-    if (!addReconciledScenario(doc_, from_, model_, *result_, name, &why)) {
+    if (!addReconciledScenario(doc_, from_, model_, *result_, ranWith_, name, &why)) {
         createNote_->setText(why);
         createNote_->setVisible(true);
         return false;

@@ -43,8 +43,12 @@ class EeChangeChart;
 // inserted after `from` and made current, as one undoable edit. False with `why` when
 // the name is empty or taken, the result changes nothing, or scenario `from` no longer
 // holds `reconciled` (edited meanwhile).
+// The reconcile's settings and changes go with it as a stored run (kind "reconcile", on
+// the new scenario; core/reconcile/reconciled_scenario.h), saved with the project, which
+// the report reads.
 bool addReconciledScenario(ProjectDocument* doc, int from, const tl::Model& reconciled,
-                           const tl::ReconcileResult& result, const QString& name, QString* why);
+                           const tl::ReconcileResult& result, const tl::ReconcileOptions& options, const QString& name,
+                           QString* why);
 
 class ReconcileDialog : public QDialog {
     Q_OBJECT
@@ -103,6 +107,7 @@ private:
     tl::Model model_;  // the scenario as it was when the dialog opened
     ReconcileRunner* runner_;
     std::shared_ptr<const tl::ReconcileResult> result_;
+    tl::ReconcileOptions ranWith_;  // the options of the run result_ came from
     std::vector<std::size_t> rowCompartment_;
 
     QStackedWidget* pages_;

@@ -6,6 +6,9 @@
 #include <QCoreApplication>
 #include <QDateTime>
 #include <QDialogButtonBox>
+#include <QFutureWatcher>
+#include <QProgressBar>
+#include <QtConcurrent/QtConcurrentRun>
 #include <QDir>
 #include <QFileDialog>
 #include <QFileInfo>
@@ -14,6 +17,8 @@
 #include <QMessageBox>
 #include <QPushButton>
 #include <QTextBrowser>
+#include <QTextDocument>
+#include <QThread>
 #include <QVBoxLayout>
 
 #include "core/io/atomic_file.h"
@@ -26,7 +31,7 @@ namespace tl::ui {
 ReportDialog::ReportDialog(const tl::Project& project, const QString& projectPath, bool unsavedChanges,
                            const QString& currentScenario, const QStringList& comparison, QWidget* parent)
     : QDialog(parent), project_(project), projectPath_(projectPath), unsaved_(unsavedChanges), current_(currentScenario),
-      comparison_(comparison)
+      comparison_(comparison), shared_(std::make_shared<const tl::Project>(project))
 {
     setObjectName(QStringLiteral("reportDialog"));
     setWindowTitle(tr("Report"));
@@ -45,24 +50,30 @@ ReportDialog::ReportDialog(const tl::Project& project, const QString& projectPat
     note_ = new QLabel(this);
     note_->setWordWrap(true);
     layout->addWidget(note_);
+    busy_ = new QProgressBar(this);
+    busy_->setObjectName(QStringLiteral("reportBusy"));
+    busy_->setRange(0, 0);  // no measure of progress inside one build: a busy bar
+    busy_->setTextVisible(false);
+    busy_->setMaximumHeight(12);
+    busy_->hide();
+    layout->addWidget(busy_);
     preview_ = new QTextBrowser(this);
     preview_->setObjectName(QStringLiteral("reportPreview"));
     preview_->setOpenLinks(false);
-    auto* charts = new SvgTextObject(preview_->document());
-    charts->setMaximumSize(QSizeF(860, 900));
-    preview_->document()->documentLayout()->registerHandler(SvgTextObject::kType, charts);
     layout->addWidget(preview_, 1);
     auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close, this);
-    QPushButton* html = buttons->addButton(tr("Save &HTML…"), QDialogButtonBox::ActionRole);
-    QPushButton* pdf = buttons->addButton(tr("Save &PDF…"), QDialogButtonBox::ActionRole);
-    connect(html, &QPushButton::clicked, this, [this] { saveInteractively(false); });
-    connect(pdf, &QPushButton::clicked, this, [this] { saveInteractively(true); });
+    saveHtml_ = buttons->addButton(tr("Save &HTML…"), QDialogButtonBox::ActionRole);
+    savePdf_ = buttons->addButton(tr("Save &PDF…"), QDialogButtonBox::ActionRole);
+    connect(saveHtml_, &QPushButton::clicked, this, [this] { saveInteractively(false); });
+    connect(savePdf_, &QPushButton::clicked, this, [this] { saveInteractively(true); });
     connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
     layout->addWidget(buttons);
     connect(scope_, &QComboBox::currentIndexChanged, this, [this] { rebuild(); });
     resize(980, 760);
     rebuild();
 }
+
+ReportDialog::~ReportDialog() = default;
 
 void ReportDialog::setScope(int scope)
 {
@@ -93,34 +104,92 @@ tl::ReportOptions ReportDialog::options(bool markers) const
     return o;
 }
 
+namespace {
+
+// The previewed report and its rich-text document, both made on a worker thread: for a
+// large project the HTML parse takes longer than the report itself. The document is
+// handed to the GUI thread before the worker returns and deleted there (deleteLater) when
+// its last holder lets go, also when the dialog closed before it arrived.
+struct BuiltReport {
+    tl::HtmlReport report;
+    std::shared_ptr<QTextDocument> document;
+};
+
+BuiltReport buildReport(const tl::Project& project, const tl::ReportOptions& options, QThread* gui)
+{
+    BuiltReport built;
+    built.report = tl::makeHtmlReport(project, options);
+    if (!built.report.error.empty()) return built;
+    auto* doc = new QTextDocument;
+    // The chart handler is the document's child: it moves with it.
+    auto* charts = new SvgTextObject(doc);
+    charts->setMaximumSize(QSizeF(860, 900));
+    doc->documentLayout()->registerHandler(SvgTextObject::kType, charts);
+    doc->setHtml(QString::fromStdString(built.report.html));
+    placeReportFigures(*doc, built.report);
+    doc->moveToThread(gui);
+    built.document = std::shared_ptr<QTextDocument>(doc, [](QTextDocument* d) { d->deleteLater(); });
+    return built;
+}
+
+}  // namespace
+
 void ReportDialog::rebuild()
 {
-    // Built here, on the GUI thread: a second or more for a thousand compartments.
-    QApplication::setOverrideCursor(Qt::WaitCursor);
-    report_ = tl::makeHtmlReport(project_, options(true));
-    QApplication::restoreOverrideCursor();
-    if (!report_.error.empty()) {
+    // Off the GUI thread: the worker reads its own copy of the project (shared_), and a
+    // result that arrives after the scope changed or the dialog closed is dropped.
+    const quint64 generation = ++generation_;
+    building_ = true;
+    busy_->show();
+    saveHtml_->setEnabled(false);
+    savePdf_->setEnabled(false);
+    note_->setText(tr("Building the report…"));
+    auto* watcher = new QFutureWatcher<BuiltReport>(this);
+    connect(watcher, &QFutureWatcher<BuiltReport>::finished, this, [this, watcher, generation] {
+        watcher->deleteLater();
+        if (generation != generation_) return;
+        BuiltReport built = watcher->result();
+        previewDocument_ = built.document;
+        showReport(std::move(built.report));
+    });
+    watcher->setFuture(QtConcurrent::run([project = shared_, options = options(true), gui = thread()] {
+        return buildReport(*project, options, gui);
+    }));
+}
+
+void ReportDialog::showReport(tl::HtmlReport report)
+{
+    report_ = std::move(report);
+    building_ = false;
+    busy_->hide();
+    const bool ok = report_.error.empty() && previewDocument_;
+    saveHtml_->setEnabled(ok);
+    savePdf_->setEnabled(ok);
+    if (!ok) {
         note_->setText(QString::fromStdString(report_.error));
         preview_->clear();
-        return;
+    } else {
+        note_->setText(tr("%n chart(s); the preview shows the report as the PDF lays it out. The HTML shows the same "
+                          "charts and needs no network.", nullptr, int(report_.figures.size())));
+        // Not owned by the browser: previewDocument_ keeps it. Qt lays the document out on
+        // this thread; for hundreds of compartments per scenario that still takes seconds.
+        preview_->setDocument(previewDocument_.get());
     }
-    note_->setText(tr("%n chart(s); the preview shows the report as the PDF lays it out. The HTML shows the same "
-                      "charts and needs no network.", nullptr, int(report_.figures.size())));
-    preview_->setHtml(QString::fromStdString(report_.html));
-    placeReportFigures(*preview_->document(), report_);
+    emit reportReady();
 }
 
 QString ReportDialog::saveHtml(const QString& path) const
 {
-    const tl::HtmlReport report = tl::makeHtmlReport(project_, options(false));
-    if (!report.error.empty()) return QString::fromStdString(report.error);
-    if (const auto failed = tl::writeFileAtomically(path.toStdString(), report.html))
+    if (building_) return tr("The report is still being built.");
+    if (!report_.error.empty()) return QString::fromStdString(report_.error);
+    if (const auto failed = tl::writeFileAtomically(path.toStdString(), tl::withInlineFigures(report_)))
         return QDir::toNativeSeparators(path) + QStringLiteral(": ") + QString::fromStdString(*failed);
     return {};
 }
 
 QString ReportDialog::savePdf(const QString& path) const
 {
+    if (building_) return tr("The report is still being built.");
     if (!report_.error.empty()) return QString::fromStdString(report_.error);
     return QString::fromStdString(writeReportPdf(report_, path.toStdString()));
 }

@@ -153,6 +153,8 @@ bool ScenarioShelf::renameScenario(int index, const QString& name, QString* why)
     after.scenarios[std::size_t(index)].name = n.toStdString();
     for (auto& s : after.scenarios)  // children keep pointing at their parent
         if (s.parent == old) s.parent = n.toStdString();
+    for (auto& r : after.runs)  // stored runs (ensemble, reconcile) go with their scenario
+        if (r.scenario == old) r.scenario = n.toStdString();
     doc_->editProject(after, index, tr("Rename scenario %1 to %2").arg(qs(old), n));
     return true;
 }
@@ -168,6 +170,7 @@ bool ScenarioShelf::deleteScenario(int index, QString* why)
     tl::Project after = doc_->project();
     const std::string name = after.scenarios[std::size_t(index)].name;
     after.scenarios.erase(after.scenarios.begin() + index);
+    std::erase_if(after.runs, [&name](const tl::StoredRun& r) { return r.scenario == name; });  // the file drops them too
     doc_->editProject(after, std::min(index, int(after.scenarios.size()) - 1), tr("Delete scenario %1").arg(qs(name)));
     return true;
 }

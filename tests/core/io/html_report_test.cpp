@@ -175,5 +175,21 @@ TEST(HtmlReport, OneScenarioAndFigureMarkers)
         EXPECT_EQ(report.html.find(figureMarker(k)) != std::string::npos, !report.figures[k].svg.empty()) << k;
 }
 
+// The preview is built with figure markers; the HTML saved from it puts the SVGs back and
+// must be byte for byte the report built without markers.
+TEST(HtmlReport, InlineFiguresGiveTheMarkerlessReport)
+{
+    const Project project = sample("lagoon.tledger");
+    ReportOptions o = provenance();
+    o.scenarios = {"baseline", "clam raking closed"};
+    o.compare = true;
+    const HtmlReport plain = makeHtmlReport(project, o);
+    o.figureMarkers = true;
+    const HtmlReport marked = makeHtmlReport(project, o);
+    ASSERT_NE(marked.html, plain.html);
+    EXPECT_EQ(withInlineFigures(marked), plain.html);
+    EXPECT_EQ(withInlineFigures(plain), plain.html) << "a report without markers is left as it is";
+}
+
 }  // namespace
 }  // namespace tl

@@ -266,6 +266,33 @@ TEST(ProjectFile, StoredRunsAreKeptAndGoWithTheirScenario)
     EXPECT_TRUE(hasCode(file->deleteRun(12345), "store-unknown-run"));
 }
 
+// A scenario renamed in memory (its runs renamed with it, as the workbench's shelf does)
+// keeps its stored runs through a save; a run not yet in the file (id 0) offered by two
+// saves is stored once (the workbench keeps it with id 0 until the project is reopened).
+TEST(ProjectFile, RunsFollowARenamedScenarioAndAreNotStoredTwice)
+{
+    TempDir dir;
+    const auto path = dir / "rename.tledger";
+    auto file = ProjectFile::create(path, inventedProject()).file;
+    ASSERT_TRUE(file);
+    ASSERT_TRUE(file->addRun(StoredRun{0, "more nets", "ensemble", "{}", R"({"draws": 5})", "2026-02-01T00:00:00Z"}).value);
+    Project renamed = *file->load().value;
+    ASSERT_EQ(renamed.runs.size(), 1u);
+    renamed.findScenario("more nets")->name = "twice the nets";
+    renamed.runs[0].scenario = "twice the nets";
+    renamed.runs.push_back(StoredRun{0, "twice the nets", "reconcile", "{}", R"({"changes": []})", "2026-02-02T00:00:00Z"});
+    ASSERT_TRUE(file->save(renamed).empty());
+    ASSERT_TRUE(file->save(renamed).empty());  // the id-0 run again
+    const auto runs = file->listRuns();
+    ASSERT_TRUE(runs.value);
+    ASSERT_EQ(runs.value->size(), 2u);
+    EXPECT_EQ((*runs.value)[0].scenario, "twice the nets");
+    EXPECT_EQ((*runs.value)[0].summaryJson, R"({"draws": 5})");
+    EXPECT_EQ((*runs.value)[1].kind, "reconcile");
+    EXPECT_EQ((*runs.value)[1].scenario, "twice the nets");
+    EXPECT_EQ(file->load().value->scenarioNames(), (std::vector<std::string>{"baseline", "twice the nets"}));
+}
+
 // Names chosen to break naive SQL, CSV and JSON handling.
 TEST(ProjectFile, HostileNamesAreStoredAsJustNames)
 {

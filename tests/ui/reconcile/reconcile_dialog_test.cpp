@@ -14,6 +14,7 @@
 #include <QUndoStack>
 
 #include "core/balance/solver.h"
+#include "core/io/html_report.h"
 #include "tests/bench/synthetic_model.h"
 #include "tests/ui/workbench_test_support.h"
 #include "ui/document/project_document.h"
@@ -115,6 +116,41 @@ private slots:
         QCOMPARE(doc_->undoStack()->undoText(), QStringLiteral("Reconcile baseline into new scenario balanced draft"));
         QCOMPARE(dialog.result() != nullptr, true);
         QCOMPARE(dialog.result()->status, tl::ReconcileStatus::Balanced);
+    }
+
+    // The changes go with the new scenario as a stored run (kind "reconcile"), saved with
+    // the project once however often it is saved, and the report lists them from it.
+    void theChangesAreKeptAsAStoredRunTheReportReads()
+    {
+        ReconcileDialog dialog(doc_.get());
+        QVERIFY(dialog.run());
+        QTRY_VERIFY_WITH_TIMEOUT(dialog.showingReport(), kSolveTimeoutMs);
+        QVERIFY(dialog.createScenario());
+        QCOMPARE(doc_->project().runs.size(), std::size_t(1));
+        const tl::StoredRun run = doc_->project().runs.front();
+        QCOMPARE(QString::fromStdString(run.kind), QStringLiteral("reconcile"));
+        QCOMPARE(QString::fromStdString(run.scenario), QStringLiteral("baseline reconciled"));
+        QVERIFY(run.summaryJson.find("\"changes\"") != std::string::npos);
+
+        QTemporaryDir dir;
+        const QString path = dir.filePath(QStringLiteral("kept.tledger"));
+        QString error;
+        QVERIFY2(doc_->saveAs(path, &error), qPrintable(error));
+        QVERIFY2(doc_->saveAs(path, &error), qPrintable(error));  // the run (still id 0 here) is offered again
+        ProjectDocument reopened;
+        QVERIFY2(reopened.open(path, &error), qPrintable(error));
+        QCOMPARE(reopened.project().runs.size(), std::size_t(1));
+        QCOMPARE(reopened.project().runs.front().summaryJson, run.summaryJson);
+
+        tl::ReportOptions o;
+        o.scenarios = {"baseline reconciled"};
+        const std::string html = tl::makeHtmlReport(reopened.project(), o).html;
+        const auto at = html.find("<h3>Reconcile changes (");
+        QVERIFY(at != std::string::npos);
+        QVERIFY(html.find(std::to_string(dialog.result()->changes.size()) + " inputs changed", at) != std::string::npos);
+        // Undo takes the run away with the scenario.
+        doc_->undoStack()->undo();
+        QVERIFY(doc_->project().runs.empty());
     }
 
     void undoRemovesTheScenarioAndRedoBringsItBack()
