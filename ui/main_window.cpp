@@ -46,6 +46,7 @@
 #include "ui/widgets/scenario_shelf.h"
 #include "ui/workbench_actions.h"
 #include "ui/compare/compare_page.h"
+#include "ui/ensemble/ensemble_page.h"
 #include "ui/widgets/report_dialog.h"
 #include "core/model/names.h"
 #if TL_UI_HAVE_RESULTS
@@ -292,6 +293,8 @@ void MainWindow::buildPages()
     });
     connect(doc_, &ProjectDocument::modelChanged, this, [this] { compareStale_ = true; refreshCompare(); });
     connect(doc_, &ProjectDocument::projectChanged, this, [this] { compareStale_ = true; refreshCompare(); });
+    ensemble_ = new EnsemblePage(doc_, stack_);
+    addPage(ensemble_, ensemble_->title(), ensemble_->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
 }
 
 void MainWindow::refreshCompare()
@@ -849,6 +852,34 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
             return written;
         }
         written << file;
+    }
+    // The Ensemble page after a run of the current scenario: its percentiles, then the
+    // distribution and drivers of the first EE. Run on a copy of the document's content
+    // would be truer to "snapshots change nothing", but the page stores a finished run as
+    // an undoable edit; undone at once, so the document is as it was.
+    if (ensemble_) {
+        showPage(ensemble_->key());
+        ensemble_->drawsEdit()->setText(QStringLiteral("20000"));
+        if (ensemble_->run()) {
+            ensemble_->waitForIdle();
+            const bool stored = doc_->undoStack()->canUndo() && doc_->undoStack()->undoText().startsWith(tr("Store ensemble run"));
+            for (int tab = 0; tab < 2; ++tab) {
+                ensemble_->tabs()->setCurrentIndex(tab);
+                for (int k = 0; k < 5; ++k) QApplication::processEvents();
+                ensemble_->waitForIdle();
+                const QString file = QStringLiteral("%1/%2-ensemble-%3.png")
+                                         .arg(dir)
+                                         .arg(written.size() + 1, 2, 10, QLatin1Char('0'))
+                                         .arg(tab == 0 ? QStringLiteral("percentiles") : QStringLiteral("distribution"));
+                if (!grab().toImage().save(file)) {
+                    if (error) *error = tr("Cannot write %1.").arg(file);
+                    return written;
+                }
+                written << file;
+            }
+            ensemble_->tabs()->setCurrentIndex(0);
+            if (stored) doc_->undoStack()->undo();
+        }
     }
     // The Reconcile dialog on the current scenario: its settings, then its report.
     ReconcileDialog dialog(doc_, this);

@@ -32,6 +32,7 @@ class ScenarioShelf;
 class EditingPage;
 class CompartmentsPage;
 class ComparePage;
+class EnsemblePage;
 class DietPage;
 class HarvestPage;
 class RoutingPage;
@@ -59,6 +60,7 @@ public:
     HarvestPage* harvestPage() const { return harvest_; }
     RoutingPage* routingPage() const { return routing_; }
     const SolveOutcome& lastOutcome() const { return outcome_; }
+    EnsemblePage* ensemblePage() const { return ensemble_; }
 
     // Pages in the rail, in order; `key` is stable (snapshots, settings).
     void addPage(QWidget* page, const QString& title, const QString& key, const QIcon& icon = {});
@@ -144,6 +146,7 @@ private:
     std::set<ResultsPage*> staleResults_;  // pages off screen that have not seen the latest solve
     ComparePage* compare_ = nullptr;
     bool compareStale_ = true;  // the project changed while the Compare page was off screen
+    EnsemblePage* ensemble_ = nullptr;
 
     ChecksPanel* checks_;
     ConfidencePanel* confidence_;
