@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cmath>
 
+#include <QFontMetrics>
+
 #include "ui/ensemble/ensemble_models.h"
 #include "ui/style/palette.h"
 
@@ -100,7 +102,7 @@ DriversTornado::DriversTornado(QWidget* parent) : QCustomPlot(parent)
     setBackground(Qt::white);
     title_ = addTitle(this, 0, 10, true);
     subtitle_ = addTitle(this, 1, 8, false);
-    xAxis->setLabel(tr("Elasticity (% change per 1 % rise of the input)"));
+    xAxis->setLabel(tr("Elasticity (% per 1 % rise of the input)"));
     yAxis->grid()->setVisible(false);
     yAxis->setSubTicks(false);
     yAxis->setTickLength(0, 0);
@@ -111,6 +113,7 @@ QString DriversTornado::title() const { return title_->text(); }
 void DriversTornado::showMessage(const QString& text)
 {
     resetPlot(this);
+    hasDrivers_ = false;
     drawn_.clear();
     title_->setText(text);
     subtitle_->setText(QString());
@@ -120,11 +123,32 @@ void DriversTornado::showMessage(const QString& text)
 
 void DriversTornado::showDrivers(const QString& label, const tl::StrongestDrivers& drivers)
 {
+    label_ = label;
+    drivers_ = drivers;
+    hasDrivers_ = true;
+    draw();
+}
+
+// Input names are long ("microzooplankton.diet:water-column detritus"): at most 45 % of
+// the chart's width each, elided in the middle, so that the bars keep their room.
+static int labelWidthFor(int chartWidth) { return std::max(80, chartWidth * 45 / 100); }
+
+void DriversTornado::resizeEvent(QResizeEvent* event)
+{
+    QCustomPlot::resizeEvent(event);
+    if (hasDrivers_ && labelWidthFor(width()) != drawnLabelWidth_) draw();
+}
+
+void DriversTornado::draw()
+{
     resetPlot(this);
-    drawn_ = drivers.drivers;
+    drawn_ = drivers_.drivers;
     if (drawn_.size() > std::size_t(kMaxRows)) drawn_.resize(kMaxRows);
-    title_->setText(tr("Strongest drivers of %1 at the point estimate").arg(label));
-    subtitle_->setText(drawn_.empty() ? tr("no input moves it") : tr("local elasticities (%1)").arg(QString::fromStdString(drivers.note)));
+    drawnLabelWidth_ = labelWidthFor(width());
+    const QFontMetrics metrics(yAxis->tickLabelFont());
+    title_->setText(tr("Strongest drivers of %1").arg(label_));
+    subtitle_->setText(drawn_.empty() ? tr("no input moves it")
+                                      : tr("local elasticities at the point estimate (%1)").arg(QString::fromStdString(drivers_.note)));
     const int n = int(drawn_.size());
     auto ticker = QSharedPointer<QCPAxisTickerText>::create();
     QVector<double> upKeys, up, downKeys, down;
@@ -132,7 +156,7 @@ void DriversTornado::showDrivers(const QString& label, const tl::StrongestDriver
     for (int k = 0; k < n; ++k) {
         const tl::Driver& d = drawn_[std::size_t(k)];
         const double key = n - k;  // largest at the top
-        ticker->addTick(key, QString::fromStdString(d.input));
+        ticker->addTick(key, metrics.elidedText(QString::fromStdString(d.input), Qt::ElideMiddle, drawnLabelWidth_));
         (d.elasticity >= 0 ? upKeys : downKeys) << key;
         (d.elasticity >= 0 ? up : down) << d.elasticity;
         reach = std::max(reach, std::abs(d.elasticity));

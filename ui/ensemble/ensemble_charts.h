@@ -48,7 +48,16 @@ public:
     QString title() const;
     QSize minimumSizeHint() const override { return {280, 200}; }
 
+protected:
+    void resizeEvent(QResizeEvent* event) override;
+
 private:
+    void draw();  // labels elided to fit the width the chart has now
+
+    QString label_;
+    tl::StrongestDrivers drivers_;
+    bool hasDrivers_ = false;
+    int drawnLabelWidth_ = 0;
     std::vector<tl::Driver> drawn_;
     QCPTextElement* title_;
     QCPTextElement* subtitle_;

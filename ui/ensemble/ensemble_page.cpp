@@ -354,7 +354,7 @@ void EnsemblePage::onFinished(std::shared_ptr<const EnsembleOutcome> outcome)
     }
     progress_->setValue(st.cancelled ? progress_->value() : 1000);
     progress_->setFormat(tr("%1 of %2 draws").arg(st.drawsRun).arg(st.totalDraws));
-    show(*summary, st.cancelled ? tr("cancelled run, %1 s (not stored)").arg(outcome->seconds, 0, 'f', 1)
+    showSummary(*summary, st.cancelled ? tr("cancelled run, %1 s (not stored)").arg(outcome->seconds, 0, 'f', 1)
                                 : tr("this run, %1 s").arg(outcome->seconds, 0, 'f', 1));
     shownIsLive_ = true;
     drawChosen();
@@ -384,7 +384,7 @@ void EnsemblePage::storeRun(const EnsembleOutcome& outcome, const std::string& s
     emit runStored();
 }
 
-void EnsemblePage::show(const EnsembleSummary& s, const QString& origin)
+void EnsemblePage::showSummary(const EnsembleSummary& s, const QString& origin)
 {
     shown_ = s;
     shownIsLive_ = false;
@@ -508,7 +508,7 @@ bool EnsemblePage::showStoredRun(int row)
         setStatus(tr("Stored run of %1 cannot be read: %2").arg(qs(r.created), qs(why)), true);
         return false;
     }
-    show(*s, tr("stored %1").arg(qs(r.created)));
+    showSummary(*s, tr("stored %1").arg(qs(r.created)));
     drawChosen();
     return true;
 }
