@@ -30,6 +30,7 @@
 #include <QUrl>
 #include <QVBoxLayout>
 
+#include "core/ensemble/ensemble_summary.h"
 #include "core/model/compartment.h"
 #include "core/model/problem_fixes.h"
 #include "ui/document/project_document.h"
@@ -295,6 +296,26 @@ void MainWindow::buildPages()
     connect(doc_, &ProjectDocument::projectChanged, this, [this] { compareStale_ = true; refreshCompare(); });
     ensemble_ = new EnsemblePage(doc_, stack_);
     addPage(ensemble_, ensemble_->title(), ensemble_->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+    // Uncertainty bands on the results pages from the scenario's newest stored ensemble run.
+    connect(doc_, &ProjectDocument::projectChanged, this, &MainWindow::updateEnsembleBands);
+    updateEnsembleBands();
+}
+
+void MainWindow::updateEnsembleBands()
+{
+#if TL_UI_HAVE_RESULTS
+    std::shared_ptr<const tl::ensemble::EnsembleSummary> summary;
+    QString origin;
+    const auto& runs = doc_->project().runs;
+    for (auto it = runs.rbegin(); it != runs.rend() && !summary; ++it) {
+        if (it->kind != "ensemble" || !tl::sameName(it->scenario, doc_->scenario().name)) continue;
+        if (auto s = tl::ensemble::readEnsembleSummary(it->summaryJson)) {
+            origin = tr("ensemble run of %1, %2 draws").arg(qs(it->created)).arg(s->draws);
+            summary = std::make_shared<const tl::ensemble::EnsembleSummary>(std::move(*s));
+        }
+    }
+    for (ResultsPage* p : resultsPages_) p->setEnsembleBands(summary, origin);
+#endif
 }
 
 void MainWindow::refreshCompare()

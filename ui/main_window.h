@@ -122,6 +122,7 @@ private:
     void exportFigureDialog();
     void reportDialog();
     void refreshCompare();  // the Compare page follows the project while it is on screen
+    void updateEnsembleBands();  // results pages: intervals of the scenario's newest stored ensemble run
     void openComparedCell(const QString& scenario, const QString& compartment, const QString& item);
     void showUserGuide(const QString& section);
     void addRecent(const QString& path);
