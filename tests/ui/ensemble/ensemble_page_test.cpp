@@ -6,6 +6,7 @@
 #include <QApplication>
 #include <QCheckBox>
 #include <QComboBox>
+#include <QHeaderView>
 #include <QLineEdit>
 #include <QProgressBar>
 #include <QPushButton>
@@ -27,6 +28,9 @@
 #include "ui/ensemble/ensemble_models.h"
 #include "ui/ensemble/ensemble_page.h"
 #include "ui/main_window.h"
+#include "ui/results/balance_sheet_model.h"
+#include "ui/results/balance_sheet_page.h"
+#include "ui/results/level_bars_page.h"
 
 using namespace tl::ui;
 
@@ -62,6 +66,7 @@ private slots:
     void cancelMidRunLeavesThePageUsable();
     void badSettingsAreNamed();
     void theWorkbenchHasThePage();
+    void storedRunGivesTheResultsPagesTheirBands();
 };
 
 void EnsemblePageTest::runShowsTheCoresFiguresAndStoresTheRun()
@@ -240,6 +245,80 @@ void EnsemblePageTest::theWorkbenchHasThePage()
     QCOMPARE(page, window.ensemblePage());
     window.showPage(QStringLiteral("ensemble"));
     QCOMPARE(window.currentPage(), static_cast<QWidget*>(page));
+}
+
+// Issue 15: "Level bars and the balance sheet show uncertainty bands when a run exists."
+void EnsemblePageTest::storedRunGivesTheResultsPagesTheirBands()
+{
+    QTemporaryDir dir;
+    MainWindow window(tl::testing::workbenchTestOptions(dir));
+    window.document()->setProject(narrowLagoon(), 0, ProjectDocument::Origin::ProjectFile, QString(), false);
+    auto* sheetPage = tl::testing::workbenchPage<BalanceSheetPage>(window, QStringLiteral("balance-sheet"));
+    auto* levelPage = tl::testing::workbenchPage<LevelBarsPage>(window, QStringLiteral("level-bars"));
+    QVERIFY(sheetPage && levelPage);
+    BalanceSheetModel* sheet = sheetPage->sheetModel();
+    QVERIFY(!sheet->hasEnsemble());
+    QCOMPARE(sheet->columnCount(), BalanceSheetModel::column(BalanceSheetModel::Column::Count));
+    QVERIFY(levelPage->teBandText(2).isEmpty());
+
+    EnsemblePage* page = window.ensemblePage();
+    setSettings(*page, QStringLiteral("2000"), QStringLiteral("5"), 2);
+    page->levelsBox()->setChecked(true);
+    QVERIFY(page->run());
+    page->waitForIdle();
+    const auto& st = page->liveOutcome()->run.statistics;
+    QVERIFY(st.balanced > 100);
+    auto output = [&](const std::string& name) -> std::optional<tl::ensemble::PercentileSummary> {
+        for (std::size_t k = 0; k < st.outputNames.size(); ++k)
+            if (st.outputNames[k] == name) return st.outputs[k].summary();
+        return std::nullopt;
+    };
+
+    // Balance sheet: an EE interval column, shown right after EE, with the run's 2.5 and 97.5 %.
+    // (A results page off screen catches up with the solve when shown.)
+    window.runner()->waitForIdle();
+    window.showPage(QStringLiteral("balance-sheet"));
+    QTRY_VERIFY(sheet->rowCount() > 0);
+    QVERIFY(sheet->hasEnsemble());
+    QCOMPARE(sheet->columnCount(), BalanceSheetModel::kEeIntervalColumn + 1);
+    const QHeaderView* header = sheetPage->table()->horizontalHeader();
+    QCOMPARE(header->visualIndex(BalanceSheetModel::kEeIntervalColumn),
+             header->visualIndex(BalanceSheetModel::column(BalanceSheetModel::Column::Ee)) + 1);
+    int checked = 0;
+    for (int r = 0; r < sheet->rowCount(); ++r) {
+        const std::string name = window.document()->model().compartment(std::size_t(r)).name;
+        const QString text = sheet->index(r, BalanceSheetModel::kEeIntervalColumn).data().toString();
+        const auto p = output(name + ".ee");
+        if (!p || !p->p2_5) {
+            QVERIFY2(text.isEmpty(), qPrintable(text));
+            continue;
+        }
+        const QStringList ends = text.split(QStringLiteral(" – "));
+        QCOMPARE(ends.size(), 2);
+        QVERIFY2(std::abs(ends[0].toDouble() - *p->p2_5) <= 1e-3 * std::abs(*p->p2_5) + 1e-12, qPrintable(text));
+        QVERIFY2(std::abs(ends[1].toDouble() - *p->p97_5) <= 1e-3 * std::abs(*p->p97_5) + 1e-12, qPrintable(text));
+        QVERIFY(sheet->index(r, BalanceSheetModel::column(BalanceSheetModel::Column::Ee)).data(Qt::ToolTipRole).toString().contains(
+            QStringLiteral("middle 95 %")));
+        ++checked;
+    }
+    QVERIFY2(checked > 20, qPrintable(QString::number(checked)));
+
+    // Level bars: TE of level II with the run's 95 %, only in the view the ensemble computes.
+    const auto te = output("system.te_II");
+    QVERIFY(te && te->p2_5 && te->p97_5);
+    const QString band = levelPage->teBandText(2);
+    QVERIFY2(band.contains(QString::number(100.0 * *te->p2_5, 'f', 1)) && band.contains(QString::number(100.0 * *te->p97_5, 'f', 1)),
+             qPrintable(band));
+    QVERIFY(!levelPage->teBandText(0).isEmpty());  // the mean TE
+    levelPage->setChains(LevelChains::FromDetritus);
+    QVERIFY(levelPage->teBandText(2).isEmpty());
+    levelPage->setChains(LevelChains::Combined);
+
+    // Undo the stored run: the bands go with it.
+    window.document()->undoStack()->undo();
+    QVERIFY(window.document()->project().runs.empty());
+    QVERIFY(!sheet->hasEnsemble());
+    QVERIFY(levelPage->teBandText(2).isEmpty());
 }
 
 QTEST_MAIN(EnsemblePageTest)
