@@ -355,16 +355,18 @@ void EnsemblePage::onFinished(std::shared_ptr<const EnsembleOutcome> outcome)
     progress_->setValue(st.cancelled ? progress_->value() : 1000);
     progress_->setFormat(tr("%1 of %2 draws").arg(st.drawsRun).arg(st.totalDraws));
     showSummary(*summary, st.cancelled ? tr("cancelled run, %1 s (not stored)").arg(outcome->seconds, 0, 'f', 1)
-                                : tr("this run, %1 s").arg(outcome->seconds, 0, 'f', 1));
+                                : tr("this run, %1 s").arg(outcome->seconds, 0, 'f', 1),
+                outcome->scenario);
     shownIsLive_ = true;
     drawChosen();
+    if (outcome->scenario != qs(doc_->scenario().name)) onScenarioChanged();  // switched while it ran
     if (st.cancelled) {
         setStatus(tr("Cancelled after %1 of %2 draws; the figures cover those only.").arg(st.drawsRun).arg(st.totalDraws));
         return;
     }
     storeRun(*outcome, json);
-    setStatus(st.balanced ? tr("Done; stored with scenario '%1' (saved with the project).").arg(outcome->scenario)
-                          : tr("Done, but no draw balanced: widen the CVs' trust or look at the balance breakers."),
+    setStatus(st.balanced ? tr("Done; stored with scenario '%1' (written when the project is saved).").arg(outcome->scenario)
+                          : tr("Done, but no draw balanced: the balance breakers name the compartments that fail."),
               st.balanced == 0);
 }
 
@@ -384,11 +386,11 @@ void EnsemblePage::storeRun(const EnsembleOutcome& outcome, const std::string& s
     emit runStored();
 }
 
-void EnsemblePage::showSummary(const EnsembleSummary& s, const QString& origin)
+void EnsemblePage::showSummary(const EnsembleSummary& s, const QString& origin, const QString& scenario)
 {
     shown_ = s;
     shownIsLive_ = false;
-    shownScenario_ = qs(doc_->scenario().name);
+    shownScenario_ = scenario;
     percentiles_->setSummary(s);
     breakers_->setSummary(s);
     percentileView_->resizeColumnsToContents();
@@ -430,6 +432,11 @@ QString EnsemblePage::chosenOutput() const { return output_->currentData().toStr
 void EnsemblePage::drawChosen()
 {
     const QString name = chosenOutput();
+    if (shown_ && name.isEmpty()) {
+        histogram_->showMessage(tr("No draw balanced: no distribution to show"));
+        tornado_->showMessage(tr("No output to show the drivers of"));
+        return;
+    }
     if (!shown_ || name.isEmpty()) {
         histogram_->showMessage(tr("Run an ensemble to see the distribution of an output"));
         tornado_->showMessage(tr("Choose an output to see what drives it"));
@@ -508,7 +515,7 @@ bool EnsemblePage::showStoredRun(int row)
         setStatus(tr("Stored run of %1 cannot be read: %2").arg(qs(r.created), qs(why)), true);
         return false;
     }
-    showSummary(*s, tr("stored %1").arg(qs(r.created)));
+    showSummary(*s, tr("stored %1").arg(qs(r.created)), qs(r.scenario));
     drawChosen();
     return true;
 }

@@ -96,7 +96,7 @@ private:
     void onProgress(quint64 done, quint64 total, double seconds);
     void onFinished(std::shared_ptr<const EnsembleOutcome> outcome);
     void storeRun(const EnsembleOutcome& outcome, const std::string& summaryJson);
-    void showSummary(const tl::ensemble::EnsembleSummary& summary, const QString& origin);
+    void showSummary(const tl::ensemble::EnsembleSummary& summary, const QString& origin, const QString& scenario);
     void fillOutputChoice();
     void drawChosen();
     void refreshStoredRuns();
