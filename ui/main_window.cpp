@@ -875,32 +875,33 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
         written << file;
     }
     // The Ensemble page after a run of the current scenario: its percentiles, then the
-    // distribution and drivers of the first EE. Run on a copy of the document's content
-    // would be truer to "snapshots change nothing", but the page stores a finished run as
-    // an undoable edit; undone at once, so the document is as it was.
+    // distribution and drivers of the first EE. The run is not stored: snapshots change
+    // nothing in the document (not even its undo history).
     if (ensemble_) {
         showPage(ensemble_->key());
+        const QString draws = ensemble_->drawsEdit()->text();
         ensemble_->drawsEdit()->setText(QStringLiteral("20000"));
+        ensemble_->setStoreRuns(false);
         if (ensemble_->run()) {
             ensemble_->waitForIdle();
-            const bool stored = doc_->undoStack()->canUndo() && doc_->undoStack()->undoText().startsWith(tr("Store ensemble run"));
             for (int tab = 0; tab < 2; ++tab) {
                 ensemble_->tabs()->setCurrentIndex(tab);
                 for (int k = 0; k < 5; ++k) QApplication::processEvents();
-                ensemble_->waitForIdle();
                 const QString file = QStringLiteral("%1/%2-ensemble-%3.png")
                                          .arg(dir)
                                          .arg(written.size() + 1, 2, 10, QLatin1Char('0'))
                                          .arg(tab == 0 ? QStringLiteral("percentiles") : QStringLiteral("distribution"));
                 if (!grab().toImage().save(file)) {
                     if (error) *error = tr("Cannot write %1.").arg(file);
+                    ensemble_->setStoreRuns(true);
                     return written;
                 }
                 written << file;
             }
             ensemble_->tabs()->setCurrentIndex(0);
-            if (stored) doc_->undoStack()->undo();
         }
+        ensemble_->setStoreRuns(true);
+        ensemble_->drawsEdit()->setText(draws);
     }
     // The Reconcile dialog on the current scenario: its settings, then its report.
     ReconcileDialog dialog(doc_, this);

@@ -364,6 +364,10 @@ void EnsemblePage::onFinished(std::shared_ptr<const EnsembleOutcome> outcome)
         setStatus(tr("Cancelled after %1 of %2 draws; the figures cover those only.").arg(st.drawsRun).arg(st.totalDraws));
         return;
     }
+    if (!storeRuns_) {
+        setStatus(tr("Done (not stored)."));
+        return;
+    }
     storeRun(*outcome, json);
     setStatus(st.balanced ? tr("Done; stored with scenario '%1' (written when the project is saved).").arg(outcome->scenario)
                           : tr("Done, but no draw balanced: the balance breakers name the compartments that fail."),

@@ -52,7 +52,10 @@ public:
     bool run();
     void cancel();
     bool busy() const;
-    void waitForIdle();  // tests and snapshots: until the run (and the drivers) are done
+    void waitForIdle();  // tests and snapshots: until the run is done
+    // Whether a finished run is stored with its scenario (default on; --snapshot turns it
+    // off so that rendering the page changes nothing in the document).
+    void setStoreRuns(bool on) { storeRuns_ = on; }
 
     // The run this session made that the page shows, or null.
     const EnsembleOutcome* liveOutcome() const { return live_.get(); }
@@ -109,6 +112,7 @@ private:
     std::shared_ptr<const EnsembleOutcome> live_;
     std::optional<tl::ensemble::EnsembleSummary> shown_;
     bool shownIsLive_ = false;
+    bool storeRuns_ = true;
     QString shownScenario_;
     std::vector<int> storedIndex_;  // row of the stored-runs table -> index in project().runs
 
