@@ -102,7 +102,7 @@ DriversTornado::DriversTornado(QWidget* parent) : QCustomPlot(parent)
     setBackground(Qt::white);
     title_ = addTitle(this, 0, 10, true);
     subtitle_ = addTitle(this, 1, 8, false);
-    xAxis->setLabel(tr("Elasticity (% per 1 % rise of the input)"));
+    xAxis->setLabel(tr("Elasticity (% per 1 % of the input)"));
     yAxis->grid()->setVisible(false);
     yAxis->setSubTicks(false);
     yAxis->setTickLength(0, 0);
@@ -136,19 +136,31 @@ static int labelWidthFor(int chartWidth) { return std::max(80, chartWidth * 45 /
 void DriversTornado::resizeEvent(QResizeEvent* event)
 {
     QCustomPlot::resizeEvent(event);
-    if (hasDrivers_ && labelWidthFor(width()) != drawnLabelWidth_) draw();
+    if (hasDrivers_ && (labelWidthFor(width()) != drawnLabelWidth_ || rowCapacity() != drawnRows_)) draw();
+}
+
+// One text line and a little air per row, after the titles and the axis (about 110 px).
+int DriversTornado::rowCapacity() const
+{
+    const int line = QFontMetrics(yAxis->tickLabelFont()).height() + 3;
+    return std::clamp((height() - 110) / line, 3, kMaxRows);
 }
 
 void DriversTornado::draw()
 {
     resetPlot(this);
     drawn_ = drivers_.drivers;
-    if (drawn_.size() > std::size_t(kMaxRows)) drawn_.resize(kMaxRows);
+    drawnRows_ = rowCapacity();
+    if (drawn_.size() > std::size_t(drawnRows_)) drawn_.resize(std::size_t(drawnRows_));
     drawnLabelWidth_ = labelWidthFor(width());
     const QFontMetrics metrics(yAxis->tickLabelFont());
     title_->setText(tr("Strongest drivers of %1").arg(label_));
+    const QString shown = drawn_.size() < drivers_.drivers.size()
+                              ? tr("\nthe %1 strongest of %2 shown").arg(drawn_.size()).arg(drivers_.drivers.size())
+                              : QString();
     subtitle_->setText(drawn_.empty() ? tr("no input moves it")
-                                      : tr("local elasticities at the point estimate (%1)").arg(QString::fromStdString(drivers_.note)));
+                                      : tr("elasticities at the point estimate (%1)%2")
+                                            .arg(QString::fromStdString(drivers_.note), shown));
     const int n = int(drawn_.size());
     auto ticker = QSharedPointer<QCPAxisTickerText>::create();
     QVector<double> upKeys, up, downKeys, down;

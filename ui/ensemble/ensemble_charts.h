@@ -58,6 +58,8 @@ private:
     tl::StrongestDrivers drivers_;
     bool hasDrivers_ = false;
     int drawnLabelWidth_ = 0;
+    int drawnRows_ = 0;
+    int rowCapacity() const;  // rows that stay readable in the chart's height (at most kMaxRows)
     std::vector<tl::Driver> drawn_;
     QCPTextElement* title_;
     QCPTextElement* subtitle_;

@@ -72,7 +72,12 @@ QSortFilterProxyModel* sortable(QObject* parent, QAbstractItemModel* source)
     return proxy;
 }
 
-QString percentText(double share) { return QStringLiteral("%1 %").arg(100.0 * share, 0, 'f', 1); }
+// One decimal, but a small share keeps two significant digits ("0.01 %", never "0.0 %").
+QString percentText(double share)
+{
+    if (share > 0.0 && share < 0.001) return QStringLiteral("%1 %").arg(100.0 * share, 0, 'g', 2);
+    return QStringLiteral("%1 %").arg(100.0 * share, 0, 'f', 1);
+}
 
 }  // namespace
 

@@ -132,8 +132,10 @@ void EnsemblePageTest::runShowsTheCoresFiguresAndStoresTheRun()
         QCOMPARE(page.histogram()->bars().counts, expected.counts);
         QCOMPARE(page.histogram()->bars().low, expected.low);
         const auto drivers = tl::strongestDrivers(doc.model(), name.toStdString(), DriversTornado::kMaxRows);
-        QCOMPARE(page.tornado()->drawn().size(), drivers.drivers.size());
-        for (std::size_t d = 0; d < drivers.drivers.size(); ++d) {
+        // As many of the strongest as the chart's height keeps readable (at least 3).
+        QVERIFY(page.tornado()->drawn().size() <= drivers.drivers.size());
+        QVERIFY(page.tornado()->drawn().size() >= std::min<std::size_t>(3, drivers.drivers.size()));
+        for (std::size_t d = 0; d < page.tornado()->drawn().size(); ++d) {
             QCOMPARE(page.tornado()->drawn()[d].input, drivers.drivers[d].input);
             QCOMPARE(page.tornado()->drawn()[d].elasticity, drivers.drivers[d].elasticity);
         }
