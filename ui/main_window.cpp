@@ -30,6 +30,7 @@
 #include <QUrl>
 #include <QVBoxLayout>
 
+#include "core/ensemble/ensemble_summary.h"
 #include "core/model/compartment.h"
 #include "core/model/problem_fixes.h"
 #include "ui/document/project_document.h"
@@ -46,6 +47,7 @@
 #include "ui/widgets/scenario_shelf.h"
 #include "ui/workbench_actions.h"
 #include "ui/compare/compare_page.h"
+#include "ui/ensemble/ensemble_page.h"
 #include "ui/widgets/report_dialog.h"
 #include "core/model/names.h"
 #if TL_UI_HAVE_RESULTS
@@ -295,6 +297,28 @@ void MainWindow::buildPages()
     });
     connect(doc_, &ProjectDocument::modelChanged, this, [this] { compareStale_ = true; refreshCompare(); });
     connect(doc_, &ProjectDocument::projectChanged, this, [this] { compareStale_ = true; refreshCompare(); });
+    ensemble_ = new EnsemblePage(doc_, stack_);
+    addPage(ensemble_, ensemble_->title(), ensemble_->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+    // Uncertainty bands on the results pages from the scenario's newest stored ensemble run.
+    connect(doc_, &ProjectDocument::projectChanged, this, &MainWindow::updateEnsembleBands);
+    updateEnsembleBands();
+}
+
+void MainWindow::updateEnsembleBands()
+{
+#if TL_UI_HAVE_RESULTS
+    std::shared_ptr<const tl::ensemble::EnsembleSummary> summary;
+    QString origin;
+    const auto& runs = doc_->project().runs;
+    for (auto it = runs.rbegin(); it != runs.rend() && !summary; ++it) {
+        if (it->kind != "ensemble" || !tl::sameName(it->scenario, doc_->scenario().name)) continue;
+        if (auto s = tl::ensemble::readEnsembleSummary(it->summaryJson)) {
+            origin = tr("ensemble run of %1, %2 draws").arg(qs(it->created)).arg(s->draws);
+            summary = std::make_shared<const tl::ensemble::EnsembleSummary>(std::move(*s));
+        }
+    }
+    for (ResultsPage* p : resultsPages_) p->setEnsembleBands(summary, origin);
+#endif
 }
 
 void MainWindow::refreshCompare()
@@ -852,6 +876,35 @@ QStringList MainWindow::renderSnapshots(const QString& dir, QString* error)
             return written;
         }
         written << file;
+    }
+    // The Ensemble page after a run of the current scenario: its percentiles, then the
+    // distribution and drivers of the first EE. The run is not stored: snapshots change
+    // nothing in the document (not even its undo history).
+    if (ensemble_) {
+        showPage(ensemble_->key());
+        const QString draws = ensemble_->drawsEdit()->text();
+        ensemble_->drawsEdit()->setText(QStringLiteral("20000"));
+        ensemble_->setStoreRuns(false);
+        if (ensemble_->run()) {
+            ensemble_->waitForIdle();
+            for (int tab = 0; tab < 2; ++tab) {
+                ensemble_->tabs()->setCurrentIndex(tab);
+                for (int k = 0; k < 5; ++k) QApplication::processEvents();
+                const QString file = QStringLiteral("%1/%2-ensemble-%3.png")
+                                         .arg(dir)
+                                         .arg(written.size() + 1, 2, 10, QLatin1Char('0'))
+                                         .arg(tab == 0 ? QStringLiteral("percentiles") : QStringLiteral("distribution"));
+                if (!grab().toImage().save(file)) {
+                    if (error) *error = tr("Cannot write %1.").arg(file);
+                    ensemble_->setStoreRuns(true);
+                    return written;
+                }
+                written << file;
+            }
+            ensemble_->tabs()->setCurrentIndex(0);
+        }
+        ensemble_->setStoreRuns(true);
+        ensemble_->drawsEdit()->setText(draws);
     }
     // The Reconcile dialog on the current scenario: its settings, then its report.
     ReconcileDialog dialog(doc_, this);

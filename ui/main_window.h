@@ -32,6 +32,7 @@ class ScenarioShelf;
 class EditingPage;
 class CompartmentsPage;
 class ComparePage;
+class EnsemblePage;
 class DietPage;
 class HarvestPage;
 class RoutingPage;
@@ -60,6 +61,7 @@ public:
     HarvestPage* harvestPage() const { return harvest_; }
     RoutingPage* routingPage() const { return routing_; }
     const SolveOutcome& lastOutcome() const { return outcome_; }
+    EnsemblePage* ensemblePage() const { return ensemble_; }
 
     // Pages in the rail, in order; `key` is stable (snapshots, settings).
     void addPage(QWidget* page, const QString& title, const QString& key, const QIcon& icon = {});
@@ -121,6 +123,7 @@ private:
     void exportFigureDialog();
     void reportDialog();
     void refreshCompare();  // the Compare page follows the project while it is on screen
+    void updateEnsembleBands();  // results pages: intervals of the scenario's newest stored ensemble run
     void openComparedCell(const QString& scenario, const QString& compartment, const QString& item);
     void showUserGuide(const QString& section);
     void addRecent(const QString& path);
@@ -145,6 +148,7 @@ private:
     std::set<ResultsPage*> staleResults_;  // pages off screen that have not seen the latest solve
     ComparePage* compare_ = nullptr;
     bool compareStale_ = true;  // the project changed while the Compare page was off screen
+    EnsemblePage* ensemble_ = nullptr;
 
     ChecksPanel* checks_;
     ConfidencePanel* confidence_;

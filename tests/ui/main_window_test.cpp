@@ -267,8 +267,10 @@ private slots:
         QVERIFY2(w.openPath(sampleProject(), true, &error), qPrintable(error));
         const QStringList files = w.renderSnapshots(dir.path() + QStringLiteral("/shots"), &error);
         QVERIFY2(error.isEmpty(), qPrintable(error));
-        // Every page, then the Reconcile dialog's settings and report (issue 14).
-        QCOMPARE(files.size(), w.pageCount() + 2);
+        // Every page, the Ensemble page after a run (percentiles, distribution; issue 15),
+        // then the Reconcile dialog's settings and report (issue 14).
+        QCOMPARE(files.size(), w.pageCount() + 4);
+        QVERIFY(files.contains(QStringLiteral("%1/shots/%2-ensemble-distribution.png").arg(dir.path()).arg(w.pageCount() + 2)));
         QVERIFY(files.last().endsWith(QStringLiteral("reconcile-report.png")));
         QVERIFY(w.pageCount() >= 4);
         for (const QString& f : files) {

@@ -134,17 +134,17 @@ void SmallWindowTest::everyPageFitsAndNothingIsCut()
             QVERIFY2(!plot->axisRect()->rect().intersects(plot->legend->outerRect()), "legend over the bars");
         }
     }
-    // Snapshots at this size: one image per page, each of the window's size, then the
-    // Reconcile dialog's two pages, each within the window.
+    // Snapshots at this size: one image per page and two of the Ensemble page after a run,
+    // each of the window's size, then the Reconcile dialog's two pages, each within the window.
     const QString snapDir = qEnvironmentVariableIsEmpty("TL_SNAPSHOT_DIR")
                                 ? dir.filePath("shots")
                                 : qEnvironmentVariable("TL_SNAPSHOT_DIR") + "/" + QFileInfo(project).completeBaseName() + "-1024x700";
     const QStringList files = w.renderSnapshots(snapDir, &error);
     QVERIFY2(error.isEmpty(), qPrintable(error));
-    QCOMPARE(files.size(), qsizetype(w.pageCount()) + 2);
+    QCOMPARE(files.size(), qsizetype(w.pageCount()) + 4);  // + the Ensemble page after a run, two tabs
     for (int i = 0; i < files.size(); ++i) {
         const QSize size = QImage(files[i]).size();
-        if (i < w.pageCount()) QCOMPARE(size, kSmall * w.devicePixelRatio());
+        if (i < w.pageCount() + 2) QCOMPARE(size, kSmall * w.devicePixelRatio());
         else QVERIFY2(size.width() <= kSmall.width() * w.devicePixelRatio() && size.height() <= kSmall.height() * w.devicePixelRatio(),
                       qPrintable(files[i]));
     }

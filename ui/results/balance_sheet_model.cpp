@@ -64,7 +64,7 @@ int BalanceSheetModel::rowCount(const QModelIndex& parent) const
 
 int BalanceSheetModel::columnCount(const QModelIndex& parent) const
 {
-    return parent.isValid() ? 0 : static_cast<int>(Column::Count);
+    return parent.isValid() ? 0 : static_cast<int>(Column::Count) + (ensemble_ ? 1 : 0);
 }
 
 QString BalanceSheetModel::jsonKey(Column c)
@@ -216,9 +216,25 @@ QString BalanceSheetModel::statusToolTip(int row) const
     return "<p>" + lines.join("<br>") + "</p>";
 }
 
+void BalanceSheetModel::setEnsemble(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin)
+{
+    beginResetModel();
+    ensemble_ = std::move(summary);
+    ensembleOrigin_ = origin;
+    endResetModel();
+}
+
+QString BalanceSheetModel::intervalText(int row, const char* quantity) const
+{
+    if (!ensemble_) return {};
+    const auto band = tl::ensemble::interval95(*ensemble_, model_.compartment(static_cast<std::size_t>(row)).name, quantity);
+    return band ? QStringLiteral("%1 – %2").arg(displayNumber(band->low), displayNumber(band->high)) : QString();
+}
+
 QString BalanceSheetModel::cellText(int row, Column c) const
 {
     const Compartment& comp = model_.compartment(static_cast<std::size_t>(row));
+    if (static_cast<int>(c) == kEeIntervalColumn) return intervalText(row, "ee");
     switch (c) {
     case Column::Name: return QString::fromStdString(comp.name);
     case Column::Kind: return QString::fromStdString(std::string(kindKey(comp.kind)));
@@ -235,6 +251,13 @@ QVariant BalanceSheetModel::data(const QModelIndex& index, int role) const
     const int row = index.row();
     const auto c = static_cast<Column>(index.column());
     const Compartment& comp = model_.compartment(static_cast<std::size_t>(row));
+    if (index.column() == kEeIntervalColumn) {
+        if (role == Qt::DisplayRole || role == kValueRole) return cellText(row, c);
+        if (role == Qt::TextAlignmentRole) return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
+        if (role == Qt::ToolTipRole)
+            return tr("EE over the middle 95 % of the balanced draws (%1)").arg(ensembleOrigin_);
+        return {};
+    }
 
     // An EE above the rules' maximum: error icon and words, as in Checks (issue 13).
     const bool eeAbove = c == Column::Ee && comp.isLiving() && std::isfinite(value(row, c)) &&
@@ -256,7 +279,13 @@ QVariant BalanceSheetModel::data(const QModelIndex& index, int role) const
         if (eeAbove) return severityIcon(Severity::Error);
         if (isSolved(row, c)) return solvedIcon();
         return {};
-    case Qt::ToolTipRole:
+    case Qt::ToolTipRole: {
+        const char* quantity = c == Column::Biomass ? "biomass" : c == Column::Pb ? "pb" : c == Column::Qb ? "qb"
+                             : c == Column::Ee ? "ee" : c == Column::Pq ? "pq" : c == Column::TrophicLevel ? "tl" : nullptr;
+        const QString band = quantity ? intervalText(row, quantity) : QString();
+        if (!band.isEmpty())
+            return tr("%1 = %2; middle 95 % of the balanced draws: %3 (%4)")
+                .arg(shortHeader(c), cellText(row, c), band, ensembleOrigin_);
         if (c == Column::Status) return statusToolTip(row);
         if (eeAbove)
             return tr("EE = %1 is above the maximum %2: more of the production is used than is produced%3.")
@@ -265,6 +294,7 @@ QVariant BalanceSheetModel::data(const QModelIndex& index, int role) const
         if (isSolved(row, c)) return tr("%1 = %2 %3, %4").arg(shortHeader(c), cellText(row, c), unit(c), solvedLegend());
         if (isInputColumn(c) && !input(row, c)) return tr("No value entered");
         return {};
+    }
     case Qt::TextAlignmentRole:
         if (isTextColumn(c)) return QVariant::fromValue(Qt::AlignLeft | Qt::AlignVCenter);
         return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
@@ -297,6 +327,12 @@ QVariant BalanceSheetModel::headerData(int section, Qt::Orientation orientation,
         return {};
     }
     if (section < 0 || section >= columnCount()) return {};
+    if (section == kEeIntervalColumn) {
+        if (role == Qt::DisplayRole) return tr("EE, 95 % of draws\n–");
+        if (role == Qt::ToolTipRole) return tr("EE over the middle 95 % of the balanced draws of the scenario's newest "
+                                               "stored ensemble run (%1)").arg(ensembleOrigin_);
+        return {};
+    }
     const auto c = static_cast<Column>(section);
     if (role == Qt::DisplayRole) {
         const QString u = unit(c);
@@ -335,7 +371,8 @@ QString BalanceSheetModel::toText(const std::vector<int>& rows, QChar separator)
     for (int c = 0; c < columnCount(); ++c) {
         const auto col = static_cast<Column>(c);
         const QString u = unit(col);
-        header << quote(shortHeader(col) + (u.isEmpty() ? QString() : " [" + u + "]"));
+        if (c == kEeIntervalColumn) header << quote(tr("EE, 95 % of draws"));
+        else header << quote(shortHeader(col) + (u.isEmpty() ? QString() : " [" + u + "]"));
     }
     lines << header.join(separator);
     for (int r : rows) {

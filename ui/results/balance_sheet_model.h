@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "core/balance/balance_sheet.h"
+#include "core/ensemble/ensemble_summary.h"
 #include "core/model/model.h"
 
 namespace tl::ui {
@@ -34,6 +35,13 @@ public:
     explicit BalanceSheetModel(QObject* parent = nullptr);
 
     void setScenario(const tl::Model& model, const tl::BalanceSheet& sheet);
+    // A stored ensemble run of the scenario (null: none). With one, a last column
+    // (kEeIntervalColumn, after Column::Count) gives each compartment's EE over the middle
+    // 95 % of the balanced draws, and the tooltips of B, P/B, Q/B, EE, P/Q and TL add
+    // their intervals.
+    void setEnsemble(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin);
+    bool hasEnsemble() const { return ensemble_ != nullptr; }
+    static constexpr int kEeIntervalColumn = static_cast<int>(Column::Count);
     const tl::BalanceSheet& sheet() const { return sheet_; }
     const tl::Model& model() const { return model_; }
 
@@ -64,8 +72,12 @@ private:
     QString statusText(int row) const;
     QString statusToolTip(int row) const;
 
+    QString intervalText(int row, const char* quantity) const;  // "0.31 – 0.72", or ""
+
     tl::Model model_;
     tl::BalanceSheet sheet_;
+    std::shared_ptr<const tl::ensemble::EnsembleSummary> ensemble_;
+    QString ensembleOrigin_;
     std::vector<std::vector<const Problem*>> rowProblems_;
 };
 

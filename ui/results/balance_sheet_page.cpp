@@ -225,6 +225,18 @@ QString BalanceSheetPage::productionUsesText() const
 
 void BalanceSheetPage::showProductionUses() { uses_->setText(productionUsesText()); }
 
+void BalanceSheetPage::setEnsembleBands(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin)
+{
+    model_->setEnsemble(std::move(summary), origin);
+    if (!model_->hasEnsemble()) return;
+    // The interval column is the model's last; it is shown right after the EE column.
+    QHeaderView* header = table_->horizontalHeader();
+    const int from = header->visualIndex(BalanceSheetModel::kEeIntervalColumn);
+    const int to = header->visualIndex(BalanceSheetModel::column(BalanceSheetModel::Column::Ee)) + 1;
+    if (from >= 0 && to > 0 && from != to) header->moveSection(from, to);
+    table_->resizeColumnToContents(BalanceSheetModel::kEeIntervalColumn);
+}
+
 void BalanceSheetPage::setScenario(const tl::Model& model, const tl::BalanceSheet& sheet)
 {
     model_->setScenario(model, sheet);

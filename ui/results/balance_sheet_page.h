@@ -42,6 +42,7 @@ public:
     explicit BalanceSheetPage(QWidget* parent = nullptr);
 
     void setScenario(const tl::Model& model, const tl::BalanceSheet& sheet) override;
+    void setEnsembleBands(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin) override;
     QString title() const override { return tr("Balance sheet"); }
     QString key() const override { return QStringLiteral("balance-sheet"); }
 

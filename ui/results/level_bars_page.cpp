@@ -1,5 +1,7 @@
 #include "ui/results/level_bars_page.h"
 
+#include "core/ensemble/ensemble_summary.h"
+
 #include <QComboBox>
 #include <QHBoxLayout>
 #include <QLabel>
@@ -167,6 +169,24 @@ LevelBarsPage::LevelBarsPage(QWidget* parent)
 
 LevelBarsPage::~LevelBarsPage() = default;
 
+void LevelBarsPage::setEnsembleBands(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin)
+{
+    ensemble_ = std::move(summary);
+    ensembleOrigin_ = origin;
+    scheduleRebuild();
+}
+
+// The ensemble's TE of level k is "system.te_<roman k>" (core/ensemble/ensemble.h), of the
+// combined chains with feeding cycles removed: only that view gets the band.
+QString LevelBarsPage::teBandText(int level) const
+{
+    if (!ensemble_ || chains_ != LevelChains::Combined || cycles_ != tl::FeedingCycles::Removed) return {};
+    const std::string name = level == 0 ? std::string("system.mean_te") : "system.te_" + romanNumeral(level).toStdString();
+    const tl::ensemble::OutputSummary* o = ensemble_->find(name);
+    if (!o || !o->p2_5 || !o->p97_5) return {};
+    return tr("95 %: %1–%2").arg(percent(*o->p2_5), percent(*o->p97_5));
+}
+
 void LevelBarsPage::setScenario(const tl::Model& model, const tl::BalanceSheet& sheet)
 {
     biomassUnit_ = QString::fromStdString(model.units.biomass());
@@ -280,6 +300,8 @@ void LevelBarsPage::rebuild()
     }
 
     QString sub = tr("Mean transfer efficiency, levels II–IV (geometric mean): %1").arg(percent(data_.meanTe));
+    if (const QString band = teBandText(0); !band.isEmpty())
+        sub += tr(" (%1 of the balanced draws of the %2)").arg(band, ensembleOrigin_);
     if (data_.droppedLevels == 1)
         sub += tr("  ·  1 higher level below 0.01 % of the largest not drawn");
     else if (data_.droppedLevels > 1)
@@ -361,7 +383,9 @@ void LevelBarsPage::rebuild()
         auto* te = new QCPItemText(plot_);
         te->position->setCoords(left - maxLength * 0.02, s.level + 0.5);
         te->setPositionAlignment(Qt::AlignRight | Qt::AlignVCenter);
-        te->setText(tr("TE %1→%2: %3").arg(romanNumeral(s.level), romanNumeral(s.level + 1), percent(s.te)));
+        const QString band = teBandText(s.level);
+        te->setText(tr("TE %1→%2: %3").arg(romanNumeral(s.level), romanNumeral(s.level + 1), percent(s.te)) +
+                    (band.isEmpty() ? QString() : QStringLiteral("\n(") + band + QLatin1Char(')')));
         te->setFont(QFont(font().family(), 9, QFont::DemiBold));
         te->setColor(QColor(0x33, 0x33, 0x33));
     }

@@ -27,6 +27,12 @@ public:
     ~LevelBarsPage() override;
 
     void setScenario(const tl::Model& model, const tl::BalanceSheet& sheet) override;
+    // With a stored ensemble run that has "levels", each TE and the mean TE are followed
+    // by their middle 95 % over the balanced draws (combined chains, feeding cycles
+    // removed: what the ensemble computes; other views say so instead).
+    void setEnsembleBands(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin) override;
+    // The band written after level `level`'s TE (1 = I), or "" (tests).
+    QString teBandText(int level) const;
     QString title() const override { return tr("Level bars"); }
     QString key() const override { return QStringLiteral("level-bars"); }
 
@@ -100,6 +106,8 @@ private:
     LevelChains chains_ = LevelChains::Combined;
     bool log_ = false;
     bool dirty_ = false;
+    std::shared_ptr<const tl::ensemble::EnsembleSummary> ensemble_;
+    QString ensembleOrigin_;
 };
 
 QString romanNumeral(int level);

@@ -13,12 +13,16 @@
 
 #include <QString>
 #include <QWidget>
+#include <memory>
 #include <vector>
 
 namespace tl {
 class Model;
 struct BalanceSheet;
 }  // namespace tl
+namespace tl::ensemble {
+struct EnsembleSummary;
+}  // namespace tl::ensemble
 
 namespace tl::ui {
 
@@ -30,6 +34,14 @@ public:
 
     // Shows the scenario. The page keeps its own copy; the arguments may die after.
     virtual void setScenario(const tl::Model& model, const tl::BalanceSheet& sheet) = 0;
+    // The scenario's newest stored ensemble run (null: none): pages that can show its
+    // 95 % intervals beside their figures do so (issue 15: uncertainty bands); `origin`
+    // says which run ("ensemble of 2026-12-02T10:00:00Z, 20000 draws").
+    virtual void setEnsembleBands(std::shared_ptr<const tl::ensemble::EnsembleSummary> summary, const QString& origin)
+    {
+        (void)summary;
+        (void)origin;
+    }
     // Tab title, translated ("Balance sheet", "Level bars", "Flow map").
     virtual QString title() const = 0;
     // Stable key for QSettings and the CLI: "balance-sheet", "level-bars", "flow-map".
