@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <span>
 #include <string>
 
 #include <Eigen/SparseLU>
@@ -109,7 +110,7 @@ void BalanceInputs::assign(const Model& model)
                                &in.biomassAccum, &in.detritusImport})
         v->setZero(en);
 
-    const std::vector<std::size_t> pools = model.detritusPools();
+    std::size_t firstPool = n;  // n: no pool
     std::size_t dietEntries = 0;
     for (std::size_t i = 0; i < n; ++i) {
         const Compartment& c = model.compartment(i);
@@ -123,41 +124,63 @@ void BalanceInputs::assign(const Model& model)
         in.netEmigration[k] = c.valueOr(Param::NetEmigration, 0.0);
         in.biomassAccum[k] = c.valueOr(Param::BiomassAccum, 0.0);
         in.detritusImport[k] = c.kind == CompartmentKind::Detritus ? c.valueOr(Param::DetritusImport, 0.0) : 0.0;
+        if (c.kind == CompartmentKind::Detritus && firstPool == n) firstPool = i;
         dietEntries += model.dietRow(i).size();
     }
-    // Compressed columns filled in order: column j = predator j, prey ascending.
+    // Compressed columns written in order: column j = predator j, prey ascending (the
+    // model's rows hold no zeros).
     in.diet.resize(en, en);
-    in.diet.reserve(static_cast<Eigen::Index>(dietEntries));
+    in.diet.resizeNonZeros(static_cast<Eigen::Index>(dietEntries));
+    int* dietOuter = in.diet.outerIndexPtr();
+    int* dietInner = in.diet.innerIndexPtr();
+    double* dietValue = in.diet.valuePtr();
+    int entry = 0;
     for (std::size_t j = 0; j < n; ++j) {
-        in.diet.startVec(static_cast<Eigen::Index>(j));
-        for (const auto& [prey, dc] : model.dietRow(j))
-            in.diet.insertBack(static_cast<Eigen::Index>(prey), static_cast<Eigen::Index>(j)) = dc;
+        dietOuter[j] = entry;
+        for (const auto& [prey, dc] : model.dietRow(j)) {
+            dietInner[entry] = static_cast<int>(prey);
+            dietValue[entry] = dc;
+            ++entry;
+        }
     }
-    in.diet.finalize();
+    dietOuter[n] = entry;
     // Routing: column d = pool d, sources ascending; a source without explicit routing
-    // sends everything to the first pool.
+    // sends everything to the first pool. Each source's cursor walks its routing row
+    // (sorted by pool) as d ascends: O(n x pools + entries), no lookup per cell.
+    constexpr int kNotLiving = -2, kToFirstPool = -1;
+    routingCursor_.resize(n);
+    for (std::size_t i = 0; i < n; ++i)
+        routingCursor_[i] = !model.compartment(i).isLiving() ? kNotLiving : model.hasExplicitRouting(i) ? 0 : kToFirstPool;
     in.routing.resize(en, en);
     in.routing.reserve(static_cast<Eigen::Index>(n));
-    std::vector<char> explicitRouting(n, 0);
-    for (std::size_t i = 0; i < n; ++i) explicitRouting[i] = model.compartment(i).isLiving() && model.hasExplicitRouting(i);
     for (std::size_t d = 0; d < n; ++d) {
         in.routing.startVec(static_cast<Eigen::Index>(d));
         if (model.compartment(d).kind != CompartmentKind::Detritus) continue;
         for (std::size_t i = 0; i < n; ++i) {
-            if (!model.compartment(i).isLiving()) continue;
-            const double share = explicitRouting[i] ? model.routing(i, d) : (d == pools.front() ? 1.0 : 0.0);
+            int& cursor = routingCursor_[i];
+            if (cursor == kNotLiving) continue;
+            double share = 0.0;
+            if (cursor == kToFirstPool) {
+                share = d == firstPool ? 1.0 : 0.0;
+            } else {
+                const std::span<const GridEntry> row = model.routingRow(i);
+                while (static_cast<std::size_t>(cursor) < row.size() && row[static_cast<std::size_t>(cursor)].col < d) ++cursor;
+                if (static_cast<std::size_t>(cursor) < row.size() && row[static_cast<std::size_t>(cursor)].col == d)
+                    share = row[static_cast<std::size_t>(cursor)].value;
+            }
             if (share != 0.0) in.routing.insertBack(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(d)) = share;
         }
     }
     in.routing.finalize();
     // Catch and dead discards; dead discards go to the fleet's discard pool, else to
     // the first pool.
-    std::vector<std::size_t> discardPool(model.fleets().size(), n);  // n: nowhere
+    std::vector<std::size_t>& discardPool = discardPool_;
+    discardPool.assign(model.fleets().size(), n);  // n: nowhere
     for (std::size_t f = 0; f < model.fleets().size(); ++f) {
         const Fleet& fleet = model.fleet(f);
         const std::optional<std::size_t> own = fleet.discardPool;
         if (own && *own < n && model.compartment(*own).kind == CompartmentKind::Detritus) discardPool[f] = *own;
-        else if (!pools.empty()) discardPool[f] = pools.front();
+        else if (firstPool < n) discardPool[f] = firstPool;
         for (std::size_t i = 0; i < n; ++i) {
             const double dead = fleet.discards[i] * (1.0 - fleet.discardSurvival[i]);
             in.catchTotal[static_cast<Eigen::Index>(i)] += fleet.landings[i];  // landings, for now
@@ -171,7 +194,7 @@ void BalanceInputs::assign(const Model& model)
     for (std::size_t f = 0; f < model.fleets().size(); ++f)
         for (std::size_t i = 0; i < n; ++i) discardEntries += model.fleet(f).discards[i] != 0.0;
     in.discardsToPool.reserve(static_cast<Eigen::Index>(discardEntries));
-    std::vector<double> deadToPool;  // one pool's dead discards, by source
+    std::vector<double>& deadToPool = deadToPool_;  // one pool's dead discards, by source
     for (std::size_t d = 0; d < n; ++d) {
         in.discardsToPool.startVec(static_cast<Eigen::Index>(d));
         if (model.compartment(d).kind != CompartmentKind::Detritus || discardEntries == 0) continue;
@@ -291,16 +314,17 @@ void BalancePlan::rebuild(const Model& model)
     // a private unknown that some coupled unknown enters (its own production, or the
     // consumption of a coupled predator).
     plan.private_.reserve(plan.colCompartment_.size());
-    std::vector<bool> entered(n, false);
+    std::vector<char>& entered = entered_;  // the equation involves a coupled unknown
+    entered.assign(n, 0);
     for (std::size_t i : plan.rowCompartment_) {
         const Unknown u = plan.slots_[i].unknown;
         if (isPrivate(u)) plan.private_.push_back(i);
         if (!isCoupled(u)) continue;
         plan.slots_[i].reducedColumn = static_cast<int>(plan.coupled_.size());
         plan.coupled_.push_back(i);
-        if (u != Unknown::QB) entered[i] = true;
+        if (u != Unknown::QB) entered[i] = 1;
         for (const auto& [prey, dc] : model.dietRow(i))
-            if (dc != 0.0 && isLiving(plan.slots_[prey].kind) && !isPrivate(plan.slots_[prey].unknown)) entered[prey] = true;
+            if (dc != 0.0 && isLiving(plan.slots_[prey].kind) && !isPrivate(plan.slots_[prey].unknown)) entered[prey] = 1;
     }
     for (std::size_t i : plan.rowCompartment_) {
         if (isPrivate(plan.slots_[i].unknown)) continue;

@@ -40,6 +40,7 @@
 #include <Eigen/SparseQR>
 
 #include "core/balance/sparse_columns.h"
+#include "core/balance/trophic_level.h"
 #include "core/model/model.h"
 #include "core/model/problem.h"
 
@@ -79,6 +80,12 @@ struct BalanceInputs {
     // The same into this object, reusing its storage when the sizes are unchanged.
     void assign(const Model& model);
     std::size_t size() const { return static_cast<std::size_t>(biomass.size()); }
+
+private:
+    // Work buffers of assign, kept so that assigning again allocates nothing.
+    std::vector<int> routingCursor_;
+    std::vector<std::size_t> discardPool_;
+    std::vector<double> deadToPool_;
 };
 
 enum class NumericStatus : std::uint8_t { Solved, Singular };
@@ -209,17 +216,22 @@ private:
     Method method_ = Method::None;
     SparseColumns pattern_;  // structure of C2 (values unused), for the sparse path
     Problems problems_;
+    std::vector<char> entered_;  // work buffer of rebuild
 };
 
-// The buffers of one solveBalance (plan, numeric inputs, workspace, values), kept by a
-// caller that solves again and again (reconcile's fits, re-solving after each edit): a
-// later solveBalance(model, scratch) on a model of the same size reuses their storage
-// instead of allocating it. Holds nothing a result refers to; one per thread.
+// The buffers of one solveBalance (plan, numeric inputs, workspace, values, trophic
+// levels), kept by a caller that solves again and again (reconcile's fits, re-solving
+// after each edit): a later solveBalance(model, scratch) on a model of the same size
+// reuses their storage instead of allocating it. Holds nothing a result refers to; one
+// per thread.
 struct BalanceScratch {
     BalancePlan plan;
     BalanceInputs inputs;
     BalanceWorkspace workspace;
     BalanceValues values;
+    std::vector<bool> basal;  // producers and pools: the fixed nodes of the trophic levels
+    TrophicLevelScratch levelWork;
+    TrophicLevels levels;
 };
 
 }  // namespace tl

@@ -30,54 +30,46 @@ std::string num(double v)
 
 using code::makeProblem;
 
-double nanIfMissing(const std::optional<double>& v) { return v.value_or(kNotApplicable); }
-
-void fillGivenValues(const Model& model, BalanceSheet& sheet)
+// The given values of row i (NaN where not given), from the numeric inputs: defaults
+// (U, catch, E, BA) as BalanceInputs::assign applies them, Y = landings + dead discards.
+void fillGivenRow(const Compartment& c, const BalanceInputs& in, std::size_t i, CompartmentBalance& row)
 {
-    sheet.rows.resize(model.size());
-    for (std::size_t i = 0; i < model.size(); ++i) {
-        const Compartment& c = model.compartment(i);
-        CompartmentBalance& row = sheet.rows[i];
-        row.name = c.name;
-        row.kind = c.kind;
-        row.biomass = nanIfMissing(c.value(Param::Biomass));
-        if (c.isLiving()) {
-            row.pb = nanIfMissing(c.value(Param::PB));
-            row.ee = nanIfMissing(c.value(Param::EE));
-            row.unassim = c.unassimilatedOrDefault();
-            row.catchTotal = model.totalCatch(i);
-            row.biomassAccum = c.valueOr(Param::BiomassAccum, 0.0);
-            row.netEmigration = c.valueOr(Param::NetEmigration, 0.0);
-        } else {
-            row.biomassAccum = c.valueOr(Param::BiomassAccum, 0.0);
-        }
-        if (c.kind == CompartmentKind::Consumer) {
-            row.qb = nanIfMissing(c.value(Param::QB));
-            row.pq = nanIfMissing(c.value(Param::PQ));
-        }
+    const auto k = static_cast<Eigen::Index>(i);
+    row.name = c.name;
+    row.kind = c.kind;
+    row.biomass = in.biomass[k];
+    row.biomassAccum = in.biomassAccum[k];
+    if (c.isLiving()) {
+        row.pb = in.pb[k];
+        row.ee = in.ee[k];
+        row.unassim = in.unassim[k];
+        row.catchTotal = in.catchTotal[k];
+        row.netEmigration = in.netEmigration[k];
+    }
+    if (c.kind == CompartmentKind::Consumer) {
+        row.qb = in.qb[k];
+        row.pq = in.pq[k];
     }
 }
 
-void fillTrophicLevels(const Model& model, BalanceSheet& sheet)
+// TL and OI of row i, and the warning of a level that is set or undefined.
+void fillTrophicLevel(const TrophicLevels& levels, std::size_t i, CompartmentBalance& row, Problems& problems)
 {
-    const TrophicLevels levels = computeTrophicLevels(model);
-    for (std::size_t i = 0; i < model.size(); ++i) {
-        const auto k = static_cast<Eigen::Index>(i);
-        sheet.rows[i].tl = levels.tl[k];
-        sheet.rows[i].oi = levels.oi[k];
-        const std::string& name = model.compartment(i).name;
-        if (levels.note[i] == TrophicLevelNote::NoModelledPrey)
-            sheet.problems.push_back(makeProblem(code::kTLFromImport, Severity::Warning, name, "diet",
-                                             "'" + name + "' eats no modelled compartment (all import or empty "
-                                             "diet); its trophic level is set to 2.",
-                                             "Check its diet row."));
-        else if (levels.note[i] == TrophicLevelNote::Undefined)
-            sheet.problems.push_back(makeProblem(code::kTLUndefined, Severity::Warning, name, "diet",
-                                             "'" + name + "' feeds (directly or through its prey) on a loop of "
-                                             "consumers that never reaches a producer or detritus; its trophic "
-                                             "level is undefined.",
-                                             "Give one compartment of the loop some producer or detritus food."));
-    }
+    const auto k = static_cast<Eigen::Index>(i);
+    row.tl = levels.tl[k];
+    row.oi = levels.oi[k];
+    const std::string& name = row.name;
+    if (levels.note[i] == TrophicLevelNote::NoModelledPrey)
+        problems.push_back(makeProblem(code::kTLFromImport, Severity::Warning, name, "diet",
+                                       "'" + name + "' eats no modelled compartment (all import or empty "
+                                       "diet); its trophic level is set to 2.",
+                                       "Check its diet row."));
+    else if (levels.note[i] == TrophicLevelNote::Undefined)
+        problems.push_back(makeProblem(code::kTLUndefined, Severity::Warning, name, "diet",
+                                       "'" + name + "' feeds (directly or through its prey) on a loop of "
+                                       "consumers that never reaches a producer or detritus; its trophic "
+                                       "level is undefined.",
+                                       "Give one compartment of the loop some producer or detritus food."));
 }
 
 std::string unknownSymbol(Unknown u)
@@ -293,8 +285,35 @@ void checkLiving(const Model& model, const BalancePlan& plan, std::size_t i, con
 
 namespace {
 
-// The solved sheet: derived outputs of every row and the checks of DESIGN 3.2.
-void finishSolvedSheet(const Model& model, const BalancePlan& plan, const BalanceValues& values, BalanceSheet& sheet)
+// The rows in one pass: given values, trophic levels (with their warnings) and, when
+// `solved` is given, the solved values and derived outputs.
+void fillRows(const Model& model, const BalancePlan& plan, const BalanceInputs& in, const TrophicLevels& levels,
+              const BalanceValues* solved, BalanceSheet& sheet)
+{
+    // Copies of one blank row: value-initialising each would zero it before setting its NaNs.
+    const CompartmentBalance blank;
+    sheet.rows.assign(model.size(), blank);
+    for (std::size_t i = 0; i < model.size(); ++i) {
+        CompartmentBalance& row = sheet.rows[i];
+        fillGivenRow(model.compartment(i), in, i, row);
+        fillTrophicLevel(levels, i, row, sheet.problems);
+        if (!solved) continue;
+        if (row.kind != CompartmentKind::Detritus) {
+            fillLiving(plan, *solved, i, row);
+            continue;
+        }
+        const auto k = static_cast<Eigen::Index>(i);
+        row.solved = {Param::EE};
+        row.ee = solved->detritusEE[k];
+        row.predation = solved->predation[k];
+        row.detritusInflow = solved->detritusInflow[k];
+        row.detritusConsumption = solved->predation[k];
+        row.detritusExport = solved->detritusExport[k];
+    }
+}
+
+// The checks of DESIGN 3.2 on a sheet whose rows fillRows filled with solved values.
+void checkSolvedSheet(const Model& model, const BalancePlan& plan, const BalanceValues& values, BalanceSheet& sheet)
 {
     sheet.conditioning = values.conditioning;
     if (values.conditioning < kIllConditioned)
@@ -303,24 +322,12 @@ void finishSolvedSheet(const Model& model, const BalancePlan& plan, const Balanc
                                              num(values.conditioning) + "): solved values are sensitive to the inputs.",
                                          "Give directly some of the values being solved."));
 
-    // Every row first: the checks of one compartment read its predators' consumption.
+    // The checks of one compartment read its predators' consumption: every row is filled first.
     bool anyEEAboveMax = false;
-    for (std::size_t i = 0; i < model.size(); ++i) {
-        CompartmentBalance& row = sheet.rows[i];
-        const auto k = static_cast<Eigen::Index>(i);
-        if (row.kind == CompartmentKind::Detritus) {
-            row.solved = {Param::EE};
-            row.ee = values.detritusEE[k];
-            row.predation = values.predation[k];
-            row.detritusInflow = values.detritusInflow[k];
-            row.detritusConsumption = values.predation[k];
-            row.detritusExport = values.detritusExport[k];
-            continue;
-        }
-        fillLiving(plan, values, i, row);
-        anyEEAboveMax = anyEEAboveMax || row.ee > model.rules.eeMax + kBoundTolerance;
-    }
-    const PredatorIndex predators = anyEEAboveMax ? predatorIndex(model) : PredatorIndex(model.size());
+    for (const CompartmentBalance& row : sheet.rows)
+        anyEEAboveMax = anyEEAboveMax || (row.kind != CompartmentKind::Detritus && row.ee > model.rules.eeMax + kBoundTolerance);
+    PredatorIndex predators;  // only read for an EE above its maximum
+    if (anyEEAboveMax) predators = predatorIndex(model);
     for (std::size_t i = 0; i < model.size(); ++i) {
         const CompartmentBalance& row = sheet.rows[i];
         if (row.kind == CompartmentKind::Detritus) {
@@ -338,52 +345,70 @@ void finishSolvedSheet(const Model& model, const BalancePlan& plan, const Balanc
     sheet.status = hasErrors(sheet.problems) ? BalanceStatus::Unbalanced : BalanceStatus::Balanced;
 }
 
-BalanceSheet startSheet(const Model& model, const BalancePlan& plan)
+// Producers and detritus pools are the basal nodes of the trophic levels.
+void computeLevels(const Model& model, const BalanceInputs& in, BalanceScratch& scratch)
 {
-    BalanceSheet sheet;
-    sheet.problems = plan.problems();
-    fillGivenValues(model, sheet);
-    fillTrophicLevels(model, sheet);
-    return sheet;
+    scratch.basal.resize(model.size());
+    for (std::size_t i = 0; i < model.size(); ++i) scratch.basal[i] = model.compartment(i).kind != CompartmentKind::Consumer;
+    computeTrophicLevels(in.diet, scratch.basal, scratch.levelWork, scratch.levels);
 }
 
 }  // namespace
 
 BalanceSheet balanceSheetFromValues(const Model& model, const BalancePlan& plan, const BalanceValues& values)
 {
-    BalanceSheet sheet = startSheet(model, plan);
-    finishSolvedSheet(model, plan, values, sheet);
+    BalanceScratch scratch;
+    scratch.inputs.assign(model);
+    computeLevels(model, scratch.inputs, scratch);
+    BalanceSheet sheet;
+    sheet.problems = plan.problems();
+    fillRows(model, plan, scratch.inputs, scratch.levels, &values, sheet);
+    checkSolvedSheet(model, plan, values, sheet);
     return sheet;
 }
 
 BalanceSheet solveBalance(const Model& model)
 {
-    BalanceScratch scratch;
-    return solveBalance(model, scratch);
+    // Up to this many compartments the buffers are kept between calls, one set per
+    // thread: allocating them is a large share of a small solve (the GUI re-solves after
+    // every edit), a negligible one of a large solve whose buffers are not worth holding
+    // on to. This project's choice.
+    constexpr std::size_t kKeepBuffersUpTo = 1000;
+    if (model.size() > kKeepBuffersUpTo) {
+        BalanceScratch scratch;
+        return solveBalance(model, scratch);
+    }
+    thread_local BalanceScratch kept;
+    return solveBalance(model, kept);
 }
 
 BalanceSheet solveBalance(const Model& model, BalanceScratch& scratch)
 {
     scratch.plan.rebuild(model);
+    scratch.inputs.assign(model);
+    computeLevels(model, scratch.inputs, scratch);
     const BalancePlan& plan = scratch.plan;
-    BalanceSheet sheet = startSheet(model, plan);
+    const BalanceInputs& inputs = scratch.inputs;
+    BalanceSheet sheet;
+    sheet.problems = plan.problems();
     if (plan.hasStructuralErrors()) {
+        fillRows(model, plan, inputs, scratch.levels, nullptr, sheet);
         sheet.status = BalanceStatus::Invalid;
         return sheet;
     }
-    scratch.inputs.assign(model);
     plan.sizeWorkspace(scratch.workspace);
     plan.sizeValues(scratch.values);
-    const BalanceWorkspace& ws = scratch.workspace;
     const BalanceValues& values = scratch.values;
-    plan.solve(scratch.inputs, scratch.workspace, scratch.values);
+    plan.solve(inputs, scratch.workspace, scratch.values);
     if (values.status == NumericStatus::Singular) {
+        fillRows(model, plan, inputs, scratch.levels, nullptr, sheet);
         sheet.conditioning = values.conditioning;
-        reportSingular(model, plan, values, ws, sheet);
+        reportSingular(model, plan, values, scratch.workspace, sheet);
         sheet.status = BalanceStatus::Invalid;
         return sheet;
     }
-    finishSolvedSheet(model, plan, values, sheet);
+    fillRows(model, plan, inputs, scratch.levels, &values, sheet);
+    checkSolvedSheet(model, plan, values, sheet);
     return sheet;
 }
 

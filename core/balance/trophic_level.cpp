@@ -1,6 +1,7 @@
 // Effective trophic level and omnivory index (Pauly et al. 1993); see trophic_level.h.
 #include "core/balance/trophic_level.h"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 #include <span>
@@ -17,12 +18,15 @@ constexpr Eigen::Index kDenseBlock = 48;
 
 // One feeding loop (strongly connected component) of consumers, all of whose outside
 // prey already have their level: TL_j - sum_{i in loop} DC'_ij TL_i = 1 + sum_{i outside} DC'_ij TL_i.
-void solveLoop(const SparseColumns& share, std::span<const int> members, std::vector<int>& local, Eigen::VectorXd& tl)
+void solveLoop(const SparseColumns& share, std::span<const int> members, TrophicLevelScratch& scratch,
+               Eigen::VectorXd& tl)
 {
+    std::vector<int>& local = scratch.local;
     const auto k = static_cast<Eigen::Index>(members.size());
     for (Eigen::Index r = 0; r < k; ++r) local[static_cast<std::size_t>(members[static_cast<std::size_t>(r)])] = static_cast<int>(r);
     // Row r: the loop's entries go to a(r, c) (through addInLoop), the outside prey to b.
-    Eigen::VectorXd b = Eigen::VectorXd::Ones(k);
+    Eigen::VectorXd& b = scratch.loopRhs;
+    b.setOnes(k);
     const auto assemble = [&](auto addInLoop) {
         for (Eigen::Index r = 0; r < k; ++r) {
             addInLoop(static_cast<int>(r), static_cast<int>(r), 1.0);
@@ -34,9 +38,10 @@ void solveLoop(const SparseColumns& share, std::span<const int> members, std::ve
         }
     };
     // Nonsingular: every chain reaches a fixed node. Small loops dense, large sparse.
-    Eigen::VectorXd levels;
+    Eigen::VectorXd& levels = scratch.loopLevels;
     if (k <= kDenseBlock) {
-        Eigen::MatrixXd a = Eigen::MatrixXd::Zero(k, k);
+        Eigen::MatrixXd& a = scratch.loopMatrix;
+        a.setZero(k, k);
         assemble([&a](int r, int c, double v) { a(r, c) += v; });
         levels = a.partialPivLu().solve(b);
     } else {
@@ -53,26 +58,49 @@ void solveLoop(const SparseColumns& share, std::span<const int> members, std::ve
     }
 }
 
-// share: renormalised diet, fixed columns (basal, no modelled prey) empty; out holds
-// TL 1 or 2 for fixed nodes. Tarjan's algorithm (without recursion) over the consumers
-// emits each feeding loop after everything its members eat, so one pass decides,
-// loop by loop:
+// Whether the loops recorded in scratch were found on the current share and fixed nodes.
+bool loopsStillApply(const TrophicLevelScratch& scratch)
+{
+    if (!scratch.loopsKnown || scratch.loopsFixed != scratch.fixed) return false;
+    const SparseColumns& share = scratch.share;
+    const auto outerCount = static_cast<std::size_t>(share.cols()) + 1;
+    const auto innerCount = static_cast<std::size_t>(share.nonZeros());
+    const std::vector<int>& pattern = scratch.loopsPattern;
+    return pattern.size() == outerCount + innerCount &&
+           std::equal(pattern.begin(), pattern.begin() + static_cast<std::ptrdiff_t>(outerCount), share.outerIndexPtr()) &&
+           std::equal(pattern.begin() + static_cast<std::ptrdiff_t>(outerCount), pattern.end(), share.innerIndexPtr());
+}
+
+// Records the feeding loops (strongly connected components) of the consumers in
+// scratch.share, in the order Tarjan's algorithm (without recursion) emits them: each
+// after everything its members eat. Loop by loop, one pass decides:
 //   grounded  = some member eats a fixed or grounded node outside the loop (a food
 //               chain reaches a producer, pool or import-only consumer);
-//   undefined = not grounded, or some member eats an undefined node outside the loop;
-// and solves the levels of grounded, defined loops.
-void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, TrophicLevels& out)
+//   undefined = not grounded, or some member eats an undefined node outside the loop.
+void findLoops(TrophicLevelScratch& scratch)
 {
+    const SparseColumns& share = scratch.share;
     const auto n = static_cast<int>(share.cols());
     const auto sn = static_cast<std::size_t>(n);
     const int* outer = share.outerIndexPtr();
     const int* inner = share.innerIndexPtr();
-    std::vector<char> consumers(sn), grounded(sn, 0), undefined(sn, 0);
+    std::vector<char>& consumers = scratch.consumers;
+    std::vector<char>& grounded = scratch.grounded;
+    std::vector<char>& undefined = scratch.undefined;
+    consumers.resize(sn);
+    grounded.resize(sn);
+    undefined.assign(sn, 0);
     for (std::size_t j = 0; j < sn; ++j) {
-        consumers[j] = !fixed[j];
-        grounded[j] = fixed[j];
+        consumers[j] = !scratch.fixed[j];
+        grounded[j] = scratch.fixed[j];
     }
-    std::vector<int> local;  // sized on the first loop of two or more
+    scratch.loopsKnown = false;  // until the loops below are complete
+    scratch.loopStart.assign(1, 0);
+    scratch.loopMembers.clear();
+    scratch.loopUndefined.clear();
+    scratch.loopStart.reserve(sn + 1);
+    scratch.loopMembers.reserve(sn);
+    scratch.loopUndefined.reserve(sn);
     forEachStrongComponent(
         n, consumers, [&](int v) { return outer[v + 1] - outer[v]; }, [&](int v, int k) { return inner[outer[v] + k]; },
         [&](std::span<const int> members) {
@@ -86,88 +114,121 @@ void levelsByLoops(const SparseColumns& share, const std::vector<bool>& fixed, T
                 }
             const bool isUndefined = !isGrounded || eatsUndefined;
             for (int m : members) {
-                const auto s = static_cast<std::size_t>(m);
-                grounded[s] = isGrounded;
-                undefined[s] = isUndefined;
-                if (isUndefined) out.note[s] = TrophicLevelNote::Undefined;
+                grounded[static_cast<std::size_t>(m)] = isGrounded;
+                undefined[static_cast<std::size_t>(m)] = isUndefined;
             }
-            if (isUndefined) return;
-            if (members.size() == 1) {  // no loop, or cannibalism only
-                const int j = members[0];
-                double rhs = 1.0, self = 0.0;
-                for (SparseColumns::InnerIterator it(share, j); it; ++it) {
-                    if (it.index() == j) self += it.value();
-                    else rhs += it.value() * out.tl[it.index()];
-                }
-                out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
-                return;
-            }
-            if (local.empty()) local.assign(sn, -1);
-            solveLoop(share, members, local, out.tl);
-        });
+            scratch.loopMembers.insert(scratch.loopMembers.end(), members.begin(), members.end());
+            scratch.loopStart.push_back(static_cast<int>(scratch.loopMembers.size()));
+            scratch.loopUndefined.push_back(isUndefined);
+        },
+        scratch.components);
+    scratch.loopsPattern.assign(outer, outer + n + 1);
+    scratch.loopsPattern.insert(scratch.loopsPattern.end(), inner, inner + share.nonZeros());
+    scratch.loopsFixed = scratch.fixed;
+    scratch.loopsKnown = true;
 }
 
-}  // namespace
-
-namespace {
-
-// Levels and omnivory from the renormalised diet (fixed columns empty, their levels set).
-void finishLevels(const SparseColumns& share, const std::vector<bool>& fixed, TrophicLevels& out)
+// Levels and omnivory from the renormalised diet (fixed columns empty, their levels
+// set), loop by loop in solving order: a loop of one (no loop, or cannibalism only) by
+// substitution, a longer one by solveLoop, an undefined one left NaN.
+void finishLevels(TrophicLevelScratch& scratch, TrophicLevels& out)
 {
-    levelsByLoops(share, fixed, out);
-    for (Eigen::Index j = 0; j < share.cols(); ++j) {
-        const auto s = static_cast<std::size_t>(j);
-        if (fixed[s] || out.note[s] == TrophicLevelNote::Undefined) continue;
-        double oi = 0.0;
-        for (SparseColumns::InnerIterator it(share, j); it; ++it) {
-            const double d = out.tl[it.index()] - (out.tl[j] - 1.0);
-            oi += it.value() * d * d;
+    if (!loopsStillApply(scratch)) findLoops(scratch);
+    const SparseColumns& share = scratch.share;
+    const auto sn = static_cast<std::size_t>(share.cols());
+    for (std::size_t c = 0; c + 1 < scratch.loopStart.size(); ++c) {
+        const std::span<const int> members(scratch.loopMembers.data() + scratch.loopStart[c],
+                                           static_cast<std::size_t>(scratch.loopStart[c + 1] - scratch.loopStart[c]));
+        if (scratch.loopUndefined[c]) {
+            for (int m : members) out.note[static_cast<std::size_t>(m)] = TrophicLevelNote::Undefined;
+            continue;
         }
-        out.oi[j] = oi;
+        if (members.size() == 1) {
+            const int j = members[0];
+            double rhs = 1.0, self = 0.0;
+            for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+                if (it.index() == j) self += it.value();
+                else rhs += it.value() * out.tl[it.index()];
+            }
+            out.tl[j] = rhs / (1.0 - self);  // self < 1: j also eats something grounded
+        } else {
+            if (scratch.local.size() != sn) scratch.local.assign(sn, -1);
+            solveLoop(share, members, scratch, out.tl);
+        }
+        for (int j : members) {  // every prey's level is final now
+            double oi = 0.0;
+            for (SparseColumns::InnerIterator it(share, j); it; ++it) {
+                const double d = out.tl[it.index()] - (out.tl[j] - 1.0);
+                oi += it.value() * d * d;
+            }
+            out.oi[j] = oi;
+        }
     }
 }
 
-TrophicLevels startLevels(Eigen::Index n)
+void startLevels(Eigen::Index n, TrophicLevels& out)
 {
-    TrophicLevels out;
     out.tl.setConstant(n, std::numeric_limits<double>::quiet_NaN());
     out.oi.setConstant(n, std::numeric_limits<double>::quiet_NaN());
     out.note.assign(static_cast<std::size_t>(n), TrophicLevelNote::Computed);
-    return out;
 }
 
 // A node whose level is fixed: basal (1) or with no modelled prey (2).
-void fix(TrophicLevels& out, std::vector<bool>& fixed, Eigen::Index j, bool basal)
+void fix(TrophicLevels& out, std::vector<char>& fixed, Eigen::Index j, bool basal)
 {
     const auto s = static_cast<std::size_t>(j);
     out.note[s] = basal ? TrophicLevelNote::Basal : TrophicLevelNote::NoModelledPrey;
     out.tl[j] = basal ? 1.0 : 2.0;
     out.oi[j] = 0.0;
-    fixed[s] = true;
+    fixed[s] = 1;
 }
 
 }  // namespace
 
-TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal)
+void computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal, TrophicLevelScratch& scratch,
+                          TrophicLevels& out)
 {
     const Eigen::Index n = diet.cols();
-    TrophicLevels out = startLevels(n);
-    SparseColumns share(n, n);  // renormalised diet; fixed columns empty
-    share.reserve(diet.nonZeros());
-    std::vector<bool> fixed(static_cast<std::size_t>(n), false);
+    startLevels(n, out);
+    // The renormalised diet, written straight into compressed storage: fixed columns
+    // empty, zero entries left out (at most diet.nonZeros() entries).
+    SparseColumns& share = scratch.share;
+    share.resize(n, n);
+    share.resizeNonZeros(diet.nonZeros());
+    int* shareOuter = share.outerIndexPtr();
+    int* shareInner = share.innerIndexPtr();
+    double* shareValue = share.valuePtr();
+    scratch.fixed.assign(static_cast<std::size_t>(n), 0);
+    const int* outer = diet.outerIndexPtr();
+    const int* inner = diet.innerIndexPtr();
+    const double* value = diet.valuePtr();
+    int count = 0;
     for (Eigen::Index j = 0; j < n; ++j) {
-        share.startVec(j);
+        shareOuter[j] = count;
+        const int begin = outer[j], end = diet.isCompressed() ? outer[j + 1] : outer[j] + diet.innerNonZeroPtr()[j];
         double sum = 0.0;
-        for (SparseColumns::InnerIterator it(diet, j); it; ++it) sum += it.value();
+        for (int e = begin; e < end; ++e) sum += value[e];
         if (basal[static_cast<std::size_t>(j)] || !(sum > 0.0)) {
-            fix(out, fixed, j, basal[static_cast<std::size_t>(j)]);
+            fix(out, scratch.fixed, j, basal[static_cast<std::size_t>(j)]);
             continue;
         }
-        for (SparseColumns::InnerIterator it(diet, j); it; ++it)
-            if (it.value() != 0.0) share.insertBack(it.index(), j) = it.value() / sum;
+        for (int e = begin; e < end; ++e) {
+            if (value[e] == 0.0) continue;
+            shareInner[count] = inner[e];
+            shareValue[count] = value[e] / sum;
+            ++count;
+        }
     }
-    share.finalize();
-    finishLevels(share, fixed, out);
+    shareOuter[n] = count;
+    share.resizeNonZeros(count);
+    finishLevels(scratch, out);
+}
+
+TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal)
+{
+    TrophicLevelScratch scratch;
+    TrophicLevels out;
+    computeTrophicLevels(diet, basal, scratch, out);
     return out;
 }
 
@@ -180,27 +241,19 @@ TrophicLevels computeTrophicLevels(const Model& model)
 {
     const std::size_t n = model.size();
     const auto en = static_cast<Eigen::Index>(n);
-    TrophicLevels out = startLevels(en);
     std::size_t entries = 0;
     for (std::size_t j = 0; j < n; ++j) entries += model.dietRow(j).size();
-    SparseColumns share(en, en);  // column j = predator j, prey ascending, renormalised without import
-    share.reserve(static_cast<Eigen::Index>(entries));
-    std::vector<bool> fixed(n, false);
+    SparseColumns diet(en, en);  // column j = predator j, prey ascending, import excluded
+    diet.reserve(static_cast<Eigen::Index>(entries));
+    std::vector<bool> basal(n, false);
     for (std::size_t j = 0; j < n; ++j) {
         const auto jj = static_cast<Eigen::Index>(j);
-        share.startVec(jj);
-        const bool basal = model.compartment(j).kind != CompartmentKind::Consumer;
-        double sum = 0.0;
-        for (const auto& [prey, dc] : model.dietRow(j)) sum += dc;
-        if (basal || !(sum > 0.0)) {
-            fix(out, fixed, jj, basal);
-            continue;
-        }
-        for (const auto& [prey, dc] : model.dietRow(j)) share.insertBack(static_cast<Eigen::Index>(prey), jj) = dc / sum;
+        diet.startVec(jj);
+        basal[j] = model.compartment(j).kind != CompartmentKind::Consumer;
+        for (const auto& [prey, dc] : model.dietRow(j)) diet.insertBack(static_cast<Eigen::Index>(prey), jj) = dc;
     }
-    share.finalize();
-    finishLevels(share, fixed, out);
-    return out;
+    diet.finalize();
+    return computeTrophicLevels(diet, basal);
 }
 
 }  // namespace tl

@@ -28,6 +28,7 @@
 
 #include "core/balance/sparse_columns.h"
 #include "core/model/model.h"
+#include "core/model/strong_components.h"
 
 namespace tl {
 
@@ -39,11 +40,36 @@ struct TrophicLevels {
     std::vector<TrophicLevelNote> note;
 };
 
+// The work buffers of one computation, kept by a caller that computes again and again
+// (BalanceScratch, the ensemble): a later call of the same size allocates nothing
+// unless it meets a feeding loop larger than any before. The feeding loops found by the
+// last call (prey first, each with its verdict) are reused while the diet's pattern and
+// the fixed nodes stay the same, as between an ensemble's draws or after a value edit.
+struct TrophicLevelScratch {
+    SparseColumns share;  // renormalised diet; fixed columns empty
+    std::vector<char> fixed, consumers, grounded, undefined;
+    std::vector<int> local;  // position in the current loop, or -1
+    StrongComponentBuffers components;
+    Eigen::MatrixXd loopMatrix;
+    Eigen::VectorXd loopRhs, loopLevels;
+    // The structure the loops were found on: share's outer and inner indices, fixed nodes.
+    std::vector<int> loopsPattern;
+    std::vector<char> loopsFixed;
+    bool loopsKnown = false;
+    // The loops in solving order: members of loop c are loopMembers[loopStart[c] ..
+    // loopStart[c + 1]); loopUndefined[c] when its levels are undefined.
+    std::vector<int> loopStart, loopMembers;
+    std::vector<char> loopUndefined;
+};
+
 // diet(prey, predator) = fraction of prey in predator's diet, import excluded (columns
 // are renormalised here, so flows work as well as fractions). basal[i] marks
 // producers and detritus pools.
 TrophicLevels computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal);
 TrophicLevels computeTrophicLevels(const Eigen::MatrixXd& diet, const std::vector<bool>& basal);
+// The same into `out`, reusing the storage of `out` and `scratch`.
+void computeTrophicLevels(const SparseColumns& diet, const std::vector<bool>& basal, TrophicLevelScratch& scratch,
+                          TrophicLevels& out);
 
 // From a model's diet matrix; producers and detritus pools are basal.
 TrophicLevels computeTrophicLevels(const Model& model);

@@ -8,7 +8,8 @@
 //   successorCount(v)   number of arc slots of node v
 //   successorAt(v, k)   the node arc slot k of v leads to, or -1 to skip the slot
 //   onComponent(span)   the members of one component, while they are still in order
-// Nodes with include[v] == 0 are neither visited nor reported.
+// Nodes with include[v] == 0 are neither visited nor reported. A caller that runs it
+// again and again passes StrongComponentBuffers to keep its work arrays between calls.
 #pragma once
 
 #include <algorithm>
@@ -19,14 +20,28 @@
 
 namespace tl {
 
+// The work arrays of one search; their storage is reused by the next.
+struct StrongComponentBuffers {
+    std::vector<int> index, low, stack;
+    std::vector<char> onStack;
+    std::vector<std::pair<int, int>> calls;  // node, next arc slot
+};
+
 template <typename SuccessorCount, typename SuccessorAt, typename OnComponent>
 void forEachStrongComponent(int n, const std::vector<char>& include, SuccessorCount successorCount,
-                            SuccessorAt successorAt, OnComponent onComponent)
+                            SuccessorAt successorAt, OnComponent onComponent, StrongComponentBuffers& buffers)
 {
     const auto size = static_cast<std::size_t>(n);
-    std::vector<int> index(size, -1), low(size, 0), stack;
-    std::vector<char> onStack(size, 0);
-    std::vector<std::pair<int, int>> calls;  // node, next arc slot
+    std::vector<int>& index = buffers.index;
+    std::vector<int>& low = buffers.low;
+    std::vector<int>& stack = buffers.stack;
+    std::vector<char>& onStack = buffers.onStack;
+    std::vector<std::pair<int, int>>& calls = buffers.calls;
+    index.assign(size, -1);
+    low.assign(size, 0);
+    onStack.assign(size, 0);
+    stack.clear();
+    calls.clear();
     stack.reserve(size);
     calls.reserve(size);
     int counter = 0;
@@ -42,8 +57,8 @@ void forEachStrongComponent(int n, const std::vector<char>& include, SuccessorCo
                 onStack[sv] = 1;
             }
             bool descended = false;
-            const int slots = static_cast<int>(successorCount(v));
-            while (calls.back().second < slots) {
+            const int arcSlots = static_cast<int>(successorCount(v));  // not "slots": a Qt macro
+            while (calls.back().second < arcSlots) {
                 const int w = successorAt(v, calls.back().second++);
                 if (w < 0 || !include[static_cast<std::size_t>(w)]) continue;
                 const auto sw = static_cast<std::size_t>(w);
@@ -69,6 +84,14 @@ void forEachStrongComponent(int n, const std::vector<char>& include, SuccessorCo
             stack.resize(first);
         }
     }
+}
+
+template <typename SuccessorCount, typename SuccessorAt, typename OnComponent>
+void forEachStrongComponent(int n, const std::vector<char>& include, SuccessorCount successorCount,
+                            SuccessorAt successorAt, OnComponent onComponent)
+{
+    StrongComponentBuffers buffers;
+    forEachStrongComponent(n, include, successorCount, successorAt, onComponent, buffers);
 }
 
 }  // namespace tl

@@ -11,6 +11,7 @@
 #include <map>
 #include <set>
 #include <string>
+#include <vector>
 
 #include "core/balance/balance_codes.h"
 #include "core/balance/balance_plan.h"
@@ -260,6 +261,54 @@ TEST(StructuredSolve, KeptScratchGivesTheSheetOfAFreshSolve)
         if (::testing::Test::HasFatalFailure()) return;
     }
     EXPECT_GE(methods.size(), 4u) << "the sample should take most solve paths";
+}
+
+// The buffers that solveBalance(model) keeps per thread, and a BalanceScratch kept by a
+// caller, carry nothing over, including the feeding loops the trophic levels reuse while
+// the diet's pattern is unchanged: on models of one size whose diets change only in
+// value, gain a feeding loop, or leave a consumer without prey, both give the sheet of a
+// solve with a scratch of its own, bit for bit.
+TEST(StructuredSolve, KeptBuffersGiveTheSheetOfAFreshScratch)
+{
+    BalanceScratch kept;
+    std::size_t loopsAdded = 0, preyRemoved = 0;
+    for (std::uint64_t seed = 1; seed <= 60; ++seed) {
+        testing::Draw draw(seed * 7919);
+        const std::size_t n = 12 + draw.index(40);
+        const auto mix = static_cast<Mix>(seed % static_cast<std::uint64_t>(Mix::Count));
+        Model m = testing::randomConsistentModel(n, seed);
+        hide(m, mix, draw);
+        std::vector<std::size_t> consumers;
+        for (std::size_t i = 0; i < m.size(); ++i)
+            if (m.compartment(i).kind == CompartmentKind::Consumer) consumers.push_back(i);
+        ASSERT_FALSE(consumers.empty());
+        for (int variant = 0; variant < 4; ++variant) {
+            SCOPED_TRACE("seed " + std::to_string(seed) + ", variant " + std::to_string(variant));
+            BalanceScratch fresh;
+            const BalanceSheet want = solveBalance(m, fresh);
+            expectIdenticalSheets(solveBalance(m, kept), want);
+            expectIdenticalSheets(solveBalance(m), want);
+            if (::testing::Test::HasFatalFailure()) return;
+            const std::size_t j = consumers[draw.index(consumers.size())];
+            if (variant == 0) {  // values only: the same pattern
+                for (const GridEntry& e : std::vector<GridEntry>(m.dietRow(j).begin(), m.dietRow(j).end()))
+                    m.setDiet(j, e.col, e.value * 0.9);
+            } else if (variant == 1) {  // a new loop: j eats one of its predators
+                for (std::size_t p : consumers)
+                    if (p != j && m.diet(p, j) > 0.0 && m.diet(j, p) == 0.0) {
+                        m.setDiet(j, p, 0.05);
+                        ++loopsAdded;
+                        break;
+                    }
+            } else if (variant == 2) {  // j loses every prey: its level becomes fixed
+                for (const GridEntry& e : std::vector<GridEntry>(m.dietRow(j).begin(), m.dietRow(j).end()))
+                    m.setDiet(j, e.col, 0.0);
+                ++preyRemoved;
+            }
+        }
+    }
+    EXPECT_GT(loopsAdded, 10u) << "the sample should add feeding loops";
+    EXPECT_EQ(preyRemoved, 60u);
 }
 
 TEST(StructuredSolve, ModelWhoseUnknownsAreAllEENeedsNoFactorisation)
