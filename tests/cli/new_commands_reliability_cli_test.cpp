@@ -77,6 +77,35 @@ TEST(NewCommandsReliability, AReadOnlyProjectIsReadByEveryNewCommandAndNeverCall
     fs::permissions(share, fs::perms::owner_all);
 }
 
+// Defect 6 for the new commands: with --json, a scenario that cannot be run still gives
+// its status and problems as JSON (exit 2 stays: nothing was computed).
+TEST(NewCommandsReliability, EnsembleAndReconcileJsonOfAnUnsolvableScenarioHaveStatusAndProblems)
+{
+    ScratchDir dir("unsolvable_new");
+    const fs::path model = dir / "model";
+    fs::create_directory(model);
+    writeText(model / "compartments.csv",
+              "name,kind,biomass,pb,qb,ee,pq,unassim,biomass_accum,net_emigration,detritus_import\n"
+              "Algae,producer,10,100,,,,,,,\n"
+              "Grazer,consumer,,,40,,,,,,\n"  // B, P/B and EE unknown: cannot be solved
+              "Detritus,detritus,,,,,,,,,\n");
+    writeText(model / "diet.csv", "predator,Algae,Detritus\nGrazer,0.8,0.2\n");
+    for (const std::string& command :
+         {"ensemble " + q(model) + " --draws 50 --seed 1 --json",
+          "reconcile " + q(model) + " --scenario model --save-as " + q(dir / "out") + " --json"}) {
+        const CliRun run = runTledger(command);
+        EXPECT_EQ(run.exitCode, 2) << command << "\n" << run.err;
+        ASSERT_FALSE(run.out.empty()) << command << "\n" << run.err;
+        const nlohmann::json j = run.json();
+        EXPECT_EQ(j.at("status"), "invalid") << command;
+        ASSERT_FALSE(j.at("problems").empty()) << command;
+        EXPECT_EQ(j.at("problems")[0].at("code"), "underdetermined-compartment") << command;
+        EXPECT_EQ(j.at("problems")[0].at("compartment"), "Grazer") << command;
+        EXPECT_TRUE(j.contains("message")) << command;
+    }
+    EXPECT_FALSE(fs::exists(dir / "out"));
+}
+
 // What a full disk must leave: the previous output unchanged and no temporary beside it.
 struct FullDiskCase {
     std::string name;     // what the case is, for the messages
