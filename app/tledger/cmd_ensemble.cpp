@@ -25,6 +25,7 @@
 #include "core/ensemble/ensemble.h"
 #include "core/ensemble/ensemble_report.h"
 #include "core/io/atomic_file.h"
+#include "core/io/balance_report.h"
 #include "core/io/csv_table.h"
 #include "core/model/text.h"
 #include "core/store/model_source.h"
@@ -212,7 +213,10 @@ int cmdEnsemble(const Args& rawArgs)
     std::signal(SIGINT, SIG_DFL);
     if (!run.ran()) {
         printProblems(run.problems);
-        std::cerr << "tledger ensemble: scenario '" << scenario.name << "' of " << path.string() << " cannot be run\n";
+        const std::string why = "scenario '" + scenario.name + "' of " + path.string() + " cannot be run";
+        std::cerr << "tledger ensemble: " << why << "\n";
+        // --json still prints its status and problems, as solve and network do (issue 12).
+        if (opts->has("--json")) std::cout << statusJson("invalid", run.problems, why);
         return 2;
     }
     const EnsembleStatistics& stats = run.statistics;

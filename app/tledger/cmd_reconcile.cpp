@@ -21,6 +21,7 @@
 #include "app/tledger/commands.h"
 #include "app/tledger/options.h"
 #include "core/io/atomic_file.h"
+#include "core/io/balance_report.h"
 #include "core/io/csv_model.h"
 #include "core/model/text.h"
 #include "core/reconcile/reconcile_report.h"
@@ -238,8 +239,10 @@ int cmdReconcile(const Args& rawArgs)
     const ReconcileResult result = reconcile(model, o);
     if (result.status == ReconcileStatus::Invalid) {
         printProblems(result.problems);
-        std::cerr << "tledger reconcile: scenario '" << scenario.name << "' of " << path.string()
-                  << " cannot be reconciled; nothing was written\n";
+        const std::string why = "scenario '" + scenario.name + "' of " + path.string() + " cannot be reconciled; nothing was written";
+        std::cerr << "tledger reconcile: " << why << "\n";
+        // --json still prints its status and problems, as solve and network do (issue 12).
+        if (opts->has("--json")) std::cout << statusJson("invalid", result.problems, why);
         return 2;
     }
 

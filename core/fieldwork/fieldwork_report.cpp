@@ -177,6 +177,8 @@ std::string catchCurveTable(const CatchCurveResult& r)
                   p.selected ? "*" : (p.usable ? "" : "(cannot)")});
     }
     std::string out = t.render();
+    if (r.used < 3 || r.slope == 0.0)  // no line was fitted (the estimate's problems say why)
+        return out + "no regression line: " + std::to_string(r.used) + " usable point(s) marked *\n";
     out += "regression over the points marked *: ln(C/dt) = " + displayNumber(r.intercept) + " " +
            (r.slope < 0 ? "- " : "+ ") + displayNumber(std::abs(r.slope)) + " t, SE of the slope " +
            displayNumber(r.slopeSe) + ", r² " + displayNumber(r.r2) + "\n";

@@ -120,12 +120,15 @@ CatchCurveResult lengthConvertedCatchCurve(const std::vector<LengthClass>& class
         p.fromCm = c.fromCm;
         p.toCm = c.toCm;
         p.count = c.count;
-        p.usable = c.count > 0.0 && c.toCm < linf;
         if (c.toCm < linf) {
             p.dt = std::log((linf - c.fromCm) / (linf - c.toCm)) / k;
             p.age = -std::log(1.0 - c.midCm() / linf) / k;
             if (c.count > 0.0) p.lnCdt = std::log(c.count / p.dt);
         }
+        // A class far below an enormous L∞ has dt and age that round to 0 in double
+        // precision, so ln(C/dt) is infinite: such a point is not usable either (issue 12).
+        p.usable = c.count > 0.0 && c.toCm < linf && p.dt > 0.0 && std::isfinite(p.dt) && std::isfinite(p.age) &&
+                   std::isfinite(p.lnCdt);
         out.points.push_back(p);
     }
     if (selected.empty()) {
@@ -151,7 +154,8 @@ CatchCurveResult lengthConvertedCatchCurve(const std::vector<LengthClass>& class
                 e.problems.push_back(invalid(code::kFieldworkInvalidInput,
                                              "point " + std::to_string(i + 1) + " (" + shortNumber(out.points[i].fromCm) +
                                                  "-" + shortNumber(out.points[i].toCm) +
-                                                 " cm) cannot be used: it has no fish or reaches L∞"));
+                                                 " cm) cannot be used: it has no fish, reaches L∞, or its age "
+                                                 "cannot be computed for this L∞"));
                 return out;
             }
             out.points[i].selected = true;
@@ -183,6 +187,12 @@ CatchCurveResult lengthConvertedCatchCurve(const std::vector<LengthClass>& class
         sxx += (xs[i] - mx) * (xs[i] - mx);
         sxy += (xs[i] - mx) * (ys[i] - my);
         syy += (ys[i] - my) * (ys[i] - my);
+    }
+    if (!(sxx > 0.0)) {  // every chosen point of the same age: no line through them
+        e.problems.push_back(invalid(code::kFieldworkInvalidInput,
+                                     "the chosen points all have the same age, so they give no slope; choose classes "
+                                     "of different lengths"));
+        return out;
     }
     out.slope = sxy / sxx;
     out.intercept = my - out.slope * mx;

@@ -9,6 +9,7 @@
 #include "core/io/csv_table.h"
 #include "core/model/problem_codes.h"
 #include "core/model/text.h"
+#include "core/model/validation.h"
 
 namespace tl::fieldwork {
 namespace {
@@ -28,6 +29,10 @@ bool isCalendarDate(const std::string& d)
 using csv::shown;
 
 CellRef refOf(const std::string& file, const CsvField& f) { return {file, f.line, f.column}; }
+
+// Stomachs pooled in one sample: more than any crew pools (this project's own bound, no
+// source); it keeps the count a safe int.
+constexpr double kMaxStomachsPerSample = 1e6;
 
 // Reads one keyed survey sheet cell by cell; collects the problems of the whole file.
 class SheetReader {
@@ -82,6 +87,15 @@ public:
                 problems_.push_back(csv::errorAt(code::kCsvMissingValue, file(), *f, what + " is empty; it needs a number"));
                 bad = true;
             }
+            return std::nullopt;
+        }
+        // Beyond this a sum of a few cells overflows to infinity (issue 12, defect 7); the
+        // model's own inputs have the same bound.
+        if (!(std::fabs(*n.value) <= kMaxInputMagnitude)) {
+            problems_.push_back(csv::errorAt(code::kValueTooLarge, file(), *f,
+                                             what + ": " + shown(f->text) + " is beyond the largest value accepted, " +
+                                                 formatNumber(kMaxInputMagnitude)));
+            bad = true;
             return std::nullopt;
         }
         if (*n.value < min || (strict && *n.value == min)) {
@@ -339,9 +353,10 @@ SurveyRead<std::vector<StomachRecord>> stomachsFrom(CsvParseResult parsed)
         const std::string prey = s.text(*r, Prey);
         const auto amount = s.number(*r, Amount, true, 0.0, false, bad);
         const auto stomachs = s.number(*r, Stomachs, false, 1.0, false, bad);
-        if (stomachs && std::floor(*stomachs) != *stomachs) {
+        if (stomachs && (std::floor(*stomachs) != *stomachs || *stomachs > kMaxStomachsPerSample)) {
             problems.push_back(csv::errorAt(code::kSurveyValue, file, *s.cell(*r, Stomachs),
-                                            "column 'stomachs': expected a whole number of stomachs, found " +
+                                            "column 'stomachs': expected a whole number of stomachs up to " +
+                                                formatNumber(kMaxStomachsPerSample) + ", found " +
                                                 shown(s.text(*r, Stomachs))));
             bad = true;
         }

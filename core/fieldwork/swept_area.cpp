@@ -1,5 +1,6 @@
 #include "core/fieldwork/swept_area.h"
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <set>
@@ -134,6 +135,20 @@ SweptAreaResult sweptAreaBiomass(const HaulSurvey& survey, const TaxonMapping& m
 
     e.value = out.densityKgPerKm2 / 1000.0;  // kg/km² -> t/km²
     const double se = out.seKgPerKm2 / 1000.0;
+    if (!std::isfinite(e.value) || !std::isfinite(se) || !std::isfinite(e.value + t * se)) {
+        // A swept area near 0 (or a catchability near 0) divides a catch into infinity:
+        // refused, naming the smallest area, rather than reported as "undefined" (issue 12).
+        const auto smallest = std::min_element(survey.hauls.begin(), survey.hauls.end(),
+                                               [](const Haul& a, const Haul& b) { return a.sweptAreaKm2 < b.sweptAreaKm2; });
+        e.problems.push_back(surveyProblem(code::kFieldworkInvalidInput, smallest->where,
+                                           "the catch per swept area is beyond the range of numbers; the smallest "
+                                           "swept area is " + shortNumber(smallest->sweptAreaKm2) + " km² (haul '" +
+                                               smallest->haul + "' at station '" + smallest->station +
+                                               "') and the catchability " + shortNumber(x1),
+                                           "Check the swept areas (km², e.g. 0.02 for a 1.5 km tow with a 14 m net) "
+                                           "and the catchability."));
+        return out;
+    }
     if (e.value > 0.0) e.cv = se / e.value;
     e.ciLow = std::max(0.0, e.value - t * se);
     e.ciHigh = e.value + t * se;

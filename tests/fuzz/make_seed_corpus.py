@@ -8,6 +8,10 @@ csv_model: each model folder's six files joined by the separator of fuzz_support
            ("\\n%%\\n"), '-' standing for an absent file.
 scor:      the smaller published networks of tests/fixtures/reference/scor, the two
            format examples, and damaged copies of one (cut short, counts changed).
+survey:    the invented reservoir survey of sample_projects/reservoir_survey (its five
+           files joined like csv_model: hauls, strata, lengths, stomachs, taxa), a cut-down
+           copy, one without strata, one with swept_area_km2 instead of tow length and
+           wing spread, and damaged copies (a column missing, a bad number, CRLF, cut short).
 project:   the sample projects and the version-1 fixture, made small (page size 512,
            rollback journal, VACUUM) so that a mutation has a chance to hit a row,
            plus a few damaged headers.
@@ -52,6 +56,40 @@ def scor_seeds():
     (out / "damaged_crlf.scor").write_bytes(text.replace(b"\n", b"\r\n"))
 
 
+SURVEY_FILES = ["hauls.csv", "strata.csv", "lengths.csv", "stomachs.csv", "taxa.csv"]
+
+
+def survey_seeds():
+    out = OUT / "survey"
+    folder = ROOT / "sample_projects/reservoir_survey"
+    files = {f: (folder / f).read_bytes() for f in SURVEY_FILES}
+
+    def seed(name, **changed):
+        parts = [changed.get(f.replace(".csv", ""), files[f]) for f in SURVEY_FILES]
+        (out / f"{name}.seed").write_bytes(SEPARATOR.join(parts))
+
+    def head(data, lines):
+        return b"\n".join(data.split(b"\n")[:lines]) + b"\n"
+
+    seed("reservoir_survey")
+    small = dict(hauls=head(files["hauls.csv"], 25), lengths=head(files["lengths.csv"], 12),
+                 stomachs=head(files["stomachs.csv"], 30))
+    seed("reservoir_survey_small", **small)
+    seed("no_strata", strata=b"-", **{k: v for k, v in small.items() if k != "strata"})
+    # swept_area_km2 given directly: tow length (km) x wing spread (m) / 1000.
+    rows = [r.split(b",") for r in head(files["hauls.csv"], 25).strip().split(b"\n")]
+    swept = [b",".join(r[:5] + [b"swept_area_km2"] + r[7:]) if i == 0 else
+             b",".join(r[:5] + [b"%.5f" % (float(r[5]) * float(r[6]) / 1000.0)] + r[7:]) for i, r in enumerate(rows)]
+    seed("swept_area_column", hauls=b"\n".join(swept) + b"\n", **{k: v for k, v in small.items() if k != "hauls"})
+    seed("damaged_missing_catch", hauls=small["hauls"].replace(b",catch_kg", b",catch"),
+         **{k: v for k, v in small.items() if k != "hauls"})
+    seed("damaged_bad_number", lengths=small["lengths"].replace(b",12,", b",1e400,", 1),
+         **{k: v for k, v in small.items() if k != "lengths"})
+    seed("damaged_crlf", **{k: v.replace(b"\n", b"\r\n") for k, v in small.items()})
+    seed("damaged_cut_short", hauls=small["hauls"][: len(small["hauls"]) // 2],
+         stomachs=small["stomachs"][:40], lengths=small["lengths"])
+
+
 def shrink(source, target):
     shutil.copyfile(source, target)
     con = sqlite3.connect(target)
@@ -76,13 +114,14 @@ def project_seeds():
 
 
 def main():
-    for sub in ["csv_model", "scor", "project"]:
+    for sub in ["csv_model", "scor", "project", "survey"]:
         shutil.rmtree(OUT / sub, ignore_errors=True)
         (OUT / sub).mkdir(parents=True)
     csv_seeds()
     scor_seeds()
     project_seeds()
-    for sub in ["csv_model", "scor", "project"]:
+    survey_seeds()
+    for sub in ["csv_model", "scor", "project", "survey"]:
         files = list((OUT / sub).iterdir())
         print(f"{sub}: {len(files)} seeds, {sum(f.stat().st_size for f in files)} bytes")
 

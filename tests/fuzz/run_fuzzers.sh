@@ -16,7 +16,7 @@ ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)"
 SECONDS_EACH="${1:-600}"
 shift || true
 TARGETS=("$@")
-[ ${#TARGETS[@]} -eq 0 ] && TARGETS=(csv_model scor project)
+[ ${#TARGETS[@]} -eq 0 ] && TARGETS=(csv_model scor project survey)
 BUILD="${TL_FUZZ_BUILD_DIR:-$ROOT/build-fuzz}"
 
 command -v clang++ >/dev/null || { echo "run_fuzzers.sh needs clang++ (Debian package clang)" >&2; exit 2; }

@@ -1,9 +1,9 @@
 #include "ui/report/report_pdf.h"
 
-#include <filesystem>
-#include <system_error>
+#include <string_view>
 
 #include <QAbstractTextDocumentLayout>
+#include <QBuffer>
 #include <QFont>
 #include <QGuiApplication>
 #include <QPainter>
@@ -35,10 +35,14 @@ void ensureGuiApplication()
 std::string writeReportPdf(const tl::HtmlReport& report, const std::string& path)
 {
     ensureGuiApplication();
-    const std::filesystem::path target(path);
-    const std::filesystem::path temp = tl::temporaryBeside(target);
+    // Drawn into memory, then written by writeFileAtomically, which checks every write:
+    // QPdfWriter on a file reports no write error, so a full disk would leave a cut-short
+    // PDF that looked written (issue 12).
+    QByteArray pdf;
     {
-        QPdfWriter writer(QString::fromStdString(temp.string()));
+        QBuffer buffer(&pdf);
+        buffer.open(QIODevice::WriteOnly);
+        QPdfWriter writer(&buffer);
         writer.setResolution(96);  // layout in CSS pixels, as the HTML's figures are sized
         writer.setPageSize(QPageSize(QPageSize::A4));
         writer.setPageMargins(QMarginsF(15, 15, 15, 18), QPageLayout::Millimeter);
@@ -76,16 +80,9 @@ std::string writeReportPdf(const tl::HtmlReport& report, const std::string& path
         }
         if (!painter.end()) return path + ": cannot be written (the PDF could not be finished)";
     }
-    std::error_code ec;
-    if (!std::filesystem::exists(temp, ec) || std::filesystem::file_size(temp, ec) == 0) {
-        std::filesystem::remove(temp, ec);
-        return path + ": cannot be written (no file could be made beside it)";
-    }
-    std::filesystem::rename(temp, target, ec);
-    if (ec) {
-        std::filesystem::remove(temp, ec);
-        return path + ": cannot be written (" + ec.message() + ")";
-    }
+    if (pdf.isEmpty()) return path + ": cannot be written (the PDF came out empty)";
+    if (const auto error = tl::writeFileAtomically(path, std::string_view(pdf.constData(), static_cast<std::size_t>(pdf.size()))))
+        return path + ": cannot be written (" + *error + ")";
     return {};
 }
 

@@ -7,7 +7,9 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <regex>
 
+#include "core/fieldwork/fieldwork_report.h"
 #include "core/fieldwork/length_mortality.h"
 #include "core/fieldwork/student_t.h"
 #include "core/model/problem_codes.h"
@@ -121,6 +123,23 @@ TEST(CatchCurve, SelectedPointsAndRefusals)
     const CatchCurveResult up = lengthConvertedCatchCurve(rising, {50.0, 0.3}, {0, 1, 2, 3});
     EXPECT_FALSE(up.estimate.valid);
     EXPECT_EQ(up.estimate.problems[0].code, code::kFieldworkInvalidInput);
+}
+
+// Issue 12, defect 7: with an enormous L∞ every class's time in class rounds to 0 and
+// ln(C/dt) is infinite; such points are not usable, and no message or table shows a NaN
+// or an infinity (it printed "slope -nan" and an r² of 1 over undefined points).
+TEST(CatchCurve, AnEnormousLinfGivesNoPointsAndNoNanInTheMessages)
+{
+    const std::vector<LengthClass> c = curveWithKnownZ(0.8, 50.0, 0.3, 6.0);
+    const std::regex nonFinite("(^|[^A-Za-z])-?(inf|nan|infinity)([^A-Za-z]|$)", std::regex::icase);
+    for (const std::vector<std::size_t>& chosen : {std::vector<std::size_t>{}, std::vector<std::size_t>{1, 2, 3}}) {
+        const CatchCurveResult r = lengthConvertedCatchCurve(c, {1e300, 0.3}, chosen);
+        EXPECT_FALSE(r.estimate.valid);
+        ASSERT_FALSE(r.estimate.problems.empty());
+        for (const CatchCurvePoint& p : r.points) EXPECT_FALSE(p.usable) << p.fromCm;
+        for (const Problem& p : r.estimate.problems) EXPECT_FALSE(std::regex_search(p.message, nonFinite)) << p.message;
+        EXPECT_FALSE(std::regex_search(catchCurveTable(r), nonFinite)) << catchCurveTable(r);
+    }
 }
 
 }  // namespace

@@ -149,6 +149,24 @@ TEST(SurveyTables, EachMalformedLengthStomachStrataOrTaxaFileNamesTheCell)
     EXPECT_NE(unknown[0].hint.find("'Bream'"), std::string::npos);
 }
 
+// Issue 12, defect 7, found by fuzz_survey: a pooled count of 1e308 stomachs was read
+// (and turned into a negative int), and numbers near the largest double were accepted,
+// so sums overflowed to infinity. Both are refused at their cell now.
+TEST(SurveyTables, OverflowingNumbersAndStomachCountsAreRefusedAtTheirCell)
+{
+    const std::string s = "sample,predator,prey,amount,stomachs\n";
+    EXPECT_TRUE(errorAt(parseStomachs(s + "1,perch,roach,2,1e308\n", "s.csv").problems, "s.csv", code::kValueTooLarge, 2, 5));
+    EXPECT_TRUE(errorAt(parseStomachs(s + "1,perch,roach,2,3000000\n", "s.csv").problems, "s.csv", code::kSurveyValue, 2, 5));
+    EXPECT_TRUE(parseStomachs(s + "1,perch,roach,2,1000000\n", "s.csv").value.has_value()) << "the largest count allowed";
+    EXPECT_TRUE(errorAt(parseStomachs(s + "1,perch,roach,1e308,1\n", "s.csv").problems, "s.csv", code::kValueTooLarge, 2, 4));
+    EXPECT_TRUE(errorAt(parseHauls(std::string(kHaulHeader) + "A,1,2026-07-01,,0.02,roach,1e31,\n", "h.csv").problems,
+                        "h.csv", code::kValueTooLarge, 2, 7));
+    EXPECT_TRUE(errorAt(parseLengths("taxon,length_from_cm,length_to_cm,count\nroach,10,12,1e300\n", "l.csv").problems,
+                        "l.csv", code::kValueTooLarge, 2, 4));
+    EXPECT_TRUE(parseHauls(std::string(kHaulHeader) + "A,1,2026-07-01,,0.02,roach,1e30,\n", "h.csv").value.has_value())
+        << "1e30 itself is accepted, as in the model's own files";
+}
+
 TEST(SurveyTables, MissingFileIsAnErrorNamingIt)
 {
     const auto read = readHauls("/no/such/folder/hauls.csv");

@@ -127,5 +127,29 @@ TEST(SweptArea, RefusesWhatItCannotEstimate)
     EXPECT_FALSE(r.estimate.valid);
 }
 
+// Issue 12, defect 7: a swept area near 0 (or a tiny catchability) divided a catch into
+// infinity, reported as a valid "B = undefined" with "inf kg/km²" among its inputs.
+TEST(SweptArea, AnOverflowingCatchPerAreaIsRefusedNamingTheSmallestArea)
+{
+    const auto read = parseHauls("station,haul,date,swept_area_km2,taxon,catch_kg\n"
+                                 "A,1,2026-06-01,0.02,perch,5\n"
+                                 "B,1,2026-06-01,1e-320,perch,1e30\n",
+                                 "hauls.csv");
+    ASSERT_TRUE(read.value);
+    const SweptAreaResult r = sweptAreaBiomass(*read.value, mapping({{"perch", "Perch"}}), "Perch", {});
+    EXPECT_FALSE(r.estimate.valid);
+    ASSERT_FALSE(r.estimate.problems.empty());
+    EXPECT_EQ(r.estimate.problems[0].code, code::kFieldworkInvalidInput);
+    ASSERT_TRUE(r.estimate.problems[0].location);
+    EXPECT_EQ(r.estimate.problems[0].location->line, 3);
+    // A catchability near 0 with ordinary hauls: the same refusal.
+    const auto ordinary = parseHauls("station,haul,date,swept_area_km2,taxon,catch_kg\n"
+                                     "A,1,2026-06-01,0.02,perch,5\nB,1,2026-06-01,0.02,perch,7\n",
+                                     "hauls.csv");
+    SweptAreaOptions o;
+    o.catchability = 1e-320;
+    EXPECT_FALSE(sweptAreaBiomass(*ordinary.value, mapping({{"perch", "Perch"}}), "Perch", {}, o).estimate.valid);
+}
+
 }  // namespace
 }  // namespace tl::fieldwork
