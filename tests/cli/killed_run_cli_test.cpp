@@ -107,7 +107,8 @@ TEST(KilledRun, AnEnsembleKilledMidRunLeavesTheProjectByteForByteAndItsStoredRun
     const fs::path project = dir / "reservoir.tledger";
     fs::copy_file(kSamples / "reservoir.tledger", project);
     const CliRun first = runTledger("ensemble " + shellQuoted(project.string()) + " --scenario baseline --draws 3000 --seed 5");
-    ASSERT_EQ(first.exitCode, 0) << first.err;
+    // 1: no draw balanced (the sample's baseline is left unbalanced for reconcile); the run is stored either way.
+    ASSERT_TRUE(first.exitCode == 0 || first.exitCode == 1) << first.err;
     const std::vector<StoredRun> before = storedRuns(project);
     ASSERT_EQ(before.size(), 1u);
     const std::string bytes = slurp(project);
