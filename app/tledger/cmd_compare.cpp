@@ -21,6 +21,7 @@
 #include "app/tledger/commands.h"
 #include "app/tledger/options.h"
 #include "core/compare/comparison_report.h"
+#include "core/io/balance_report.h"
 #include "core/compare/ensemble_agreement.h"
 #include "core/compare/scenario_comparison.h"
 #include "core/store/model_source.h"
@@ -109,13 +110,17 @@ int cmdCompare(const Args& args)
     for (const Problem& p : source.problems)
         std::cerr << (p.severity == Severity::Error ? "" : "warning: ") << p.describe()
                   << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
-    if (!source.project) return 2;
+    // A project or scenario that cannot be compared: the message on stderr and, with --json,
+    // the status JSON that solve, network and ensemble print (issue 12, defect 6), exit 2.
+    const auto cannotCompare = [&](const Problems& problems, const std::string& why) {
+        std::cerr << "tledger compare: " << why << '\n';
+        if (opts->has("--json")) std::cout << statusJson("invalid", problems, why);
+        return 2;
+    };
+    if (!source.project) return cannotCompare(source.problems, path.string() + " cannot be read as a project");
     std::string error;
     const auto picked = pickScenarios(*source.project, splitScenarioList(*list), error);
-    if (picked.empty()) {
-        std::cerr << "tledger compare: " << path.string() << ": " << error << '\n';
-        return 2;
-    }
+    if (picked.empty()) return cannotCompare({}, path.string() + ": " + error);
     AnalysisOptions options;
     if (opts->has("--keep-feeding-cycles")) options.feedingCycles = FeedingCycles::Kept;
     if (stored) {
@@ -123,20 +128,14 @@ int cmdCompare(const Args& args)
         std::vector<std::string> warnings;
         agreement = storedEnsembleSettings(*source.project, picked, error, warnings);
         for (const std::string& w : warnings) std::cerr << "warning: " << w << '\n';
-        if (!agreement) {
-            std::cerr << "tledger compare: " << path.string() << ": " << error << '\n';
-            return 2;
-        }
+        if (!agreement) return cannotCompare({}, path.string() + ": " + error);
     }
     if (agreement) agreement->threads = *threads;
     ScenarioComparison comparison = compareScenarios(picked, options);
     if (agreement) {
         const EnsembleAgreementRun run = attachEnsembleRuns(comparison, picked, *agreement);
         for (const Problem& p : run.problems) std::cerr << p.describe() << (p.hint.empty() ? "" : " (" + p.hint + ")") << '\n';
-        if (!run.problems.empty()) {
-            std::cerr << "tledger compare: the ensembles cannot be run, so no same-sign shares\n";
-            return 2;
-        }
+        if (!run.problems.empty()) return cannotCompare(run.problems, "the ensembles cannot be run, so no same-sign shares");
         if (comparison.ensemble && comparison.ensemble->paired < 10)
             std::cerr << "tledger compare: only " << comparison.ensemble->paired << " of " << agreement->draws
                       << " draws balance in every scenario; the same-sign shares rest on few draws\n";

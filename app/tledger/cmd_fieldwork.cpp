@@ -342,9 +342,12 @@ void report(const Estimate& e, bool json, const std::function<void(JsonWriter&)>
     std::cout << kDecisionSupportNotice << "\n";
 }
 
-int failed(const Problems& problems)
+// An estimate that cannot be made: its problems on stderr and, with --json, the status JSON
+// that the other commands print (issue 12, defect 6), exit 2.
+int failed(const ParsedOptions& o, const Problems& problems)
 {
     printProblems(problems);
+    if (o.has("--json")) std::cout << statusJson("invalid", problems, "the estimate cannot be made from these data");
     return 2;
 }
 
@@ -365,13 +368,13 @@ int biomass(const ParsedOptions& o, const ConversionFactors& factors)
     Problems problems = hauls.problems;
     problems.insert(problems.end(), taxa.problems.begin(), taxa.problems.end());
     if (strata) problems.insert(problems.end(), strata->problems.begin(), strata->problems.end());
-    if (hasErrors(problems)) return failed(problems);
+    if (hasErrors(problems)) return failed(o, problems);
     if (options.catchability == 1.0 && !o.value("--catchability"))
         std::cerr << "note: catchability X1 = 1 assumed (every fish in the net's path retained); give --catchability "
                      "for your gear\n";
     SweptAreaResult r = sweptAreaBiomass(*hauls.value, *taxa.value, compartment,
                                          strata ? *strata->value : std::vector<Stratum>{}, options);
-    if (!r.estimate.valid) return failed(r.estimate.problems);
+    if (!r.estimate.valid) return failed(o, r.estimate.problems);
     std::string written;
     if (const auto t = targetOf(o)) {
         const int rc = writeScalar(*t, Param::Biomass, r.estimate, factors, written);
@@ -401,7 +404,7 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
                            " (it takes L∞ and K as known)"))
             return 2;
         const auto lengths = readLengths(*o.value("--lengths"));
-        if (!lengths.value) return failed(lengths.problems);
+        if (!lengths.value) return failed(o, lengths.problems);
         const std::string taxon(trim(*o.value("--taxon")));
         const std::vector<LengthClass> classes = classesOf(*lengths.value, taxon);
         if (classes.empty()) {
@@ -423,7 +426,7 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
             curve = lengthConvertedCatchCurve(classes, {*linf, *k}, points, level);
             if (!curve.estimate.valid) {
                 if (!curve.points.empty()) std::cerr << catchCurveTable(curve);
-                return failed(curve.estimate.problems);
+                return failed(o, curve.estimate.problems);
             }
             e = curve.estimate;
             extras = [&](JsonWriter& w) { writeCatchCurveJson(w, curve); };
@@ -432,7 +435,7 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
             const auto cutoff = numberOption(o, "--cutoff", ok);
             if (!ok) return 2;
             meanLength = meanLengthZ(classes, {*linf, *k}, cutoff, level);
-            if (!meanLength.estimate.valid) return failed(meanLength.estimate.problems);
+            if (!meanLength.estimate.valid) return failed(o, meanLength.estimate.problems);
             e = meanLength.estimate;
             extras = [&](JsonWriter& w) { writeMeanLengthJson(w, meanLength); };
         }
@@ -460,7 +463,7 @@ int mortality(const ParsedOptions& o, const ConversionFactors& factors)
                   << "': expected catch-curve, mean-length, pauly1980, then-tmax or then-growth\n";
         return 2;
     }
-    if (!e.valid) return failed(e.problems);
+    if (!e.valid) return failed(o, e.problems);
 
     std::string written;
     if (const auto t = targetOf(o)) {
@@ -492,7 +495,7 @@ int consumption(const ParsedOptions& o, const ConversionFactors& factors)
         return 2;
     }
     const Estimate e = palomaresPaulyConsumption(*winf, *t, *a, feeding, *u);
-    if (!e.valid) return failed(e.problems);
+    if (!e.valid) return failed(o, e.problems);
     std::string written;
     if (const auto target = targetOf(o)) {
         const int rc = writeScalar(*target, Param::QB, e, factors, written);
@@ -520,10 +523,10 @@ int diet(const ParsedOptions& o)
     const auto taxa = readTaxa(*o.value("--taxa"));
     Problems problems = stomachs.problems;
     problems.insert(problems.end(), taxa.problems.begin(), taxa.problems.end());
-    if (hasErrors(problems)) return failed(problems);
+    if (hasErrors(problems)) return failed(o, problems);
     const std::string predator(trim(*o.value("--compartment")));
     const StomachDiet d = dietFromStomachs(*stomachs.value, *taxa.value, predator, options);
-    if (!d.valid) return failed(d.problems);
+    if (!d.valid) return failed(o, d.problems);
 
     std::string written;
     if (const auto t = targetOf(o)) {

@@ -106,6 +106,34 @@ TEST(NewCommandsReliability, EnsembleAndReconcileJsonOfAnUnsolvableScenarioHaveS
     EXPECT_FALSE(fs::exists(dir / "out"));
 }
 
+// Every --json command answers in JSON when it cannot go on, not only solve, network,
+// ensemble and reconcile: fieldwork on a damaged survey table, compare on an unknown scenario.
+TEST(NewCommandsReliability, FieldworkAndCompareJsonOnBadInputHaveStatusAndProblems)
+{
+    ScratchDir dir("bad_input_json");
+    const fs::path hauls = dir / "hauls.csv";
+    writeText(hauls,
+              "station,haul,date,stratum,gear,tow_length_km,wing_spread_m,taxon,catch_kg\n"
+              "D01,1,2026-07-01,dam basin,bottom trawl,1.67,14.0,roach adult,lots\n");
+    const CliRun fieldwork = runTledger("fieldwork biomass --hauls " + q(hauls) + " --taxa " + q(kSurvey / "taxa.csv") +
+                                        " --compartment 'Roach adults' --json");
+    EXPECT_EQ(fieldwork.exitCode, 2) << fieldwork.err;
+    ASSERT_FALSE(fieldwork.out.empty()) << fieldwork.err;
+    const nlohmann::json f = fieldwork.json();
+    EXPECT_EQ(f.at("status"), "invalid");
+    ASSERT_FALSE(f.at("problems").empty());
+    EXPECT_EQ(f.at("problems")[0].at("location").at("line"), 2);  // the bad catch_kg cell, named
+    EXPECT_EQ(f.at("problems")[0].at("location").at("column"), 9);
+
+    const CliRun compare = runTledger("compare " + q(kSamples / "reservoir.tledger") +
+                                      " --scenarios baseline,'no such scenario' --json");
+    EXPECT_EQ(compare.exitCode, 2) << compare.err;
+    ASSERT_FALSE(compare.out.empty()) << compare.err;
+    const nlohmann::json c = compare.json();
+    EXPECT_EQ(c.at("status"), "invalid");
+    EXPECT_NE(c.at("message").get<std::string>().find("no such scenario"), std::string::npos) << c.dump();
+}
+
 // What a full disk must leave: the previous output unchanged and no temporary beside it.
 struct FullDiskCase {
     std::string name;     // what the case is, for the messages
