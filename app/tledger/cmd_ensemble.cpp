@@ -13,6 +13,7 @@
 // Exit: 0 ran, 1 no draw balanced (or cancelled by Ctrl-C), 2 bad input or usage.
 #include <unistd.h>
 
+#include <algorithm>
 #include <charconv>
 #include <csignal>
 #include <cstdio>
@@ -27,6 +28,7 @@
 #include "core/io/atomic_file.h"
 #include "core/io/balance_report.h"
 #include "core/io/csv_table.h"
+#include "core/model/problem_codes.h"
 #include "core/model/text.h"
 #include "core/store/model_source.h"
 #include "core/store/project_file.h"
@@ -213,7 +215,10 @@ int cmdEnsemble(const Args& rawArgs)
     std::signal(SIGINT, SIG_DFL);
     if (!run.ran()) {
         printProblems(run.problems);
-        const std::string why = "scenario '" + scenario.name + "' of " + path.string() + " cannot be run";
+        const bool settingsOnly = std::all_of(run.problems.begin(), run.problems.end(),
+                                              [](const Problem& p) { return p.code == code::kEnsembleSettings; });
+        const std::string why = settingsOnly ? "these run settings are refused (see above); the scenario itself can be run"
+                                             : "scenario '" + scenario.name + "' of " + path.string() + " cannot be run";
         std::cerr << "tledger ensemble: " << why << "\n";
         // --json still prints its status and problems, as solve and network do (issue 12).
         if (opts->has("--json")) std::cout << statusJson("invalid", run.problems, why);

@@ -328,6 +328,24 @@ EnsembleRun runEnsemble(const Model& model, const EnsembleSettings& settings, co
     const OutputLayout layout(model, settings.analyses, inputs.pointInputs());
     const std::size_t nOut = layout.names().size();
     const std::size_t nIn = inputs.size();
+    // Kept draws live in memory (worker rows, the draw-ordered matrix, then the CSV text:
+    // about five times the numbers at the peak), so a run that could keep more than
+    // kMaxKeptNumbers is refused up front rather than exhausting memory half way (issue 12,
+    // item 11). Counted on the draws asked for: which of them balance is not known yet.
+    if (settings.keepBalancedDraws) {
+        const std::uint64_t perDraw = nIn + nOut + 1;
+        if (range.size() > kMaxKeptNumbers / perDraw) {
+            const std::uint64_t fit = kMaxKeptNumbers / perDraw;
+            run.problems.push_back(problem(
+                code::kEnsembleSettings,
+                "Keeping the balanced draws of " + std::to_string(range.size()) + " draws of " + std::to_string(perDraw) +
+                    " numbers each could take " + std::to_string(range.size() * perDraw * 8 / (1u << 20)) +
+                    " MiB in memory; one run keeps at most " + std::to_string(fit) + " draws of this scenario.",
+                "Keep the draws of a smaller run (--draws " + std::to_string(fit) +
+                    " or fewer); the statistics of a large run need no kept draws."));
+            return run;
+        }
+    }
 
     // The point estimate sets each output's scale (output_statistics.h). Every slice
     // computes it the same way, so their statistics share bins.

@@ -70,6 +70,10 @@ struct EnsembleStatistics {
     bool operator==(const EnsembleStatistics&) const = default;
 };
 
+// Most numbers (draw index, inputs and outputs of every draw asked for) one run may keep:
+// 2^27, 1 GiB of doubles and about 5 GiB at the peak of writing them as CSV.
+inline constexpr std::uint64_t kMaxKeptNumbers = std::uint64_t{1} << 27;
+
 // Balanced draws kept on request: one row per draw, in draw order; a plain matrix for
 // global sensitivity (PRCC) and for CSV export.
 struct KeptDraws {

@@ -11,6 +11,7 @@
 #include "core/balance/solver.h"
 #include "core/ensemble/ensemble.h"
 #include "core/ensemble/ensemble_report.h"
+#include "core/model/problem_codes.h"
 #include "tests/bench/synthetic_model.h"
 #include "tests/support/test_support.h"
 
@@ -264,6 +265,32 @@ TEST(Ensemble, RefusesBadSettingsAndStopsWhenCancelled)
     });
     EXPECT_EQ(lastDone, 500u);
     EXPECT_GE(calls, 1u);
+}
+
+// Kept draws are held in memory: a run that could keep more than kMaxKeptNumbers is
+// refused before any draw, naming how many draws of this scenario fit (issue 12, item 11).
+TEST(Ensemble, KeepingMoreDrawsThanMemoryAllowsIsRefusedUpFrontNamingWhatFits)
+{
+    const Model model = lagoon();
+    EnsembleSettings s = settings(kMaxKeptNumbers, 2);  // at least one number per draw: over the limit
+    s.keepBalancedDraws = true;
+    const EnsembleRun refused = runEnsemble(model, s);
+    ASSERT_FALSE(refused.ran());
+    EXPECT_EQ(refused.statistics.drawsRun, 0u);
+    ASSERT_EQ(refused.problems.size(), 1u);
+    EXPECT_EQ(refused.problems[0].code, code::kEnsembleSettings);
+    EnsembleSettings small = settings(50, 1);
+    small.keepBalancedDraws = true;
+    const KeptDraws kept = runEnsemble(model, small).kept;
+    const std::uint64_t perDraw = kept.inputNames.size() + kept.outputNames.size() + 1;
+    EXPECT_NE(refused.problems[0].message.find("at most " + std::to_string(kMaxKeptNumbers / perDraw) + " draws"),
+              std::string::npos)
+        << refused.problems[0].message;
+    // The same count without kept draws streams its statistics and is not refused
+    // (cancelled at once: only the refusal is under test).
+    s.keepBalancedDraws = false;
+    std::atomic<bool> cancel{true};
+    EXPECT_TRUE(runEnsemble(model, s, &cancel).ran());
 }
 
 TEST(Ensemble, OutputsAreSummarisedOverBalancedDrawsAroundThePointEstimate)
