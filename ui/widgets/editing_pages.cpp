@@ -118,7 +118,11 @@ CompartmentsPage::CompartmentsPage(ProjectDocument* doc, QWidget* parent)
     // Room for an EE marked "1.156 — above 1" beside its icon (issue 13), after every reset.
     auto widenEE = [this] {
         const int ee = CompartmentTableModel::columnOf(tl::Param::EE);
-        const int need = view()->fontMetrics().horizontalAdvance(eeAboveMaxText(QStringLiteral("0.0000"), 1.0)) + 36;
+        // Four significant digits ("1.156", "12.35"), the icon beside them and the cell's margins:
+        // at 1024x700 every pixel decides whether EE shows whole (ui_small_window_test).
+        const int icon = view()->style()->pixelMetric(QStyle::PM_SmallIconSize, nullptr, view());
+        const int margin = view()->style()->pixelMetric(QStyle::PM_FocusFrameHMargin, nullptr, view()) + 1;
+        const int need = view()->fontMetrics().horizontalAdvance(eeAboveMaxText(QStringLiteral("0.000"), 1.0)) + icon + 4 * margin + 4;
         view()->setColumnWidth(ee, std::max(view()->columnWidth(ee), need));
     };
     widenEE();
