@@ -126,6 +126,10 @@ void setCell(tl::ui::MainWindow& w, int row, Param p, const QString& text)
 class WorkbenchFirstUseTest : public QObject {
     Q_OBJECT
 private slots:
+    // The program's style sheet, as app/gui/main.cpp applies it: its paddings and fonts
+    // change row heights and widths, where stale or cut rows would show.
+    void initTestCase() { qApp->setStyleSheet(tl::ui::styleSheet()); }
+
     // Item 1: after every edit, undo and scenario switch the panel lists exactly the
     // problems of the scenario on screen, and draws them as a fresh panel would.
     void checksPanelShowsExactlyTheCurrentProblems()
