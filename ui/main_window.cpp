@@ -10,6 +10,7 @@
 #include <QDir>
 #include <QDockWidget>
 #include <QDragEnterEvent>
+#include <QFile>
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QHBoxLayout>
@@ -165,6 +166,16 @@ MainWindow::~MainWindow()
 
 // --- pages -------------------------------------------------------------------------------
 
+namespace {
+// Each page its own icon (resources/icons/page-KEY.svg): below 1200 px the rail shows icons
+// only, so pages that shared one could be told apart by tooltip alone.
+QIcon pageIcon(const QString& key)
+{
+    const QString file = QStringLiteral(":/tl/icons/page-%1.svg").arg(key);
+    return QFile::exists(file) ? QIcon(file) : QIcon(QStringLiteral(":/tl/icons/page-level-bars.svg"));
+}
+}  // namespace
+
 void MainWindow::addPage(QWidget* page, const QString& title, const QString& key, const QIcon& icon)
 {
     stack_->addWidget(page);
@@ -246,13 +257,8 @@ void MainWindow::buildPages()
     harvest_ = new HarvestPage(doc_, this);
     routing_ = new RoutingPage(doc_, this);
     editingPages_ = {compartments_, diet_, harvest_, routing_};
-    const QIcon icons[] = {QIcon(QStringLiteral(":/tl/icons/page-compartments.svg")),
-                           QIcon(QStringLiteral(":/tl/icons/page-diet.svg")),
-                           QIcon(QStringLiteral(":/tl/icons/page-harvest.svg")),
-                           QIcon(QStringLiteral(":/tl/icons/page-routing.svg"))};
-    int k = 0;
     for (EditingPage* p : editingPages_) {
-        addPage(p, p->title(), p->key(), icons[k++]);
+        addPage(p, p->title(), p->key(), pageIcon(p->key()));
         connect(p, &EditingPage::message, this, [this](const QString& t) { message(t); });
         connect(p->view(), &LedgerTableView::blockEdited, this, &MainWindow::showBlockReport);
         connect(p->tableModel(), &ScenarioTableModel::inputRefused, this, [this](const QString& t) {
@@ -279,7 +285,7 @@ void MainWindow::buildPages()
         if (page && staleResults_.erase(page)) page->setScenario(doc_->model(), outcome_.sheet);
     });
     for (ResultsPage* p : resultsPages_) {
-        addPage(p, p->title(), p->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+        addPage(p, p->title(), p->key(), pageIcon(p->key()));
         bindFlowMapLayout(p, doc_);  // box positions: saved in the scenario, drags undoable
         connect(p, &ResultsPage::compartmentActivated, this, [this](const QString& name) {
             const auto i = doc_->model().indexOf(name.toStdString());
@@ -290,7 +296,7 @@ void MainWindow::buildPages()
     }
 #endif
     compare_ = new ComparePage(stack_);
-    addPage(compare_, compare_->title(), compare_->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+    addPage(compare_, compare_->title(), compare_->key(), pageIcon(compare_->key()));
     connect(compare_, &ComparePage::openCell, this, &MainWindow::openComparedCell);
     connect(stack_, &QStackedWidget::currentChanged, this, [this](int) {
         if (stack_->currentWidget() == compare_ && compareStale_) refreshCompare();
@@ -298,7 +304,7 @@ void MainWindow::buildPages()
     connect(doc_, &ProjectDocument::modelChanged, this, [this] { compareStale_ = true; refreshCompare(); });
     connect(doc_, &ProjectDocument::projectChanged, this, [this] { compareStale_ = true; refreshCompare(); });
     ensemble_ = new EnsemblePage(doc_, stack_);
-    addPage(ensemble_, ensemble_->title(), ensemble_->key(), QIcon(QStringLiteral(":/tl/icons/page-results.svg")));
+    addPage(ensemble_, ensemble_->title(), ensemble_->key(), pageIcon(ensemble_->key()));
     // Uncertainty bands on the results pages from the scenario's newest stored ensemble run.
     connect(doc_, &ProjectDocument::projectChanged, this, &MainWindow::updateEnsembleBands);
     updateEnsembleBands();

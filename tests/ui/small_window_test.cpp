@@ -14,6 +14,7 @@
 #include <QDockWidget>
 #include <QImage>
 #include <QLabel>
+#include <QListWidget>
 #include <QPushButton>
 #include <QSlider>
 #include <QTableView>
@@ -94,6 +95,7 @@ private slots:
     void everyPageFitsAndNothingIsCut();
     void compartmentsTableShowsItsMainColumns();
     void checksPanelShrinksWhenEmpty();
+    void railIconsTellEveryPageApart();
 };
 
 void SmallWindowTest::everyPageFitsAndNothingIsCut_data()
@@ -200,6 +202,28 @@ void SmallWindowTest::checksPanelShrinksWhenEmpty()
     settle();
     QVERIFY2(dock->height() >= 110, qPrintable(QString::number(dock->height())));
     QVERIFY(w.size() == kSmall);
+}
+
+// Below 1200 px the page rail shows icons only: each page needs an icon of its own (seven
+// results pages once shared one, told apart by tooltip alone).
+void SmallWindowTest::railIconsTellEveryPageApart()
+{
+    QTemporaryDir dir;
+    QString error;
+    const auto window = openSmall(dir, QStringLiteral(TL_SAMPLES_DIR "/reservoir.tledger"), &error);
+    QVERIFY2(window, qPrintable(error));
+    auto* rail = window->findChild<QListWidget*>(QStringLiteral("pageRail"));
+    QVERIFY(rail);
+    QCOMPARE(rail->count(), window->pageCount());
+    QList<QImage> seen;
+    for (int i = 0; i < rail->count(); ++i) {
+        QVERIFY2(rail->item(i)->text().isEmpty(), "compact rail: icons only");
+        const QImage icon = rail->item(i)->icon().pixmap(24, 24).toImage();
+        QVERIFY2(!icon.isNull(), qPrintable(window->pageKey(i)));
+        for (int j = 0; j < seen.size(); ++j)
+            QVERIFY2(seen[j] != icon, qPrintable(window->pageKey(i) + " has the icon of " + window->pageKey(j)));
+        seen << icon;
+    }
 }
 
 QTEST_MAIN(SmallWindowTest)
