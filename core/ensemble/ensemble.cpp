@@ -115,7 +115,9 @@ public:
             }
         }
         if (analyses_.trophicLevels) {
-            const TrophicLevels levels = computeTrophicLevels(in.diet, basal_);
+            // The worker's kept buffers and feeding loops (trophic_level.h): no allocation per draw.
+            computeTrophicLevels(in.diet, basal_, scratch.levelWork, scratch.levels);
+            const TrophicLevels& levels = scratch.levels;
             for (std::size_t i = 0; i < model.size(); ++i)
                 if (!basal_[i]) out[k++] = levels.tl[static_cast<Eigen::Index>(i)];
         }
