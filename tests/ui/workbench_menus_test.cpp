@@ -17,6 +17,7 @@
 #include <QScrollBar>
 #include <QTemporaryDir>
 #include <QTest>
+#include <array>
 #include <QTextBrowser>
 #include <QToolBar>
 #include <QUndoStack>
@@ -212,6 +213,9 @@ void WorkbenchMenusTest::projectSettingsAreUndoableAndSaved()
     dialog.biomassMaxEdit()->setText("5000");
     dialog.rateMaxEdit()->setText("200");
     dialog.flowMaxEdit()->setText("1e5");
+    QCOMPARE(dialog.gradeCvEdit(2)->text(), QStringLiteral("0.5"));  // the project's grade C
+    const std::array<double, 4> gradeCvs = {0.05, 0.2, 0.4, 0.9};
+    for (int g = 0; g < 4; ++g) dialog.gradeCvEdit(g)->setText(QString::number(gradeCvs[std::size_t(g)]));
     const std::size_t lastPool = m.detritusPools().back();
     dialog.poolCombos().front()->setCurrentIndex(dialog.poolCombos().front()->count() - 1);
     dialog.show();
@@ -231,6 +235,7 @@ void WorkbenchMenusTest::projectSettingsAreUndoableAndSaved()
     QCOMPARE(doc->project().info.units.currency, std::string("g C"));
     QCOMPARE(doc->project().info.rules.eeMax, 0.95);
     QCOMPARE(doc->project().info.rules.plausible, (tl::PlausibleRanges{5000, 200, 1e5}));
+    QCOMPARE(doc->project().info.rules.cvByGrade, gradeCvs);
     for (const auto& s : doc->project().scenarios) {  // every scenario carries the project's copy
         QCOMPARE(s.model.units.flow(), std::string("g C/m²/month"));
         QCOMPARE(s.model.rules.pqMax, 0.35);
@@ -252,6 +257,7 @@ void WorkbenchMenusTest::projectSettingsAreUndoableAndSaved()
     QCOMPARE(reread.project().info.rules.pqMin, 0.1);
     QCOMPARE(reread.model().rules.plausible, (tl::PlausibleRanges{5000, 200, 1e5}));
     QCOMPARE(reread.model().units.area, std::string("m²"));
+    QCOMPARE(reread.model().rules.cvByGrade, gradeCvs);  // what the ensemble and reconcile read
     QCOMPARE(reread.model().fleet(0).discardPool, std::optional<std::size_t>(lastPool));
 
     // Unchanged settings push no command.
@@ -287,6 +293,18 @@ void WorkbenchMenusTest::projectSettingsRefuseBadValuesNamingTheField()
         QVERIFY2(dialog.result() != QDialog::Accepted, c.text);
         QVERIFY2(dialog.errorLabel()->text().contains(QString::fromLatin1(c.names)), qPrintable(dialog.errorLabel()->text()));
         QVERIFY(doc->project() == before);  // nothing applied, nothing lost
+        QCOMPARE(doc->undoStack()->count(), 0);
+    }
+    // A grade's CV: above 0, at most 10, and no smaller than the better grade's.
+    const struct { int grade; const char* text; const char* names; } gradeCases[] = {
+        {0, "0", "grade A"}, {3, "11", "grade D"}, {1, "0.05", "grade B"}, {2, "x", "grade C"}};
+    for (const auto& c : gradeCases) {
+        ProjectSettingsDialog dialog(doc);
+        dialog.gradeCvEdit(c.grade)->setText(QString::fromLatin1(c.text));
+        dialog.accept();
+        QVERIFY2(dialog.result() != QDialog::Accepted, c.text);
+        QVERIFY2(dialog.errorLabel()->text().contains(QString::fromLatin1(c.names)), qPrintable(dialog.errorLabel()->text()));
+        QVERIFY(doc->project() == before);
         QCOMPARE(doc->undoStack()->count(), 0);
     }
 }

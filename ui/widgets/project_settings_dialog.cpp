@@ -7,6 +7,7 @@
 #include <QFormLayout>
 #include <QGroupBox>
 #include <QLabel>
+#include <QHBoxLayout>
 #include <QLineEdit>
 #include <QScreen>
 #include <QScrollArea>
@@ -51,6 +52,16 @@ QString checkSettings(const ProjectSettings& s, const tl::Model& model)
     if (!(p.biomassMax > 0)) return QObject::tr("Plausible B up to: expected a number above 0.");
     if (!(p.rateMax > 0)) return QObject::tr("Plausible P/B, Q/B up to: expected a number above 0.");
     if (!(p.flowMax > 0)) return QObject::tr("Plausible flows up to: expected a number above 0.");
+    // Grade A is the best supported, so its CV is the smallest (DESIGN: grades A-D).
+    const char* const grades = "ABCD";
+    for (std::size_t g = 0; g < 4; ++g) {
+        if (!(r.cvByGrade[g] > 0 && r.cvByGrade[g] <= 10))
+            return QObject::tr("CV of grade %1: expected a number above 0 and at most 10 (0.25 = 25 %).").arg(QChar::fromLatin1(grades[g]));
+        if (g > 0 && r.cvByGrade[g] < r.cvByGrade[g - 1])
+            return QObject::tr("CV of grade %1: expected at least the CV of grade %2 (grade A is the best supported).")
+                .arg(QChar::fromLatin1(grades[g]))
+                .arg(QChar::fromLatin1(grades[g - 1]));
+    }
     if (s.discardPools.size() != model.fleets().size()) return QObject::tr("The fleets changed while the dialog was open.");
     for (std::size_t f = 0; f < s.discardPools.size(); ++f) {
         const auto pool = s.discardPools[f];
@@ -145,6 +156,26 @@ ProjectSettingsDialog::ProjectSettingsDialog(ProjectDocument* doc, QWidget* pare
     ruleForm->addRow(tr("Plausible P/B, Q/B up to:"), rateMax_);
     ruleForm->addRow(tr("Plausible flows up to:"), flowMax_);
 
+    // What each data-confidence grade stands for: the ensemble draws and reconcile weighs
+    // an input of that grade with this CV unless the input has a CV of its own. One row,
+    // A to D, so that the dialog stays short enough for a small screen.
+    auto* grades = new QGroupBox(tr("Data confidence grades (the whole project)"), this);
+    auto* gradeForm = new QFormLayout(grades);
+    const QString gradeTip = tr("Coefficient of variation an input of grade %1 stands for (0.25 = 25 %), unless "
+                                "the input has a CV of its own; used by the ensemble and by reconcile. Grade A is "
+                                "the best supported.");
+    auto* gradeRow = new QHBoxLayout;
+    for (std::size_t g = 0; g < gradeCv_.size(); ++g) {
+        const QChar grade = QChar::fromLatin1("ABCD"[g]);
+        gradeCv_[g] = line(numberText(now.rules.cvByGrade[g]), gradeTip.arg(grade));
+        gradeCv_[g]->setAccessibleName(tr("CV of grade %1").arg(grade));
+        auto* label = new QLabel(QString(grade), this);  // no mnemonic: Alt+A and Alt+C name Area and Currency
+        label->setBuddy(gradeCv_[g]);
+        gradeRow->addWidget(label);
+        gradeRow->addWidget(gradeCv_[g], 1);
+    }
+    gradeForm->addRow(tr("CV of grades:"), gradeRow);
+
     auto* fleets = new QGroupBox(tr("Fleet discard pools (scenario %1)").arg(qs(doc->scenario().name)), this);
     auto* fleetForm = new QFormLayout(fleets);
     const tl::Model& m = doc->model();
@@ -174,6 +205,7 @@ ProjectSettingsDialog::ProjectSettingsDialog(ProjectDocument* doc, QWidget* pare
     auto* column = new QVBoxLayout(content);
     column->addWidget(units);
     column->addWidget(rules);
+    column->addWidget(grades);
     column->addWidget(fleets);
     column->addStretch(1);
     auto* scroll = new QScrollArea(this);  // many fleets must not push the buttons off a small screen
@@ -210,7 +242,11 @@ std::optional<ProjectSettings> ProjectSettingsDialog::settings(QString* why) con
         {dietTolerance_, &s.rules.dietSumTolerance, tr("Tolerance on diet sums")},
         {biomassMax_, &s.rules.plausible.biomassMax, tr("Plausible B up to")},
         {rateMax_, &s.rules.plausible.rateMax, tr("Plausible P/B, Q/B up to")},
-        {flowMax_, &s.rules.plausible.flowMax, tr("Plausible flows up to")}};
+        {flowMax_, &s.rules.plausible.flowMax, tr("Plausible flows up to")},
+        {gradeCv_[0], &s.rules.cvByGrade[0], tr("CV of grade A")},
+        {gradeCv_[1], &s.rules.cvByGrade[1], tr("CV of grade B")},
+        {gradeCv_[2], &s.rules.cvByGrade[2], tr("CV of grade C")},
+        {gradeCv_[3], &s.rules.cvByGrade[3], tr("CV of grade D")}};
     for (const auto& n : numbers) {
         const auto v = parseTypedNumber(n.edit->text());
         if (!v) {

@@ -8,6 +8,7 @@
 
 #include <QDialog>
 #include <QString>
+#include <array>
 #include <optional>
 #include <vector>
 
@@ -58,6 +59,7 @@ public:
     QLineEdit* biomassMaxEdit() const { return biomassMax_; }
     QLineEdit* rateMaxEdit() const { return rateMax_; }
     QLineEdit* flowMaxEdit() const { return flowMax_; }
+    QLineEdit* gradeCvEdit(int grade) const { return gradeCv_[std::size_t(grade)]; }  // 0 = A ... 3 = D
     const std::vector<QComboBox*>& poolCombos() const { return poolCombos_; }
     QLabel* errorLabel() const { return error_; }
 
@@ -67,6 +69,7 @@ private:
     ProjectDocument* doc_;
     QLineEdit *currency_, *area_, *time_, *eeMax_, *pqMin_, *pqMax_, *dietTolerance_;
     QLineEdit *biomassMax_, *rateMax_, *flowMax_;  // plausible ranges (warnings only)
+    std::array<QLineEdit*, 4> gradeCv_{};           // CV each confidence grade stands for, A to D
     std::vector<QComboBox*> poolCombos_;
     std::vector<std::size_t> pools_;  // detritus pools of the scenario, in model order
     QLabel* error_;
