@@ -15,7 +15,7 @@
 # (read-only, full disk, refused files, kill tests), the ensemble and fieldwork cores, and
 # the CLI tests that feed tledger hostile files, read-only projects, full disks and
 # SIGKILLs (they run the sanitized tledger). Measured on an idle 2-core machine without
-# ccache, the whole pass adds about 16 minutes to CI (DEVELOPERS.md, "Fuzzing, sanitizers
+# ccache, the whole pass adds about 18 minutes to CI (DEVELOPERS.md, "Fuzzing, sanitizers
 # and limits").
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/../app/bootstrap.sh"
